@@ -1,0 +1,96 @@
+// createApp(deps): the middleware order, the routers, then not-found and the error handler.
+// Tests build it on a test database; index.ts builds it and listens.
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import express from 'express';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import helmet from 'helmet';
+import { csrfSync } from 'csrf-sync';
+import type pg from 'pg';
+import type { Config } from './config';
+import type { Database } from './db/client';
+import { configurePassport } from './auth/passport';
+import { errorHandler } from './middleware/error-handler';
+import { apiNotFound } from './middleware/not-found';
+import { authRouter } from './routes/auth';
+import { plansRouter } from './routes/plans';
+import { membersRouter } from './routes/members';
+import { auditRouter } from './routes/audit';
+
+export type AppDeps = {
+  config: Config;
+  db: Database;
+  pool: pg.Pool;
+  log?: (err: unknown) => void;
+  // The built client; served with a fallback to index.html for client-side routes.
+  clientDir?: string;
+};
+
+const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
+
+function tileOrigin(url: string): string[] {
+  if (!url) return [];
+  try {
+    return [new URL(url.replaceAll(/\{[a-z]\}/g, 'a')).origin];
+  } catch {
+    return [];
+  }
+}
+
+export function createApp({ config, db, pool, log = console.error, clientDir = defaultClientDir }: AppDeps) {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:', ...tileOrigin(config.TILE_URL)],
+        },
+      },
+    }),
+  );
+  app.use(express.json({ limit: '1mb' }));
+
+  const PgStore = connectPgSimple(session);
+  app.use(
+    session({
+      name: 'cutline.sid',
+      store: new PgStore({ pool, tableName: 'sessions', createTableIfMissing: false }),
+      secret: config.SESSION_SECRET,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.COOKIE_SECURE, maxAge: 8 * 3600_000 },
+    }),
+  );
+  const passport = configurePassport(db);
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  // Synchroniser-token CSRF protection: the token lives in the session and must come back in
+  // the x-csrf-token header of every state-changing request.
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    size: 32,
+    getTokenFromRequest: (req) => req.get('x-csrf-token'),
+    errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'Invalid CSRF token' },
+  });
+  app.use('/api', csrfSynchronisedProtection);
+
+  app.use('/api/auth', authRouter({ db, config, passport, csrfToken: generateToken }));
+  app.use('/api/plans', plansRouter(db));
+  app.use('/api/members', membersRouter(db, config));
+  app.use('/api/audit', auditRouter(db));
+  app.use('/api', apiNotFound);
+
+  if (fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+
+  app.use(errorHandler(log));
+  return app;
+}

@@ -1,0 +1,43 @@
+// Errors a service may throw; the error handler turns each into its HTTP status and envelope.
+import type { ErrorCode } from '../shared/api/errors';
+
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: ErrorCode,
+    message: string,
+    readonly fields?: { path: string; message: string }[],
+  ) {
+    super(message);
+  }
+}
+
+export class NotFoundError extends HttpError {
+  constructor(what = 'record') {
+    super(404, 'not_found', `No such ${what}.`);
+  }
+}
+
+export class ForbiddenError extends HttpError {
+  constructor(message = 'Your role does not allow this.') {
+    super(403, 'forbidden', message);
+  }
+}
+
+export class UnauthenticatedError extends HttpError {
+  constructor() {
+    super(401, 'unauthenticated', 'Sign in first.');
+  }
+}
+
+export class ConflictError extends HttpError {
+  constructor(message: string) {
+    super(409, 'conflict', message);
+  }
+}
+
+export class BadRequestError extends HttpError {
+  constructor(message: string, fields?: { path: string; message: string }[]) {
+    super(400, 'invalid_request', message, fields);
+  }
+}

@@ -1,0 +1,32 @@
+// Starts the API and serves the built client on one port.
+import { loadConfig } from './config';
+import { createDatabase } from './db/client';
+import { createApp } from './app';
+import { demoAccounts } from './seed/demo-accounts';
+
+const config = loadConfig();
+const { db, pool } = createDatabase(config.DATABASE_URL);
+const app = createApp({ config, db, pool });
+
+const server = app.listen(config.PORT, config.HOST, () => {
+  const url = `http://${config.HOST === '0.0.0.0' ? 'localhost' : config.HOST}:${config.PORT}/`;
+  const lines = [
+    '',
+    `Cutline is running at ${url}`,
+    '',
+    'Demo sign-ins (an invented organization; change these before real use):',
+    ...demoAccounts.map((a) => `  ${a.role.padEnd(9)} ${a.email.padEnd(32)} password: ${a.password}`),
+    '',
+    'Stop with Ctrl+C.',
+  ];
+  console.log(lines.join('\n'));
+});
+
+function shutdown() {
+  server.close(() => {
+    pool.end().finally(() => process.exit(0));
+  });
+  setTimeout(() => process.exit(0), 5000).unref();
+}
+process.on('SIGINT', shutdown);
+process.on('SIGTERM', shutdown);

@@ -1,0 +1,94 @@
+// /api/auth: the session, sign-in, sign-out and the organization a session works in.
+import { Router, type Request } from 'express';
+import type passport from 'passport';
+import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
+import { signInRequestSchema, switchOrganizationRequestSchema, type SessionResponse } from '../../shared/api/auth';
+import type { Config } from '../config';
+import { HttpError, UnauthenticatedError, ForbiddenError } from '../errors';
+import { currentMembership } from '../middleware/require-member';
+import { recordAudit } from '../services/audit';
+import type { Database } from '../db/client';
+
+export type AuthRouterDeps = {
+  db: Database;
+  config: Config;
+  passport: passport.PassportStatic;
+  csrfToken: (req: Request, overwrite?: boolean) => string;
+};
+
+function sessionBody(req: Request, csrfToken: string): SessionResponse {
+  const membership = currentMembership(req);
+  if (!req.user || !membership) return { user: null, csrfToken };
+  return {
+    user: {
+      id: req.user.id,
+      email: req.user.email,
+      displayName: req.user.displayName,
+      memberships: req.user.memberships,
+      organizationId: membership.organizationId,
+      role: membership.role,
+    },
+    csrfToken,
+  };
+}
+
+export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps): Router {
+  const router = Router();
+
+  // Counted per address and account, so one person's typos do not lock out a whole office.
+  const signInLimiter = rateLimit({
+    windowMs: config.SIGN_IN_WINDOW_MINUTES * 60_000,
+    limit: config.SIGN_IN_ATTEMPTS_PER_WINDOW,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}`,
+    skipSuccessfulRequests: true,
+    handler: (_req, _res, next) =>
+      next(new HttpError(429, 'rate_limited', 'Too many sign-in attempts. Wait a few minutes and try again.')),
+  });
+
+  router.get('/session', (req, res) => {
+    res.json(sessionBody(req, csrfToken(req)));
+  });
+
+  router.post('/sign-in', signInLimiter, (req, res, next) => {
+    const input = signInRequestSchema.parse(req.body);
+    req.body = input;
+    passport.authenticate('local', (err: unknown, user: Express.User | false) => {
+      if (err) return next(err);
+      if (!user) return next(new HttpError(401, 'unauthenticated', 'Wrong e-mail address or password.'));
+      // req.login regenerates the session (passport ≥ 0.6), so a fresh CSRF token follows.
+      req.login(user, (loginError) => {
+        if (loginError) return next(loginError);
+        req.session.organizationId = user.memberships[0]?.organizationId;
+        const organizationId = req.session.organizationId;
+        const audit = organizationId
+          ? recordAudit(db, { userId: user.id, organizationId }, 'session.sign-in', 'user', user.id)
+          : Promise.resolve();
+        audit.then(() => res.json(sessionBody(req, csrfToken(req, true))), next);
+      });
+    })(req, res, next);
+  });
+
+  router.post('/sign-out', (req, res, next) => {
+    req.logout((err) => {
+      if (err) return next(err);
+      req.session.regenerate((regenerateError) => {
+        if (regenerateError) return next(regenerateError);
+        res.json(sessionBody(req, csrfToken(req, true)));
+      });
+    });
+  });
+
+  router.post('/organization', (req, res) => {
+    if (!req.isAuthenticated()) throw new UnauthenticatedError();
+    const { organizationId } = switchOrganizationRequestSchema.parse(req.body);
+    if (!req.user.memberships.some((m) => m.organizationId === organizationId)) {
+      throw new ForbiddenError('You are not a member of that organization.');
+    }
+    req.session.organizationId = organizationId;
+    res.json(sessionBody(req, csrfToken(req)));
+  });
+
+  return router;
+}

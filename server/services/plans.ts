@@ -1,0 +1,60 @@
+// Plans of one organization. Every query filters by the actor's organization, so a plan of
+// another organization is simply not found.
+import { and, desc, eq } from 'drizzle-orm';
+import type { Database } from '../db/client';
+import { plans } from '../db/schema';
+import type { Plan, PlanCreate, PlanUpdate } from '../../shared/api/plans';
+import { NotFoundError } from '../errors';
+import { recordAudit, type Actor } from './audit';
+
+type PlanRow = typeof plans.$inferSelect;
+
+function toPlan(row: PlanRow): Plan {
+  return { ...row, createdAt: row.createdAt.toISOString(), updatedAt: row.updatedAt.toISOString() };
+}
+
+export async function listPlans(db: Database, organizationId: string): Promise<Plan[]> {
+  const rows = await db.select().from(plans).where(eq(plans.organizationId, organizationId)).orderBy(desc(plans.updatedAt));
+  return rows.map(toPlan);
+}
+
+export async function getPlan(db: Database, organizationId: string, planId: string): Promise<Plan> {
+  const [row] = await db.select().from(plans).where(and(eq(plans.id, planId), eq(plans.organizationId, organizationId)));
+  if (!row) throw new NotFoundError('plan');
+  return toPlan(row);
+}
+
+export async function createPlan(db: Database, actor: Actor, input: PlanCreate): Promise<Plan> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(plans)
+      .values({ ...input, organizationId: actor.organizationId, createdBy: actor.userId })
+      .returning();
+    await recordAudit(tx, actor, 'plan.create', 'plan', row!.id, { name: input.name });
+    return toPlan(row!);
+  });
+}
+
+export async function updatePlan(db: Database, actor: Actor, planId: string, input: PlanUpdate): Promise<Plan> {
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(plans)
+      .set({ ...input, updatedAt: new Date() })
+      .where(and(eq(plans.id, planId), eq(plans.organizationId, actor.organizationId)))
+      .returning();
+    if (!row) throw new NotFoundError('plan');
+    await recordAudit(tx, actor, 'plan.update', 'plan', planId, input);
+    return toPlan(row);
+  });
+}
+
+export async function deletePlan(db: Database, actor: Actor, planId: string): Promise<void> {
+  await db.transaction(async (tx) => {
+    const [row] = await tx
+      .delete(plans)
+      .where(and(eq(plans.id, planId), eq(plans.organizationId, actor.organizationId)))
+      .returning({ id: plans.id, name: plans.name });
+    if (!row) throw new NotFoundError('plan');
+    await recordAudit(tx, actor, 'plan.delete', 'plan', planId, { name: row.name });
+  });
+}

@@ -1,0 +1,111 @@
+// Users and memberships: lookups for sign-in, and the administrator's member management.
+import { and, asc, eq } from 'drizzle-orm';
+import type { Database, Tx } from '../db/client';
+import { memberships, organizations, users } from '../db/schema';
+import type { Member, MemberCreate } from '../../shared/api/users';
+import type { Role } from '../../shared/api/roles';
+import { ConflictError, NotFoundError } from '../errors';
+import { hashPassword } from '../auth/password';
+import { recordAudit, type Actor } from './audit';
+
+export async function findUserForSignIn(db: Database, email: string) {
+  const [row] = await db.select().from(users).where(eq(users.email, email.toLowerCase()));
+  return row;
+}
+
+export async function loadAuthUser(db: Database, userId: string): Promise<Express.User | null> {
+  const [user] = await db.select().from(users).where(eq(users.id, userId));
+  if (!user || user.disabled) return null;
+  const rows = await db
+    .select({ organizationId: memberships.organizationId, organizationName: organizations.name, role: memberships.role })
+    .from(memberships)
+    .innerJoin(organizations, eq(organizations.id, memberships.organizationId))
+    .where(eq(memberships.userId, userId))
+    .orderBy(asc(organizations.name));
+  return { id: user.id, email: user.email, displayName: user.displayName, memberships: rows };
+}
+
+function toMember(row: { userId: string; email: string; displayName: string; role: Role; joinedAt: Date }): Member {
+  return { ...row, joinedAt: row.joinedAt.toISOString() };
+}
+
+const memberColumns = {
+  userId: users.id,
+  email: users.email,
+  displayName: users.displayName,
+  role: memberships.role,
+  joinedAt: memberships.joinedAt,
+};
+
+export async function listMembers(db: Database, organizationId: string): Promise<Member[]> {
+  const rows = await db
+    .select(memberColumns)
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(eq(memberships.organizationId, organizationId))
+    .orderBy(asc(users.displayName));
+  return rows.map(toMember);
+}
+
+export async function createMember(db: Database, actor: Actor, input: MemberCreate, rounds: number): Promise<Member> {
+  const passwordHash = await hashPassword(input.password, rounds);
+  return db.transaction(async (tx) => {
+    const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, input.email));
+    if (existing) throw new ConflictError('A user with that e-mail address already exists.');
+    const [user] = await tx
+      .insert(users)
+      .values({ email: input.email, displayName: input.displayName, passwordHash })
+      .returning();
+    const [membership] = await tx
+      .insert(memberships)
+      .values({ userId: user!.id, organizationId: actor.organizationId, role: input.role })
+      .returning();
+    await recordAudit(tx, actor, 'member.create', 'user', user!.id, { email: input.email, role: input.role });
+    return toMember({ userId: user!.id, email: user!.email, displayName: user!.displayName, role: membership!.role, joinedAt: membership!.joinedAt });
+  });
+}
+
+async function lockMembership(tx: Tx, organizationId: string, userId: string) {
+  const [row] = await tx
+    .select(memberColumns)
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.organizationId, organizationId), eq(memberships.userId, userId)))
+    .for('update', { of: memberships });
+  if (!row) throw new NotFoundError('member');
+  return row;
+}
+
+async function assertAnotherAdmin(tx: Tx, organizationId: string, userId: string) {
+  const admins = await tx
+    .select({ userId: memberships.userId })
+    .from(memberships)
+    .where(and(eq(memberships.organizationId, organizationId), eq(memberships.role, 'admin')));
+  if (!admins.some((a) => a.userId !== userId)) {
+    throw new ConflictError('An organization needs at least one administrator.');
+  }
+}
+
+export async function updateMemberRole(db: Database, actor: Actor, userId: string, role: Role): Promise<Member> {
+  return db.transaction(async (tx) => {
+    const current = await lockMembership(tx, actor.organizationId, userId);
+    if (current.role === 'admin' && role !== 'admin') await assertAnotherAdmin(tx, actor.organizationId, userId);
+    await tx
+      .update(memberships)
+      .set({ role })
+      .where(and(eq(memberships.organizationId, actor.organizationId), eq(memberships.userId, userId)));
+    await recordAudit(tx, actor, 'member.role', 'user', userId, { from: current.role, to: role });
+    return toMember({ ...current, role });
+  });
+}
+
+export async function removeMember(db: Database, actor: Actor, userId: string): Promise<void> {
+  await db.transaction(async (tx) => {
+    const current = await lockMembership(tx, actor.organizationId, userId);
+    if (current.role === 'admin') await assertAnotherAdmin(tx, actor.organizationId, userId);
+    await tx
+      .delete(memberships)
+      .where(and(eq(memberships.organizationId, actor.organizationId), eq(memberships.userId, userId)));
+    await recordAudit(tx, actor, 'member.remove', 'user', userId, { email: current.email });
+  });
+}

@@ -1,0 +1,9 @@
+import { z } from 'zod';
+import { memberListSchema, memberSchema, type MemberCreate } from '@shared/api/users';
+import type { Role } from '@shared/api/roles';
+import { request } from './http';
+
+export const listMembers = async () => (await request('GET', '/members', memberListSchema)).members;
+export const createMember = (input: MemberCreate) => request('POST', '/members', memberSchema, input);
+export const updateMemberRole = (userId: string, role: Role) => request('PATCH', `/members/${userId}`, memberSchema, { role });
+export const removeMember = (userId: string) => request('DELETE', `/members/${userId}`, z.undefined());

@@ -1,0 +1,50 @@
+// Named routes; every view but sign-in loads lazily. Guards send signed-out users to sign-in
+// and keep pages a role may not use out of reach (the server refuses them anyway).
+import { createRouter, createWebHistory } from 'vue-router';
+import type { Permission } from '@shared/api/roles';
+import { useSessionStore } from '@/stores/session';
+import SignInView from '@/views/SignInView.vue';
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    public?: boolean;
+    permission?: Permission;
+    title?: string;
+  }
+}
+
+export const router = createRouter({
+  history: createWebHistory(),
+  routes: [
+    { path: '/', redirect: { name: 'plans' } },
+    { path: '/sign-in', name: 'sign-in', component: SignInView, meta: { public: true, title: 'Sign in' } },
+    { path: '/plans', name: 'plans', component: () => import('@/views/PlanListView.vue'), meta: { title: 'Plans' } },
+    {
+      path: '/plans/:planId',
+      name: 'plan',
+      component: () => import('@/views/PlanOverviewView.vue'),
+      props: true,
+      meta: { title: 'Plan' },
+    },
+    {
+      path: '/admin/members',
+      name: 'members',
+      component: () => import('@/views/MemberAdminView.vue'),
+      meta: { permission: 'users:manage', title: 'Members' },
+    },
+    { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true, title: 'Not found' } },
+  ],
+});
+
+router.beforeEach(async (to) => {
+  const session = useSessionStore();
+  if (!session.loaded) await session.load().catch(() => undefined);
+  if (to.meta.public) return true;
+  if (!session.signedIn) return { name: 'sign-in', query: { next: to.fullPath } };
+  if (to.meta.permission && !session.allows(to.meta.permission)) return { name: 'plans' };
+  return true;
+});
+
+router.afterEach((to) => {
+  document.title = to.meta.title ? `${to.meta.title} · Cutline` : 'Cutline';
+});

@@ -1,0 +1,33 @@
+// The real server (API and built client) on an ephemeral loopback port, on a fresh test database.
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import { fileURLToPath } from 'node:url';
+import fs from 'node:fs';
+import { createApp } from '../../../server/app';
+import { loadConfig } from '../../../server/config';
+import { seedDemo } from '../../../server/seed/seed-demo';
+import { createTestDatabase, type TestDatabase } from '../../server/support/database';
+
+const clientDir = fileURLToPath(new URL('../../../dist', import.meta.url));
+
+export type LiveServer = TestDatabase & { url: string; stop: () => Promise<void> };
+
+export async function startLiveServer(): Promise<LiveServer> {
+  if (!fs.existsSync(`${clientDir}/index.html`)) throw new Error('The client is not built: run `npx vite build` (npm test does).');
+  const database = await createTestDatabase();
+  const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: database.url, PASSWORD_HASH_ROUNDS: '4' });
+  await seedDemo(database.db, config.PASSWORD_HASH_ROUNDS);
+  const app = createApp({ config, db: database.db, pool: database.pool, clientDir });
+  const server: Server = await new Promise((resolve) => {
+    const s = app.listen(0, '127.0.0.1', () => resolve(s));
+  });
+  const { port } = server.address() as AddressInfo;
+  return {
+    ...database,
+    url: `http://127.0.0.1:${port}`,
+    stop: async () => {
+      await new Promise((resolve) => server.close(resolve));
+      await database.drop();
+    },
+  };
+}

@@ -1,0 +1,44 @@
+// Test databases: one template migrated per test run (global-setup.ts), cloned for every test
+// file, so files run in parallel on the real PostgreSQL without seeing each other's rows.
+import { randomBytes } from 'node:crypto';
+import pg from 'pg';
+import { createDatabase, type Database } from '../../../server/db/client';
+
+export const templateDatabase = 'cutline_test_template';
+
+export function baseUrl(): string {
+  return process.env.CUTLINE_TEST_DATABASE_BASE_URL ?? `postgres://postgres@127.0.0.1:${process.env.CUTLINE_PG_PORT ?? 54329}/`;
+}
+
+export function databaseUrl(name: string): string {
+  return new URL(name, baseUrl()).toString();
+}
+
+export async function withAdminClient<T>(fn: (client: pg.Client) => Promise<T>): Promise<T> {
+  const client = new pg.Client({ connectionString: databaseUrl('postgres') });
+  await client.connect();
+  try {
+    return await fn(client);
+  } finally {
+    await client.end();
+  }
+}
+
+export type TestDatabase = { name: string; url: string; db: Database; pool: pg.Pool; drop: () => Promise<void> };
+
+export async function createTestDatabase(): Promise<TestDatabase> {
+  const name = `cutline_test_${randomBytes(5).toString('hex')}`;
+  await withAdminClient((c) => c.query(`CREATE DATABASE "${name}" TEMPLATE "${templateDatabase}"`));
+  const url = databaseUrl(name);
+  const { db, pool } = createDatabase(url);
+  return {
+    name,
+    url,
+    db,
+    pool,
+    drop: async () => {
+      await pool.end();
+      await withAdminClient((c) => c.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`));
+    },
+  };
+}

@@ -1,0 +1,73 @@
+// A real app on a fresh test database with two organizations: the demo one (one account per
+// role) and "Other", whose records the demo accounts must never see.
+import request from 'supertest';
+import type { Role } from '../../../shared/api/roles';
+import { createApp } from '../../../server/app';
+import { loadConfig, type Config } from '../../../server/config';
+import { seedDemo } from '../../../server/seed/seed-demo';
+import { seedOrganization } from '../../../server/seed/seed-organization';
+import { demoAccounts } from '../../../server/seed/demo-accounts';
+import { createTestDatabase, type TestDatabase } from './database';
+
+export const otherAccounts = [
+  { role: 'admin' as Role, email: 'admin@other.example', displayName: 'Other Admin', password: 'other-admin-2026' },
+  { role: 'planner' as Role, email: 'planner@other.example', displayName: 'Other Planner', password: 'other-planner-2026' },
+];
+
+export function accountFor(role: Role) {
+  const account = demoAccounts.find((a) => a.role === role);
+  if (!account) throw new Error(`no demo account for ${role}`);
+  return account;
+}
+
+export type TestContext = TestDatabase & {
+  app: ReturnType<typeof createApp>;
+  config: Config;
+  demoOrganizationId: string;
+  otherOrganizationId: string;
+  userIds: Record<string, string>;
+  errors: unknown[];
+};
+
+export async function createTestContext(env: Record<string, string> = {}): Promise<TestContext> {
+  const database = await createTestDatabase();
+  const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: database.url, PASSWORD_HASH_ROUNDS: '4', ...env });
+  const demo = await seedDemo(database.db, config.PASSWORD_HASH_ROUNDS);
+  const other = await seedOrganization(database.db, { name: 'Other County', slug: 'other' }, otherAccounts, config.PASSWORD_HASH_ROUNDS);
+  const errors: unknown[] = [];
+  const app = createApp({ config, db: database.db, pool: database.pool, log: (e) => errors.push(e), clientDir: '/nonexistent' });
+  return {
+    ...database,
+    app,
+    config,
+    demoOrganizationId: demo.organizationId,
+    otherOrganizationId: other.organizationId,
+    userIds: { ...demo.userIds, ...other.userIds },
+    errors,
+  };
+}
+
+export type SignedInAgent = { agent: ReturnType<typeof request.agent>; csrf: string };
+
+export async function csrfFor(agent: ReturnType<typeof request.agent>): Promise<string> {
+  const res = await agent.get('/api/auth/session').expect(200);
+  return res.body.csrfToken as string;
+}
+
+export async function signIn(app: TestContext['app'], email: string, password: string): Promise<SignedInAgent> {
+  const agent = request.agent(app);
+  const csrf = await csrfFor(agent);
+  const res = await agent.post('/api/auth/sign-in').set('x-csrf-token', csrf).send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return { agent, csrf: res.body.csrfToken as string };
+}
+
+export function signInAs(app: TestContext['app'], role: Role) {
+  const account = accountFor(role);
+  return signIn(app, account.email, account.password);
+}
+
+export async function countRows(ctx: TestDatabase, table: string): Promise<number> {
+  const { rows } = await ctx.pool.query<{ n: string }>(`SELECT count(*) AS n FROM "${table}"`);
+  return Number(rows[0]!.n);
+}
