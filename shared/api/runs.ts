@@ -1,0 +1,140 @@
+// Runs: one analysis of a plan's data (optionally under a scenario) and its stored result.
+// The result is what the workspace shows, comparisons diff and briefings print; engine output
+// is mapped into this shape by the server, so the engine can change without breaking stored runs.
+import { z } from 'zod';
+
+export const runStatusSchema = z.enum(['queued', 'running', 'succeeded', 'failed', 'cancelled']);
+export type RunStatus = z.infer<typeof runStatusSchema>;
+
+export const algorithmSchema = z.enum(['auto', 'edmonds-karp', 'dinic']);
+export type AlgorithmChoice = z.infer<typeof algorithmSchema>;
+
+export const runParametersSchema = z.object({
+  horizonMinutes: z.number().int().min(10, 'At least 10 minutes.').max(72 * 60, 'At most 72 hours.'),
+  timeStepSeconds: z.number().int().min(10, 'At least 10 seconds.').max(3600, 'At most one hour.'),
+  // A factor on every lane capacity, e.g. 0.86 for heavy rain (HCM 7th ed. Exhibit 11-20).
+  capacityFactor: z.number().min(0.05).max(1.5),
+  algorithm: algorithmSchema.default('auto'),
+});
+export type RunParameters = z.infer<typeof runParametersSchema>;
+
+export const defaultRunParameters: RunParameters = {
+  horizonMinutes: 360,
+  timeStepSeconds: 60,
+  capacityFactor: 1,
+  algorithm: 'auto',
+};
+
+const minutes = z.number().nullable();
+
+export const runHeadlineSchema = z.object({
+  steadyStateVehiclesPerHour: z.number(),
+  steadyStatePersonsPerHour: z.number(),
+  demandVehicles: z.number(),
+  demandPersons: z.number(),
+  deliveredVehicles: z.number(),
+  deliveredPersons: z.number(),
+  horizonMinutes: z.number(),
+  // null: not within the horizon.
+  clearanceMinutes: minutes,
+  p50Minutes: minutes,
+  p90Minutes: minutes,
+  p95Minutes: minutes,
+});
+export type RunHeadline = z.infer<typeof runHeadlineSchema>;
+
+export const roadRefSchema = z.object({
+  segmentId: z.number().int(),
+  // 'forward' runs from the segment's first vertex to its last.
+  direction: z.enum(['forward', 'backward']),
+  name: z.string(),
+  roadClass: z.string(),
+});
+export type RoadRef = z.infer<typeof roadRefSchema>;
+
+export const arcFlowSchema = roadRefSchema.extend({
+  capacityVehiclesPerHour: z.number(),
+  flowVehiclesPerHour: z.number(),
+  utilisation: z.number(),
+  inStaticCut: z.boolean(),
+});
+export type ArcFlow = z.infer<typeof arcFlowSchema>;
+
+export const bottleneckSchema = roadRefSchema.extend({
+  capacityVehiclesPerHour: z.number(),
+  shareOfCut: z.number(),
+  // Time windows (minutes from the start) during which this road is in the time-expanded cut.
+  cutWindows: z.array(z.tuple([z.number(), z.number()])),
+  inStaticCut: z.boolean(),
+  gainPerExtraLaneVehiclesPerHour: z.number(),
+});
+export type Bottleneck = z.infer<typeof bottleneckSchema>;
+
+export const fixSchema = roadRefSchema.extend({
+  kind: z.enum(['add-lane', 'reopen']),
+  gainVehiclesPerHour: z.number(),
+});
+export type Fix = z.infer<typeof fixSchema>;
+
+export const zoneResultSchema = z.object({
+  zoneId: z.number().int(),
+  name: z.string(),
+  demandVehicles: z.number(),
+  demandPersons: z.number(),
+  deliveredVehicles: z.number(),
+  steadyStateVehiclesPerHour: z.number(),
+  clearanceMinutes: minutes,
+});
+export const shelterResultSchema = z.object({
+  shelterId: z.number().int(),
+  name: z.string(),
+  capacityPersons: z.number().nullable(),
+  arrivedVehicles: z.number(),
+  arrivedPersons: z.number(),
+  steadyStateVehiclesPerHour: z.number(),
+});
+
+export const runStatsSchema = z.object({
+  engineVersion: z.string(),
+  algorithm: z.string(),
+  nodes: z.number(),
+  arcs: z.number(),
+  expandedNodes: z.number(),
+  expandedArcs: z.number(),
+  augmentations: z.number(),
+  solveMs: z.number(),
+  peakMemoryBytes: z.number(),
+  verified: z.boolean(),
+});
+
+export const runResultSchema = z.object({
+  headline: runHeadlineSchema,
+  curve: z.object({ stepMinutes: z.number(), deliveredVehicles: z.array(z.number()) }),
+  zones: z.array(zoneResultSchema),
+  shelters: z.array(shelterResultSchema),
+  arcs: z.array(arcFlowSchema),
+  bottlenecks: z.array(bottleneckSchema),
+  fixes: z.array(fixSchema),
+  stats: runStatsSchema,
+});
+export type RunResult = z.infer<typeof runResultSchema>;
+
+export const runSchema = z.object({
+  id: z.string().uuid(),
+  planId: z.string().uuid(),
+  scenarioId: z.string().uuid().nullable(),
+  status: runStatusSchema,
+  phase: z.string(),
+  progress: z.number().min(0).max(1),
+  parameters: runParametersSchema,
+  dataVersion: z.number().int(),
+  failureReason: z.string().nullable(),
+  createdBy: z.string().nullable(),
+  createdAt: z.string(),
+  startedAt: z.string().nullable(),
+  finishedAt: z.string().nullable(),
+});
+export type Run = z.infer<typeof runSchema>;
+
+export const runWithResultSchema = runSchema.extend({ result: runResultSchema.nullable() });
+export type RunWithResult = z.infer<typeof runWithResultSchema>;
