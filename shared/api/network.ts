@@ -339,3 +339,25 @@ export const importFailureSchema = z.object({
   badFeatures: z.array(badFeatureSchema),
 });
 export type ImportFailure = z.infer<typeof importFailureSchema>;
+
+// ---------------------------------------------------------------------------------------------
+// Scenario edits of segments (applied when the engine problem is built; the layer is untouched)
+
+export const roadClosureSchema = z
+  .object({ fromSeconds: z.number().min(0), untilSeconds: z.number().min(0).nullable() })
+  .refine((c) => c.untilSeconds === null || c.untilSeconds >= c.fromSeconds, {
+    message: 'a closure ends after it starts',
+    path: ['untilSeconds'],
+  });
+export type RoadClosure = z.infer<typeof roadClosureSchema>;
+
+/**
+ * One scenario's change to one segment: attribute changes (lanes for contraflow, a closure
+ * for the whole run, a capacity override) and time-windowed closures, in seconds after the
+ * evacuation order. `segment` is the segment's index in the network passed to the model.
+ */
+export const segmentOverrideSchema = segmentAttributesObjectSchema.partial().extend({
+  segment: z.int().min(0),
+  closures: z.array(roadClosureSchema).optional(),
+});
+export type SegmentOverride = z.infer<typeof segmentOverrideSchema>;

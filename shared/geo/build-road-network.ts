@@ -30,6 +30,9 @@ export interface RoadSourceContext {
   sourceFormat: ImportReport['sourceFormat'];
   /** Filled by the OSM reader: ways cut where they referenced nodes missing from the file. */
   waysCutAtMissingNodes?: ImportReport['waysCutAtMissingNodes'];
+  /** Features the reader left out before conversion (e.g. OSM ways without `highway`);
+   *  added to the report's dropped list and feature count. */
+  preDropped?: ImportReport['dropped'];
 }
 
 function splitKey(key: string): [string, string] {
@@ -158,6 +161,12 @@ function buildReport(p: ReportParts): ImportReport {
 
   // Features whose every line collapsed to a point while joining ends.
   const dropped = new Map(reading.dropped);
+  let preDroppedFeatures = 0;
+  for (const d of p.context.preDropped ?? []) {
+    const key = `${d.reason}\u0000${d.roadClass}`;
+    dropped.set(key, (dropped.get(key) ?? 0) + d.features);
+    preDroppedFeatures += d.features;
+  }
   const withSegments = new Set(segments.map((s) => s.sourceFeatureIndex));
   const collapsed = new Set<number>();
   for (const li of cut.collapsedLines) {
@@ -190,7 +199,7 @@ function buildReport(p: ReportParts): ImportReport {
 
   return {
     sourceFormat: p.context.sourceFormat,
-    featureCount: reading.featureCount,
+    featureCount: reading.featureCount + preDroppedFeatures,
     nodeCount: cut.nodes.length,
     segmentCount: segments.length,
     arcCount,

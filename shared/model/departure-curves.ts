@@ -37,27 +37,24 @@ export function cumulativeShareDeparted(curve: DepartureCurve, hours: number): n
 }
 
 /**
- * Share of the zone's vehicles released at each time step θ = 0, 1, 2, …: those who left
- * during ((θ−1)Δ, θΔ] become available at step θ, so step 0 holds only those who leave at
- * the order itself (everyone for `allAtOnce`, nobody otherwise). The list ends at the first
- * step where at most CURVE_TAIL_SHARE is still to leave; that remainder joins the last step,
- * so the shares sum to exactly 1. It may run past the analysis horizon: those are people
- * who leave after it.
+ * The engine's release input (EvacuationZone.releaseFractionByStep): the cumulative share
+ * departed by the end of each step θ = 0, 1, 2, …, i.e. F((θ + 1)·Δ), since a departure in
+ * step θ enters the roads during [θΔ, (θ+1)Δ). The list ends at the first step where at most
+ * CURVE_TAIL_SHARE is still to leave, and that last value is 1 (the engine repeats the last
+ * value to the horizon). It may be longer than the horizon: those people leave after it.
  *
- * @example releaseSharesByStep({ kind: 'uniform', durationHours: 1 }, 1800) → [0, 0.5, 0.5]
+ * @example cumulativeShareByStep({ kind: 'uniform', durationHours: 1 }, 1800) → [0.5, 1]
  */
-export function releaseSharesByStep(curve: DepartureCurve, timeStepSeconds: number, maxSteps = 1_000_000): number[] {
+export function cumulativeShareByStep(curve: DepartureCurve, timeStepSeconds: number, maxSteps = 1_000_000): number[] {
   if (!(timeStepSeconds > 0)) throw new Error('timeStepSeconds must be positive');
   const shares: number[] = [];
-  let before = 0;
-  for (let step = 0; step <= maxSteps; step += 1) {
-    const now = cumulativeShareDeparted(curve, (step * timeStepSeconds) / 3600);
-    if (1 - now <= CURVE_TAIL_SHARE) {
-      shares.push(1 - before);
+  for (let step = 0; step < maxSteps; step += 1) {
+    const share = cumulativeShareDeparted(curve, ((step + 1) * timeStepSeconds) / 3600);
+    if (1 - share <= CURVE_TAIL_SHARE) {
+      shares.push(1);
       return shares;
     }
-    shares.push(now - before);
-    before = now;
+    shares.push(share);
   }
   throw new Error(`departure curve does not finish within ${maxSteps} steps`);
 }

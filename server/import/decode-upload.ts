@@ -1,0 +1,65 @@
+// Uploaded bytes → text of a known kind. Compression is recognised by its magic bytes
+// (bzip2 "BZh", gzip 1f 8b), the format by the first non-blank character, never by the file
+// name alone (planners rename files).
+import { createRequire } from 'node:module';
+import { gunzipSync } from 'node:zlib';
+import { RoadImportError } from '../../shared/geo/road-import-error';
+
+// seek-bzip is CommonJS without type declarations; this is the one function used.
+const bunzip = createRequire(import.meta.url)('seek-bzip') as { decode(input: Buffer): Buffer };
+
+export type UploadKind = 'xml' | 'json';
+
+export interface DecodedUpload {
+  kind: UploadKind;
+  bytes: Uint8Array;
+  compression: 'none' | 'bzip2' | 'gzip';
+}
+
+function startsWith(bytes: Uint8Array, prefix: number[]): boolean {
+  return prefix.every((b, i) => bytes[i] === b);
+}
+
+/** @throws RoadImportError `unreadableFile` for empty, corrupt or unknown content. */
+export function decodeUpload(input: Uint8Array, fileName = 'upload'): DecodedUpload {
+  let bytes = input;
+  let compression: DecodedUpload['compression'] = 'none';
+  try {
+    if (startsWith(bytes, [0x42, 0x5a, 0x68])) {
+      bytes = bunzip.decode(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+      compression = 'bzip2';
+    } else if (startsWith(bytes, [0x1f, 0x8b])) {
+      bytes = gunzipSync(bytes);
+      compression = 'gzip';
+    }
+  } catch (error) {
+    throw new RoadImportError('unreadableFile', `${fileName}: the ${compression === 'none' ? 'compressed' : compression} data is corrupt (${(error as Error).message})`);
+  }
+  let i = 0;
+  // Skip a UTF-8 byte-order mark and leading blanks.
+  if (startsWith(bytes, [0xef, 0xbb, 0xbf])) i = 3;
+  while (i < bytes.length && (bytes[i] === 0x20 || bytes[i] === 0x0a || bytes[i] === 0x0d || bytes[i] === 0x09)) i += 1;
+  if (i >= bytes.length) throw new RoadImportError('unreadableFile', `${fileName}: the file is empty`);
+  if (bytes[i] === 0x3c) return { kind: 'xml', bytes: bytes.subarray(i), compression };
+  if (bytes[i] === 0x7b) return { kind: 'json', bytes: bytes.subarray(i), compression };
+  throw new RoadImportError(
+    'unreadableFile',
+    `${fileName}: not GeoJSON, OpenStreetMap XML or OpenStreetMap JSON (optionally .bz2 or .gz compressed)`,
+  );
+}
+
+/** Parses JSON bytes; @throws RoadImportError `unreadableFile` with the parser's message. */
+export function parseJsonBytes(bytes: Uint8Array, fileName = 'upload'): unknown {
+  try {
+    return JSON.parse(new TextDecoder('utf-8').decode(bytes));
+  } catch (error) {
+    throw new RoadImportError('unreadableFile', `${fileName}: not valid JSON (${(error as Error).message})`);
+  }
+}
+
+/** A GeoJSON upload (zones, shelters): decompressed and parsed, not yet checked. */
+export function readGeoJsonUpload(input: Uint8Array, fileName = 'upload'): unknown {
+  const decoded = decodeUpload(input, fileName);
+  if (decoded.kind !== 'json') throw new RoadImportError('unreadableFile', `${fileName}: expected GeoJSON, found XML`);
+  return parseJsonBytes(decoded.bytes, fileName);
+}

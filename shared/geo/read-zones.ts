@@ -1,0 +1,113 @@
+// Zone uploads: GeoJSON polygons with their attributes in properties. Every bad feature is
+// listed; one bad feature fails the upload.
+import type { MultiPolygon, Polygon } from 'geojson';
+import { zoneAttributesSchema, type BadFeature, type DepartureCurve, type ZoneAttributes } from '../api/network';
+import { ZONE_DEFAULTS } from '../model/zone-defaults';
+import { failOnBadFeatures, readFeatureCollection, readPosition, type RawFeature } from './check-feature-collection';
+
+export interface ZoneFeature {
+  index: number;
+  id: string | null;
+  attributes: ZoneAttributes;
+  geometry: Polygon | MultiPolygon;
+  /** Attributes that were missing and took ZONE_DEFAULTS. */
+  defaulted: ('participationRate' | 'personsPerVehicle' | 'departureCurve')[];
+}
+
+export function numeric(v: unknown): unknown {
+  if (typeof v === 'string' && /^\s*-?\d+(\.\d+)?\s*$/.test(v)) return Number(v);
+  return v;
+}
+
+export function present(v: unknown): boolean {
+  return v !== undefined && v !== null && v !== '';
+}
+
+function curveFrom(p: Record<string, unknown>): unknown {
+  let curve = p['departureCurve'];
+  if (typeof curve === 'string') {
+    try {
+      curve = JSON.parse(curve);
+    } catch {
+      return curve;
+    }
+  }
+  if (present(curve)) return curve;
+  const kind = p['departure'];
+  if (!present(kind)) return undefined;
+  return {
+    kind,
+    ...(present(p['durationHours']) ? { durationHours: numeric(p['durationHours']) } : {}),
+    ...(present(p['responseRatePerHour']) ? { responseRatePerHour: numeric(p['responseRatePerHour']) } : {}),
+    ...(present(p['halfLoadingHours']) ? { halfLoadingHours: numeric(p['halfLoadingHours']) } : {}),
+    ...(present(p['sigmaHours']) ? { sigmaHours: numeric(p['sigmaHours']) } : {}),
+  };
+}
+
+export function issues(error: { issues: { path: PropertyKey[]; message: string }[] }): string {
+  return error.issues.map((i) => `${i.path.map(String).join('.') || 'value'}: ${i.message}`).join('; ');
+}
+
+function checkRings(rings: unknown, where: string): string | null {
+  if (!Array.isArray(rings) || rings.length === 0) return `${where}has no rings`;
+  for (const [ri, ring] of rings.entries()) {
+    if (!Array.isArray(ring) || ring.length < 4) return `${where}ring ${ri} needs at least four positions`;
+    for (const p of ring) {
+      const pos = readPosition(p);
+      if (typeof pos === 'string') return `${where}ring ${ri} has a bad position ${JSON.stringify(p)}`;
+    }
+    const a = ring[0] as number[];
+    const b = ring[ring.length - 1] as number[];
+    if (a[0] !== b[0] || a[1] !== b[1]) return `${where}ring ${ri} is not closed`;
+  }
+  return null;
+}
+
+function readZone(f: RawFeature): ZoneFeature | string {
+  const g = f.geometry as { type?: unknown; coordinates?: unknown } | null;
+  if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return `a zone must be a Polygon or MultiPolygon, not ${g ? JSON.stringify(g.type) : 'empty'}`;
+  const problem =
+    g.type === 'Polygon'
+      ? checkRings(g.coordinates, '')
+      : !Array.isArray(g.coordinates) || g.coordinates.length === 0
+        ? 'MultiPolygon has no polygons'
+        : (g.coordinates as unknown[]).map((poly, i) => checkRings(poly, `polygon ${i}, `)).find((x) => x !== null) ?? null;
+  if (problem) return problem;
+  const p = f.properties;
+  const defaulted: ZoneFeature['defaulted'] = [];
+  const pick = <K extends ZoneFeature['defaulted'][number]>(key: K, value: unknown, fallback: unknown) => {
+    if (present(value)) return value;
+    defaulted.push(key);
+    return fallback;
+  };
+  const curve = curveFrom(p);
+  const parsed = zoneAttributesSchema.safeParse({
+    name: present(p['name']) ? String(p['name']) : (f.id ?? `Zone ${f.index + 1}`),
+    population: numeric(p['population']),
+    participationRate: numeric(pick('participationRate', p['participationRate'], ZONE_DEFAULTS.participationRate)),
+    personsPerVehicle: numeric(pick('personsPerVehicle', p['personsPerVehicle'], ZONE_DEFAULTS.personsPerVehicle)),
+    departureCurve: pick('departureCurve', curve, ZONE_DEFAULTS.departureCurve) as DepartureCurve,
+  });
+  if (!parsed.success) return issues(parsed.error);
+  return { index: f.index, id: f.id, attributes: parsed.data, geometry: g as Polygon | MultiPolygon, defaulted };
+}
+
+/**
+ * Zones from GeoJSON. Properties: name, population (required), participationRate (0–1),
+ * personsPerVehicle, and the departure curve either as `departureCurve` (an object or its
+ * JSON text, see departureCurveSchema) or flat: `departure` = allAtOnce | uniform | logistic
+ * | rayleigh with durationHours / responseRatePerHour + halfLoadingHours / sigmaHours.
+ * @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures`
+ */
+export function readZones(input: unknown): ZoneFeature[] {
+  const features = readFeatureCollection(input, 'Zones');
+  const bad: BadFeature[] = [];
+  const zones: ZoneFeature[] = [];
+  for (const f of features) {
+    const z = readZone(f);
+    if (typeof z === 'string') bad.push({ index: f.index, id: f.id, problem: z });
+    else zones.push(z);
+  }
+  failOnBadFeatures('Zones', bad, 0, features.length);
+  return zones;
+}
