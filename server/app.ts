@@ -18,6 +18,8 @@ import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
 import { membersRouter } from './routes/members';
 import { auditRouter } from './routes/audit';
+import { roadLayersRouter } from './routes/road-layers';
+import { zonesSheltersRouter } from './routes/zones-shelters';
 
 export type AppDeps = {
   config: Config;
@@ -82,6 +84,8 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
 
   app.use('/api/auth', authRouter({ db, config, passport, csrfToken: generateToken }));
   app.use('/api/plans', plansRouter(db));
+  app.use('/api/plans/:planId', roadLayersRouter(db, config));
+  app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api', apiNotFound);

@@ -15,6 +15,7 @@ const configSchema = z.object({
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
+  UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
 });
 
 export type Config = z.infer<typeof configSchema>;

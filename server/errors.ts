@@ -1,5 +1,6 @@
 // Errors a service may throw; the error handler turns each into its HTTP status and envelope.
 import type { ErrorCode } from '../shared/api/errors';
+import type { ImportFailure } from '../shared/api/network';
 
 export class HttpError extends Error {
   constructor(
@@ -7,6 +8,7 @@ export class HttpError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields?: { path: string; message: string }[],
+    readonly importFailure?: ImportFailure,
   ) {
     super(message);
   }
@@ -39,5 +41,11 @@ export class ConflictError extends HttpError {
 export class BadRequestError extends HttpError {
   constructor(message: string, fields?: { path: string; message: string }[]) {
     super(400, 'invalid_request', message, fields);
+  }
+}
+
+export class ImportRefusedError extends HttpError {
+  constructor(failure: ImportFailure) {
+    super(400, 'invalid_request', failure.message, undefined, failure);
   }
 }

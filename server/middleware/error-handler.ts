@@ -12,8 +12,13 @@ export function zodFields(error: ZodError): FieldError[] {
   }));
 }
 
-function envelope(code: ErrorEnvelope['error']['code'], message: string, fields?: FieldError[]): ErrorEnvelope {
-  return { error: fields ? { code, message, fields } : { code, message } };
+function envelope(
+  code: ErrorEnvelope['error']['code'],
+  message: string,
+  fields?: FieldError[],
+  importFailure?: ErrorEnvelope['error']['importFailure'],
+): ErrorEnvelope {
+  return { error: { code, message, ...(fields ? { fields } : {}), ...(importFailure ? { importFailure } : {}) } };
 }
 
 type BodyParserError = { type?: string; status?: number; code?: string };
@@ -26,7 +31,7 @@ export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
       return;
     }
     if (err instanceof HttpError) {
-      res.status(err.status).json(envelope(err.code, err.message, err.fields));
+      res.status(err.status).json(envelope(err.code, err.message, err.fields, err.importFailure));
       return;
     }
     const parserError = err as BodyParserError;

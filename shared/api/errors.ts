@@ -1,5 +1,6 @@
 // The one error envelope every API failure uses; the client parses it with this schema.
 import { z } from 'zod';
+import { importFailureSchema } from './network';
 
 export const errorCodeSchema = z.enum([
   'invalid_request',
@@ -22,6 +23,8 @@ export const errorEnvelopeSchema = z.object({
     code: errorCodeSchema,
     message: z.string(),
     fields: z.array(fieldErrorSchema).optional(),
+    // A refused road, zone or shelter upload: every bad feature, so the planner can fix the file.
+    importFailure: importFailureSchema.optional(),
   }),
 });
 export type ErrorEnvelope = z.infer<typeof errorEnvelopeSchema>;

@@ -2,3 +2,5 @@ export * from './organizations';
 export * from './sessions';
 export * from './plans';
 export * from './audit-events';
+export * from './network';
+export * from './runs';

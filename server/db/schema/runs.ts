@@ -1,0 +1,34 @@
+// Runs: one analysis each, with the exact inputs it used and its full result.
+import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import type { RunParameters, RunResult } from '../../../shared/api/runs';
+import { plans } from './plans';
+import { users } from './organizations';
+import { roadLayers } from './network';
+
+export const runStatusEnum = pgEnum('run_status', ['queued', 'running', 'succeeded', 'failed', 'cancelled']);
+
+export const runs = pgTable(
+  'runs',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    planId: uuid()
+      .notNull()
+      .references(() => plans.id, { onDelete: 'cascade' }),
+    scenarioId: uuid(),
+    status: runStatusEnum().notNull().default('queued'),
+    phase: text().notNull().default('queued'),
+    progress: real().notNull().default(0),
+    parameters: jsonb().$type<RunParameters>().notNull(),
+    // The plan's data version and road layer the run read; the hash identifies its exact input.
+    dataVersion: integer().notNull(),
+    roadLayerId: integer().references(() => roadLayers.id, { onDelete: 'set null' }),
+    inputHash: text().notNull(),
+    result: jsonb().$type<RunResult>(),
+    failureReason: text(),
+    createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+    startedAt: timestamp({ withTimezone: true, mode: 'date' }),
+    finishedAt: timestamp({ withTimezone: true, mode: 'date' }),
+  },
+  (t) => [index().on(t.planId, t.createdAt), index().on(t.planId, t.inputHash)],
+);

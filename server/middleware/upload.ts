@@ -1,0 +1,30 @@
+// One uploaded file per request, kept in memory (imports parse it whole anyway), size-limited.
+import multer from 'multer';
+import type { RequestHandler } from 'express';
+import { BadRequestError, HttpError } from '../errors';
+
+export function singleFileUpload(maxMegabytes: number): RequestHandler {
+  const handler = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxMegabytes * 1024 * 1024, files: 1, fields: 10 } }).single('file');
+  return (req, res, next) => {
+    handler(req, res, (err: unknown) => {
+      if (err instanceof multer.MulterError) {
+        if (err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'payload_too_large', `The file is larger than ${maxMegabytes} MB.`));
+        return next(new BadRequestError(`The upload could not be read: ${err.message}.`));
+      }
+      if (err) return next(err);
+      if (!req.file) return next(new BadRequestError('Attach the file in a form field named "file".', [{ path: 'file', message: 'Required.' }]));
+      next();
+    });
+  };
+}
+
+/** Optional JSON in a multipart text field, e.g. the import options. */
+export function jsonField(value: unknown, field: string): unknown {
+  if (value === undefined || value === '') return undefined;
+  if (typeof value !== 'string') throw new BadRequestError(`The "${field}" field must be JSON text.`);
+  try {
+    return JSON.parse(value);
+  } catch {
+    throw new BadRequestError(`The "${field}" field is not valid JSON.`, [{ path: field, message: 'Not valid JSON.' }]);
+  }
+}

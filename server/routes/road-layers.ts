@@ -1,0 +1,80 @@
+// /api/plans/:planId/road-layer and /segments: upload, read for the map and table, edit.
+import { Router } from 'express';
+import { importOptionsSchema } from '../../shared/api/network';
+import {
+  planParamsSchema,
+  segmentBulkUpdateSchema,
+  segmentMapQuerySchema,
+  segmentPageQuerySchema,
+  segmentParamsSchema,
+} from '../../shared/api/road-layers';
+import { segmentAttributesPatchSchema } from '../../shared/api/network';
+import { RoadImportError } from '../../shared/geo/road-import-error';
+import type { Config } from '../config';
+import type { Database } from '../db/client';
+import { ImportRefusedError } from '../errors';
+import { importRoadLayer } from '../import/import-road-layer';
+import { actorOf, requireMember } from '../middleware/require-member';
+import { jsonField, singleFileUpload } from '../middleware/upload';
+import { assertPlanInOrganization } from '../services/plan-access';
+import { getActiveRoadLayer, getSegment, listSegments, saveRoadLayer, segmentsInViewport, updateSegments } from '../services/road-layers';
+
+export function roadLayersRouter(db: Database, config: Config): Router {
+  const router = Router({ mergeParams: true });
+
+  router.get('/road-layer', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json({ layer: await getActiveRoadLayer(db, actorOf(req).organizationId, planId) });
+  });
+
+  router.post('/road-layer', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const actor = actorOf(req);
+    await assertPlanInOrganization(db, actor.organizationId, planId);
+    const options = importOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {});
+    const file = req.file!;
+    let network;
+    try {
+      network = importRoadLayer(file.buffer, options, file.originalname);
+    } catch (e) {
+      if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
+      throw e;
+    }
+    const name = typeof req.body?.name === 'string' && req.body.name.trim() ? req.body.name.trim().slice(0, 200) : file.originalname;
+    const layer = await saveRoadLayer(db, actor, planId, network, { name, sourceFileName: file.originalname, importOptions: options });
+    res.status(201).json({ layer });
+  });
+
+  router.get('/segments/map', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const { bbox, zoom } = segmentMapQuerySchema.parse(req.query);
+    res.json(await segmentsInViewport(db, actorOf(req).organizationId, planId, bbox, zoom));
+  });
+
+  router.get('/segments', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const query = segmentPageQuerySchema.parse(req.query);
+    res.json(await listSegments(db, actorOf(req).organizationId, planId, query));
+  });
+
+  router.get('/segments/:segmentId', requireMember('plans:read'), async (req, res) => {
+    const { planId, segmentId } = segmentParamsSchema.parse(req.params);
+    res.json(await getSegment(db, actorOf(req).organizationId, planId, segmentId));
+  });
+
+  router.patch('/segments/:segmentId', requireMember('plans:write'), async (req, res) => {
+    const { planId, segmentId } = segmentParamsSchema.parse(req.params);
+    const patch = segmentAttributesPatchSchema.parse(req.body);
+    const [segment] = await updateSegments(db, actorOf(req), planId, segmentBulkUpdateSchema.parse({ ids: [segmentId], patch }));
+    res.json(segment);
+  });
+
+  router.patch('/segments', requireMember('plans:write'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const update = segmentBulkUpdateSchema.parse(req.body);
+    const segments = await updateSegments(db, actorOf(req), planId, update);
+    res.json({ updated: segments.length });
+  });
+
+  return router;
+}

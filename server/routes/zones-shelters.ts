@@ -1,0 +1,118 @@
+// /api/plans/:planId/zones, /shelters and /capacity-table.
+import { Router } from 'express';
+import { capacityTableSchema } from '../../shared/api/network';
+import { planParamsSchema } from '../../shared/api/road-layers';
+import {
+  shelterCreateSchema,
+  shelterParamsSchema,
+  shelterUpdateSchema,
+  zoneCreateSchema,
+  zoneParamsSchema,
+  zoneGeometrySchema,
+  zoneUpdateSchema,
+} from '../../shared/api/zones-shelters';
+import { readShelters } from '../../shared/geo/read-shelters';
+import { readZones } from '../../shared/geo/read-zones';
+import { RoadImportError } from '../../shared/geo/road-import-error';
+import type { Config } from '../config';
+import type { Database } from '../db/client';
+import { ImportRefusedError } from '../errors';
+import { readGeoJsonUpload } from '../import/decode-upload';
+import { actorOf, requireMember } from '../middleware/require-member';
+import { singleFileUpload } from '../middleware/upload';
+import { getCapacityTable, putCapacityTable } from '../services/capacity-table';
+import { assertPlanInOrganization } from '../services/plan-access';
+import {
+  createShelters,
+  createZones,
+  deleteShelter,
+  deleteZone,
+  listShelters,
+  listZones,
+  updateShelter,
+  updateZone,
+} from '../services/zones-shelters';
+
+function refusing<T>(read: () => T): T {
+  try {
+    return read();
+  } catch (e) {
+    if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
+    throw e;
+  }
+}
+
+export function zonesSheltersRouter(db: Database, config: Config): Router {
+  const router = Router({ mergeParams: true });
+  const upload = singleFileUpload(Math.min(config.UPLOAD_MAX_MEGABYTES, 64));
+
+  router.get('/zones', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json({ zones: await listZones(db, actorOf(req).organizationId, planId) });
+  });
+  router.post('/zones', requireMember('plans:write'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const input = zoneCreateSchema.parse(req.body);
+    const [zone] = await createZones(db, actorOf(req), planId, [input], 'form');
+    res.status(201).json(zone);
+  });
+  router.post('/zones/upload', requireMember('plans:write'), upload, async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
+    const features = refusing(() => readZones(readGeoJsonUpload(req.file!.buffer, req.file!.originalname)));
+    const created = await createZones(db, actorOf(req), planId, features.map((f) => ({ ...f.attributes, geometry: zoneGeometrySchema.parse(f.geometry) })), req.file!.originalname);
+    res.status(201).json({ zones: created, defaulted: features.map((f) => f.defaulted) });
+  });
+  router.patch('/zones/:zoneId', requireMember('plans:write'), async (req, res) => {
+    const { planId, zoneId } = zoneParamsSchema.parse(req.params);
+    res.json(await updateZone(db, actorOf(req), planId, zoneId, zoneUpdateSchema.parse(req.body)));
+  });
+  router.delete('/zones/:zoneId', requireMember('plans:write'), async (req, res) => {
+    const { planId, zoneId } = zoneParamsSchema.parse(req.params);
+    await deleteZone(db, actorOf(req), planId, zoneId);
+    res.status(204).end();
+  });
+
+  router.get('/shelters', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json({ shelters: await listShelters(db, actorOf(req).organizationId, planId) });
+  });
+  router.post('/shelters', requireMember('plans:write'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const [shelter] = await createShelters(db, actorOf(req), planId, [shelterCreateSchema.parse(req.body)], 'form');
+    res.status(201).json(shelter);
+  });
+  router.post('/shelters/upload', requireMember('plans:write'), upload, async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
+    const features = refusing(() => readShelters(readGeoJsonUpload(req.file!.buffer, req.file!.originalname)));
+    const created = await createShelters(
+      db,
+      actorOf(req),
+      planId,
+      features.map((f) => ({ ...f.attributes, lon: f.coordinates[0], lat: f.coordinates[1] })),
+      req.file!.originalname,
+    );
+    res.status(201).json({ shelters: created });
+  });
+  router.patch('/shelters/:shelterId', requireMember('plans:write'), async (req, res) => {
+    const { planId, shelterId } = shelterParamsSchema.parse(req.params);
+    res.json(await updateShelter(db, actorOf(req), planId, shelterId, shelterUpdateSchema.parse(req.body)));
+  });
+  router.delete('/shelters/:shelterId', requireMember('plans:write'), async (req, res) => {
+    const { planId, shelterId } = shelterParamsSchema.parse(req.params);
+    await deleteShelter(db, actorOf(req), planId, shelterId);
+    res.status(204).end();
+  });
+
+  router.get('/capacity-table', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json(await getCapacityTable(db, actorOf(req).organizationId, planId));
+  });
+  router.put('/capacity-table', requireMember('plans:write'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json(await putCapacityTable(db, actorOf(req), planId, capacityTableSchema.parse(req.body)));
+  });
+
+  return router;
+}

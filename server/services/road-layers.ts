@@ -1,0 +1,294 @@
+// Road layers in PostgreSQL: saving a built network in one transaction, reading it back for the
+// map (by viewport, simplified by zoom) and the table (paged, sorted, filtered), and edits.
+import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from 'drizzle-orm';
+import type { Database, Tx } from '../db/client';
+import { roadLayers, roadNodes, roadSegments } from '../db/schema';
+import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/network';
+import type { RoadLayer, Segment, SegmentMap, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
+import type { RoadNetwork } from '../../shared/geo/build-road-network';
+import type { z } from 'zod';
+import { BadRequestError, NotFoundError } from '../errors';
+import { zodFields } from '../middleware/error-handler';
+import { recordAudit, type Actor } from './audit';
+import { assertPlanInOrganization, bumpDataVersion } from './plan-access';
+
+const insertBatch = 5000;
+
+// Drizzle's sql`` spreads a JS array into a tuple; a param sends it as one PostgreSQL array.
+const array = (values: unknown[]) => sql.param(values);
+
+function lineWkt(coordinates: readonly (readonly [number, number])[]): string {
+  return `LINESTRING(${coordinates.map(([x, y]) => `${x} ${y}`).join(',')})`;
+}
+
+// unnest() over parallel arrays: one statement per batch instead of one per row.
+async function insertNodes(tx: Tx, layerId: number, network: RoadNetwork) {
+  for (let start = 0; start < network.nodes.length; start += insertBatch) {
+    const slice = network.nodes.slice(start, start + insertBatch);
+    await tx.execute(sql`
+      INSERT INTO road_nodes (layer_id, node_index, lon, lat)
+      SELECT ${layerId}, i, lon, lat FROM unnest(
+        ${array(slice.map((_, i) => start + i))}::int[], ${array(slice.map((n) => n.lon))}::float8[], ${array(slice.map((n) => n.lat))}::float8[]
+      ) AS t(i, lon, lat)`);
+  }
+}
+
+async function insertSegments(tx: Tx, layerId: number, network: RoadNetwork) {
+  for (let start = 0; start < network.segments.length; start += insertBatch) {
+    const s = network.segments.slice(start, start + insertBatch);
+    const a = s.map((x) => x.attributes);
+    await tx.execute(sql`
+      INSERT INTO road_segments (layer_id, from_node, to_node, road_class, lanes_forward, lanes_backward, oneway, speed_kmh,
+        name, bridge, tunnel, layer, closed, capacity_override_veh_per_hour_per_lane, length_meters, component,
+        source_feature_index, source_id, geom)
+      SELECT ${layerId}, f, t, c, lf, lb, o, sp, n, b, tu, l, cl, co, len, comp, sfi, sid, ST_GeomFromText(g, 4326)
+      FROM unnest(
+        ${array(s.map((x) => x.fromNode))}::int[], ${array(s.map((x) => x.toNode))}::int[], ${array(a.map((x) => x.roadClass))}::text[],
+        ${array(a.map((x) => x.lanesForward))}::int[], ${array(a.map((x) => x.lanesBackward))}::int[], ${array(a.map((x) => x.oneway))}::bool[],
+        ${array(a.map((x) => x.speedKmh))}::real[], ${array(a.map((x) => x.name))}::text[], ${array(a.map((x) => x.bridge))}::bool[],
+        ${array(a.map((x) => x.tunnel))}::bool[], ${array(a.map((x) => x.layer))}::int[], ${array(a.map((x) => x.closed))}::bool[],
+        ${array(a.map((x) => x.capacityOverrideVehPerHourPerLane))}::real[], ${array(s.map((x) => x.lengthMeters))}::float8[],
+        ${array(s.map((x) => x.component))}::int[], ${array(s.map((x) => x.sourceFeatureIndex))}::int[], ${array(s.map((x) => x.sourceId))}::text[],
+        ${array(s.map((x) => lineWkt(x.coordinates)))}::text[]
+      ) AS u(f, t, c, lf, lb, o, sp, n, b, tu, l, cl, co, len, comp, sfi, sid, g)`);
+  }
+}
+
+/** Saves a built network as the plan's active road layer; the previous one is kept, inactive. */
+export async function saveRoadLayer(
+  db: Database,
+  actor: Actor,
+  planId: string,
+  network: RoadNetwork,
+  meta: { name: string; sourceFileName: string; importOptions: ImportOptions },
+): Promise<RoadLayer> {
+  const layerId = await db.transaction(async (tx) => {
+    await bumpDataVersion(tx, actor.organizationId, planId);
+    await tx.update(roadLayers).set({ active: false }).where(eq(roadLayers.planId, planId));
+    const [layer] = await tx
+      .insert(roadLayers)
+      .values({
+        planId,
+        name: meta.name,
+        sourceFileName: meta.sourceFileName,
+        importOptions: meta.importOptions,
+        report: network.report,
+        nodeCount: network.nodes.length,
+        segmentCount: network.segments.length,
+        createdBy: actor.userId,
+      })
+      .returning({ id: roadLayers.id });
+    await insertNodes(tx, layer!.id, network);
+    await insertSegments(tx, layer!.id, network);
+    await recordAudit(tx, actor, 'road-layer.import', 'road_layer', String(layer!.id), {
+      planId,
+      file: meta.sourceFileName,
+      segments: network.segments.length,
+      nodes: network.nodes.length,
+    });
+    return layer!.id;
+  });
+  const layer = await getActiveRoadLayer(db, actor.organizationId, planId);
+  if (!layer || layer.id !== layerId) throw new Error('the saved road layer is not the active one');
+  return layer;
+}
+
+export async function activeLayerId(db: Database | Tx, planId: string): Promise<number | null> {
+  const [row] = await db
+    .select({ id: roadLayers.id })
+    .from(roadLayers)
+    .where(and(eq(roadLayers.planId, planId), eq(roadLayers.active, true)));
+  return row?.id ?? null;
+}
+
+export async function getActiveRoadLayer(db: Database, organizationId: string, planId: string): Promise<RoadLayer | null> {
+  await assertPlanInOrganization(db, organizationId, planId);
+  const [row] = await db
+    .select()
+    .from(roadLayers)
+    .where(and(eq(roadLayers.planId, planId), eq(roadLayers.active, true)));
+  if (!row) return null;
+  const extent = await db.execute<{ w: number | null; s: number | null; e: number | null; n: number | null }>(sql`
+    SELECT ST_XMin(x) AS w, ST_YMin(x) AS s, ST_XMax(x) AS e, ST_YMax(x) AS n
+    FROM (SELECT ST_Extent(geom)::geometry AS x FROM road_segments WHERE layer_id = ${row.id}) q`);
+  const b = extent.rows[0];
+  return {
+    id: row.id,
+    planId: row.planId,
+    name: row.name,
+    sourceFileName: row.sourceFileName,
+    nodeCount: row.nodeCount,
+    segmentCount: row.segmentCount,
+    report: row.report,
+    bbox: b && b.w !== null ? [b.w, b.s!, b.e!, b.n!] : null,
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+async function requireActiveLayer(db: Database | Tx, organizationId: string, planId: string): Promise<number> {
+  await assertPlanInOrganization(db, organizationId, planId);
+  const id = await activeLayerId(db, planId);
+  if (id === null) throw new NotFoundError('road layer (upload one first)');
+  return id;
+}
+
+const segmentColumns = {
+  id: roadSegments.id,
+  fromNode: roadSegments.fromNode,
+  toNode: roadSegments.toNode,
+  roadClass: roadSegments.roadClass,
+  lanesForward: roadSegments.lanesForward,
+  lanesBackward: roadSegments.lanesBackward,
+  oneway: roadSegments.oneway,
+  speedKmh: roadSegments.speedKmh,
+  name: roadSegments.name,
+  bridge: roadSegments.bridge,
+  tunnel: roadSegments.tunnel,
+  layer: roadSegments.layer,
+  closed: roadSegments.closed,
+  capacityOverrideVehPerHourPerLane: roadSegments.capacityOverrideVehPerHourPerLane,
+  lengthMeters: roadSegments.lengthMeters,
+  component: roadSegments.component,
+  sourceId: roadSegments.sourceId,
+};
+
+type SegmentRow = { [K in keyof typeof segmentColumns]: unknown };
+function toSegment(row: SegmentRow): Segment {
+  return row as Segment;
+}
+
+// Below this zoom level a viewport holds the whole town: thin out to the bigger roads first.
+const maxFeaturesPerResponse = 25_000;
+
+/** Segments inside a viewport as GeoJSON, simplified to about a pixel at the zoom level. */
+export async function segmentsInViewport(
+  db: Database,
+  organizationId: string,
+  planId: string,
+  bbox: [number, number, number, number],
+  zoom: number,
+): Promise<SegmentMap> {
+  const layerId = await requireActiveLayer(db, organizationId, planId);
+  const [w, s, e, n] = bbox;
+  // Degrees per pixel at this zoom (256-px tiles); simplify to half of it.
+  const tolerance = 360 / (256 * 2 ** zoom) / 2;
+  const rows = await db.execute<{ g: string; id: number; road_class: string; lanes_forward: number | null; lanes_backward: number | null; oneway: boolean; closed: boolean; bridge: boolean; name: string | null }>(sql`
+    SELECT ST_AsGeoJSON(ST_Simplify(geom, ${tolerance}, true), 6) AS g, id, road_class, lanes_forward, lanes_backward, oneway, closed, bridge, name
+    FROM road_segments
+    WHERE layer_id = ${layerId} AND geom && ST_MakeEnvelope(${w}, ${s}, ${e}, ${n}, 4326)
+    ORDER BY CASE road_class WHEN 'motorway' THEN 0 WHEN 'trunk' THEN 1 WHEN 'primary' THEN 2 WHEN 'secondary' THEN 3 WHEN 'tertiary' THEN 4 ELSE 5 END, id
+    LIMIT ${maxFeaturesPerResponse + 1}`);
+  const truncated = rows.rows.length > maxFeaturesPerResponse;
+  return {
+    type: 'FeatureCollection',
+    truncated,
+    features: rows.rows.slice(0, maxFeaturesPerResponse).map((r) => ({
+      type: 'Feature' as const,
+      geometry: JSON.parse(r.g),
+      properties: {
+        id: Number(r.id),
+        roadClass: r.road_class as SegmentMap['features'][number]['properties']['roadClass'],
+        lanesForward: r.lanes_forward,
+        lanesBackward: r.lanes_backward,
+        oneway: r.oneway,
+        closed: r.closed,
+        bridge: r.bridge,
+        name: r.name,
+      },
+    })),
+  };
+}
+
+export async function listSegments(
+  db: Database,
+  organizationId: string,
+  planId: string,
+  query: z.output<typeof segmentPageQuerySchema>,
+): Promise<SegmentPage> {
+  const layerId = await requireActiveLayer(db, organizationId, planId);
+  const filters: SQL[] = [eq(roadSegments.layerId, layerId)];
+  if (query.roadClass) filters.push(eq(roadSegments.roadClass, query.roadClass));
+  if (query.name) filters.push(ilike(roadSegments.name, `%${query.name.replaceAll(/[%_\\]/g, (c) => `\\${c}`)}%`));
+  if (query.closed !== undefined) filters.push(eq(roadSegments.closed, query.closed));
+  if (query.bridge !== undefined) filters.push(eq(roadSegments.bridge, query.bridge));
+  const where = and(...filters);
+  const column = roadSegments[query.sortBy];
+  const order = query.sortOrder === 'asc' ? asc(column) : desc(column);
+  const [items, [total]] = await Promise.all([
+    db
+      .select(segmentColumns)
+      .from(roadSegments)
+      .where(where)
+      .orderBy(order, asc(roadSegments.id))
+      .limit(query.pageSize)
+      .offset((query.page - 1) * query.pageSize),
+    db.select({ n: count() }).from(roadSegments).where(where),
+  ]);
+  return { items: items.map(toSegment), total: total?.n ?? 0 };
+}
+
+export async function getSegment(db: Database, organizationId: string, planId: string, segmentId: number): Promise<Segment> {
+  const layerId = await requireActiveLayer(db, organizationId, planId);
+  const [row] = await db
+    .select(segmentColumns)
+    .from(roadSegments)
+    .where(and(eq(roadSegments.layerId, layerId), eq(roadSegments.id, segmentId)));
+  if (!row) throw new NotFoundError('segment');
+  return toSegment(row);
+}
+
+function mergeAttributes(current: Segment, patch: SegmentAttributesPatch): SegmentAttributes {
+  const merged = { ...pickAttributes(current), ...patch };
+  // Turning a two-way road one-way (or back) moves the lanes with it unless the edit said otherwise.
+  if (patch.oneway === true && patch.lanesBackward === undefined) merged.lanesBackward = 0;
+  if (patch.oneway === false && patch.lanesBackward === undefined && current.lanesBackward === 0) merged.lanesBackward = null;
+  const parsed = segmentAttributesSchema.safeParse(merged);
+  if (!parsed.success) throw new BadRequestError(`Segment ${current.id}: ${parsed.error.issues.map((i) => i.message).join('; ')}`, zodFields(parsed.error));
+  return parsed.data;
+}
+
+function pickAttributes(s: Segment): SegmentAttributes {
+  const { roadClass, lanesForward, lanesBackward, oneway, speedKmh, name, bridge, tunnel, layer, closed, capacityOverrideVehPerHourPerLane } = s;
+  return { roadClass, lanesForward, lanesBackward, oneway, speedKmh, name, bridge, tunnel, layer, closed, capacityOverrideVehPerHourPerLane };
+}
+
+/** Applies one patch to several segments (one of them is a single edit), all or nothing. */
+export async function updateSegments(db: Database, actor: Actor, planId: string, update: SegmentBulkUpdate): Promise<Segment[]> {
+  return db.transaction(async (tx) => {
+    const layerId = await requireActiveLayer(tx, actor.organizationId, planId);
+    const rows = await tx
+      .select(segmentColumns)
+      .from(roadSegments)
+      .where(and(eq(roadSegments.layerId, layerId), inArray(roadSegments.id, update.ids)))
+      .for('update');
+    const found = new Set(rows.map((r) => r.id));
+    const missing = update.ids.filter((id) => !found.has(id));
+    if (missing.length > 0) throw new NotFoundError(`segment ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? '…' : ''}`);
+    const updated: Segment[] = [];
+    for (const row of rows.map(toSegment)) {
+      const attributes = mergeAttributes(row, update.patch);
+      await tx.update(roadSegments).set({ ...attributes, updatedAt: new Date() }).where(eq(roadSegments.id, row.id));
+      updated.push({ ...row, ...attributes });
+    }
+    const version = await bumpDataVersion(tx, actor.organizationId, planId);
+    await recordAudit(tx, actor, 'segment.update', 'road_segment', update.ids.length === 1 ? String(update.ids[0]) : null, {
+      planId,
+      ids: update.ids.slice(0, 100),
+      count: update.ids.length,
+      patch: update.patch,
+      dataVersion: version,
+    });
+    return updated;
+  });
+}
+
+/** The active layer's nodes and segments, as the model needs them to build the engine's problem. */
+export async function loadNetwork(db: Database | Tx, layerId: number) {
+  const nodes = await db
+    .select({ lon: roadNodes.lon, lat: roadNodes.lat })
+    .from(roadNodes)
+    .where(eq(roadNodes.layerId, layerId))
+    .orderBy(asc(roadNodes.nodeIndex));
+  const segments = await db.select(segmentColumns).from(roadSegments).where(eq(roadSegments.layerId, layerId)).orderBy(asc(roadSegments.id));
+  return { nodes, segments: segments.map(toSegment) };
+}

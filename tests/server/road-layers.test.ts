@@ -1,0 +1,185 @@
+// Road-layer upload, storage, map and table queries and edits, against the real PostgreSQL
+// with PostGIS. Small GeoJSON files are made here; real-world files are checked in
+// road-layer-files.test.ts.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
+
+let ctx: TestContext;
+let planner: SignedInAgent;
+let viewer: SignedInAgent;
+let planId: string;
+
+const road = (coordinates: [number, number][], properties: Record<string, unknown>) => ({
+  type: 'Feature',
+  properties,
+  geometry: { type: 'LineString', coordinates },
+});
+
+// GIS-style data: two roads crossing without a shared vertex, and a bridge over one of them.
+const crossing = {
+  type: 'FeatureCollection',
+  features: [
+    road([[10.0, 50.0], [10.01, 50.0]], { highway: 'primary', name: 'East Road' }),
+    road([[10.005, 49.995], [10.005, 50.005]], { highway: 'residential', name: 'North Lane' }),
+    road([[10.008, 49.995], [10.008, 50.005]], { highway: 'secondary', bridge: 'yes', layer: '1', name: 'High Bridge' }),
+  ],
+};
+
+function upload(agent: SignedInAgent, body: unknown, fileName = 'roads.geojson') {
+  const bytes = Buffer.from(typeof body === 'string' ? body : JSON.stringify(body));
+  return agent.agent.post(`/api/plans/${planId}/road-layer`).set('x-csrf-token', agent.csrf).attach('file', bytes, fileName);
+}
+
+const tables = ['road_layers', 'road_nodes', 'road_segments', 'audit_events'];
+async function counts() {
+  return Promise.all(tables.map((t) => countRows(ctx, t)));
+}
+
+beforeAll(async () => {
+  ctx = await createTestContext();
+  planner = await signInAs(ctx.app, 'planner');
+  viewer = await signInAs(ctx.app, 'viewer');
+  planId = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'Roads' }).expect(201)).body.id;
+});
+afterAll(async () => {
+  expect(ctx.errors).toEqual([]);
+  await ctx.drop();
+});
+
+describe('uploading a road layer', () => {
+  it('splits GIS roads where they cross on one layer, not under a bridge, and stores the result', async () => {
+    const res = await upload(planner, crossing).expect(201);
+    const { layer } = res.body;
+    // East Road is cut at North Lane (joined) but passes under High Bridge (different layer):
+    // East Road → 2 segments, North Lane → 2, High Bridge → 1.
+    expect(layer.segmentCount).toBe(5);
+    expect(layer.report.crossingsJoined).toBe(1);
+    expect(layer.report.crossingsOnDifferentLayers).toBe(1);
+    expect(layer.bbox[0]).toBeCloseTo(10.0, 6);
+    expect(layer.bbox[3]).toBeCloseTo(50.005, 6);
+    expect(await countRows(ctx, 'road_segments')).toBe(5);
+
+    const active = await viewer.agent.get(`/api/plans/${planId}/road-layer`).expect(200);
+    expect(active.body.layer.id).toBe(layer.id);
+    const plan = await viewer.agent.get(`/api/plans/${planId}`).expect(200);
+    expect(plan.body.name).toBe('Roads');
+  });
+
+  it('refuses a broken file, names each bad feature and saves nothing', async () => {
+    const before = await counts();
+    const broken = {
+      type: 'FeatureCollection',
+      features: [
+        road([[10, 50], [10.01, 50]], { highway: 'primary' }),
+        { type: 'Feature', properties: { highway: 'primary' }, geometry: { type: 'LineString', coordinates: [[10, 50], ['x', 50]] } },
+        road([[10, 50], [200, 50]], { highway: 'residential' }),
+      ],
+    };
+    const res = await upload(planner, broken).expect(400);
+    expect(res.body.error.importFailure.code).toBe('badFeatures');
+    expect(res.body.error.importFailure.badFeatures.map((f: { index: number }) => f.index)).toEqual([1, 2]);
+    expect(await counts()).toEqual(before);
+  });
+
+  it('refuses a file that is not JSON with a plain message', async () => {
+    const before = await counts();
+    const res = await upload(planner, '{"type": "FeatureCollection", "features": [', 'roads.geojson').expect(400);
+    expect(res.body.error.importFailure.code).toBe('unreadableFile');
+    expect(res.body.error.message.length).toBeGreaterThan(10);
+    expect(await counts()).toEqual(before);
+  });
+
+  it('refuses another coordinate reference system', async () => {
+    const res = await upload(planner, { ...crossing, crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:EPSG::3857' } } }).expect(400);
+    expect(res.body.error.importFailure.code).toBe('wrongCrs');
+  });
+
+  it('asks for the file when none is attached', async () => {
+    const res = await planner.agent.post(`/api/plans/${planId}/road-layer`).set('x-csrf-token', planner.csrf).field('name', 'x').expect(400);
+    expect(res.body.error.fields[0].path).toBe('file');
+  });
+
+  it('does not let a viewer upload', async () => {
+    const before = await counts();
+    await upload(viewer, crossing).expect(403);
+    expect(await counts()).toEqual(before);
+  });
+});
+
+describe('reading segments', () => {
+  it('returns the segments in a viewport as GeoJSON', async () => {
+    const all = await viewer.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '9.99,49.99,10.02,50.01', zoom: 16 }).expect(200);
+    expect(all.body.features).toHaveLength(5);
+    expect(all.body.features[0].geometry.type).toBe('LineString');
+    const west = await viewer.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '9.99,49.99,10.004,50.01', zoom: 16 }).expect(200);
+    // Only the western half of East Road lies in that box.
+    expect(west.body.features.map((f: { properties: { name: string } }) => f.properties.name)).toEqual(['East Road']);
+  });
+
+  it('rejects a malformed viewport', async () => {
+    const res = await viewer.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '1,2,3' }).expect(400);
+    expect(res.body.error.fields[0].path).toBe('bbox');
+  });
+
+  it('pages, sorts and filters the segment table', async () => {
+    const page = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ pageSize: 2, sortBy: 'lengthMeters', sortOrder: 'desc' }).expect(200);
+    expect(page.body.total).toBe(5);
+    expect(page.body.items).toHaveLength(2);
+    expect(page.body.items[0].lengthMeters).toBeGreaterThanOrEqual(page.body.items[1].lengthMeters);
+    const bridges = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ bridge: 'true' }).expect(200);
+    expect(bridges.body.items.map((s: { name: string }) => s.name)).toEqual(['High Bridge']);
+    const named = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ name: 'lane' }).expect(200);
+    expect(named.body.total).toBe(2);
+  });
+});
+
+describe('editing segments', () => {
+  async function firstSegment(name: string) {
+    const res = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ name }).expect(200);
+    return res.body.items[0];
+  }
+
+  it('changes one segment without re-importing, and moves the data version on', async () => {
+    const segment = await firstSegment('High Bridge');
+    const layersBefore = await countRows(ctx, 'road_layers');
+    const res = await planner.agent
+      .patch(`/api/plans/${planId}/segments/${segment.id}`)
+      .set('x-csrf-token', planner.csrf)
+      .send({ lanesForward: 2, closed: true })
+      .expect(200);
+    expect(res.body).toMatchObject({ id: segment.id, lanesForward: 2, closed: true });
+    expect(await countRows(ctx, 'road_layers')).toBe(layersBefore);
+    const { rows } = await ctx.pool.query('SELECT data_version FROM plans WHERE id = $1', [planId]);
+    expect(rows[0].data_version).toBeGreaterThan(0);
+  });
+
+  it('refuses an edit that breaks the one-way rule and changes nothing', async () => {
+    const segment = await firstSegment('East Road');
+    const res = await planner.agent
+      .patch(`/api/plans/${planId}/segments/${segment.id}`)
+      .set('x-csrf-token', planner.csrf)
+      .send({ oneway: true, lanesBackward: 2 })
+      .expect(400);
+    expect(res.body.error.fields[0].path).toBe('lanesBackward');
+    expect(await firstSegment('East Road')).toEqual(segment);
+  });
+
+  it('bulk-edits a selection, all or nothing', async () => {
+    const page = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ name: 'Road' }).expect(200);
+    const ids = page.body.items.map((s: { id: number }) => s.id);
+    await planner.agent.patch(`/api/plans/${planId}/segments`).set('x-csrf-token', planner.csrf).send({ ids: [...ids, 999999], patch: { speedKmh: 30 } }).expect(404);
+    const unchanged = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ name: 'Road' }).expect(200);
+    expect(unchanged.body.items.every((s: { speedKmh: number | null }) => s.speedKmh !== 30)).toBe(true);
+    const res = await planner.agent.patch(`/api/plans/${planId}/segments`).set('x-csrf-token', planner.csrf).send({ ids, patch: { speedKmh: 30 } }).expect(200);
+    expect(res.body.updated).toBe(ids.length);
+  });
+
+  it("hides another organization's segments", async () => {
+    const segment = await firstSegment('East Road');
+    const { signIn, otherAccounts } = await import('./support/test-app');
+    const other = await signIn(ctx.app, otherAccounts[1]!.email, otherAccounts[1]!.password);
+    await other.agent.get(`/api/plans/${planId}/segments/${segment.id}`).expect(404);
+    await other.agent.patch(`/api/plans/${planId}/segments/${segment.id}`).set('x-csrf-token', other.csrf).send({ closed: true }).expect(404);
+    await other.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '9,49,11,51' }).expect(404);
+  });
+});
