@@ -53,6 +53,11 @@ function through(points: number[], fixed: number, axis: 'x' | 'y'): [number, num
   return points.map((p) => (axis === 'x' ? [p, fixed] : [fixed, p]));
 }
 
+function ordinal(n: number): string {
+  const teen = n % 100 >= 11 && n % 100 <= 13;
+  return `${n}${teen ? 'th' : (['th', 'st', 'nd', 'rd'][n % 10] ?? 'th')}`;
+}
+
 function bridgeAt(y: number) {
   return BRIDGES.find((b) => b.y === y);
 }
@@ -63,7 +68,7 @@ export function demoRoads(): FeatureCollection<LineString> {
   // West-bank rows (east–west). Bridge rows are arterials and leave the grid at the bank.
   for (const [k, y] of WEST_YS.entries()) {
     const bridge = bridgeAt(y);
-    const tags: Tags = bridge ? { ...bridge.tags, name: bridge.name.replace(/ Bridge$| Footbridge Road$/, ' Road') } : { highway: 'residential', name: `${k + 1}${['st', 'nd', 'rd'][k] ?? 'th'} Street` };
+    const tags: Tags = bridge ? { ...bridge.tags, name: bridge.name.replace(/ Bridge$/, ' Road') } : { highway: 'residential', name: `${ordinal(k + 1)} Street` };
     const xs = bridge ? [0, ...WEST_XS] : [...WEST_XS, WHARF_X];
     features.push(line(through(xs, y, 'x'), tags, `row-${y}`));
   }
