@@ -2,7 +2,7 @@
 // reserved for examples (RFC 2606), so no message to them can reach anyone.
 import type { Role } from '../../shared/api/roles';
 
-export const demoOrganization = { name: 'Demo Emergency Management Office', slug: 'demo' };
+export const demoOrganization = { name: 'Veltmoor Emergency Management', slug: 'veltmoor' };
 
 export const demoAccounts: { role: Role; email: string; displayName: string; password: string }[] = [
   { role: 'admin', email: 'admin@cutline.example', displayName: 'Rosa Quillfeather', password: 'admin-demo-2026' },

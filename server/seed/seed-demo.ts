@@ -1,11 +1,22 @@
-// The demo organization and its accounts (and, once road layers exist, its ready plan).
+// The demo organization, its accounts and its ready plan: Veltmoor, an invented river town
+// (server/seed/demo-town/), with its roads, zones and shelters, so a new user sees the main
+// job working at once. Idempotent: an existing demo plan is left as it is.
+import { readFile } from 'node:fs/promises';
+import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { plans } from '../db/schema';
+import { readShelters } from '../../shared/geo/read-shelters';
+import { readZones } from '../../shared/geo/read-zones';
+import { importRoadLayerFile } from '../import/import-road-layer';
+import { readGeoJsonUpload } from '../import/decode-upload';
+import { saveRoadLayer } from '../services/road-layers';
+import { createShelters, createZones } from '../services/zones-shelters';
 import { demoAccounts, demoOrganization } from './demo-accounts';
 import { seedOrganization } from './seed-organization';
 
-export const demoPlanName = 'Demo town evacuation';
+export const demoPlanName = 'Veltmoor river crossings';
+const townFile = (name: string) => fileURLToPath(new URL(`./demo-town/${name}`, import.meta.url));
 
 export async function seedDemo(db: Database, rounds: number) {
   const { organizationId, userIds } = await seedOrganization(db, demoOrganization, demoAccounts, rounds);
@@ -13,13 +24,37 @@ export async function seedDemo(db: Database, rounds: number) {
     .select({ id: plans.id })
     .from(plans)
     .where(and(eq(plans.organizationId, organizationId), eq(plans.name, demoPlanName)));
-  if (!existing) {
-    await db.insert(plans).values({
+  if (existing) return { organizationId, userIds, planId: existing.id };
+
+  const plannerId = userIds['planner@cutline.example'] ?? null;
+  const [plan] = await db
+    .insert(plans)
+    .values({
       organizationId,
       name: demoPlanName,
-      description: 'An invented town for trying Cutline: its roads, evacuation zones and shelters.',
-      createdBy: userIds['planner@cutline.example'] ?? null,
-    });
-  }
-  return { organizationId, userIds };
+      description:
+        'Veltmoor is an invented river town: six residential zones on the west bank of the Sable River, ' +
+        'shelters and exits to the east, four bridges between them.',
+      createdBy: plannerId,
+    })
+    .returning({ id: plans.id });
+  const planId = plan!.id;
+  const actor = { userId: plannerId, organizationId };
+  const network = await importRoadLayerFile(townFile('roads.geojson'));
+  await saveRoadLayer(db, actor, planId, network, {
+    name: 'Veltmoor roads',
+    sourceFileName: 'roads.geojson',
+    importOptions: { propertyMapping: null, snapToleranceMeters: 3, tinySegmentMeters: 1 },
+  });
+  const zoneFeatures = readZones(readGeoJsonUpload(await readFile(townFile('zones.geojson')), 'zones.geojson'));
+  await createZones(db, actor, planId, zoneFeatures.map((z) => ({ ...z.attributes, geometry: z.geometry as never })), 'zones.geojson');
+  const shelterFeatures = readShelters(readGeoJsonUpload(await readFile(townFile('shelters.geojson')), 'shelters.geojson'));
+  await createShelters(
+    db,
+    actor,
+    planId,
+    shelterFeatures.map((s) => ({ ...s.attributes, lon: s.coordinates[0], lat: s.coordinates[1] })),
+    'shelters.geojson',
+  );
+  return { organizationId, userIds, planId };
 }

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext } from 'playwright-core';
 import { launchChromium, screenshotDir } from './support/chromium';
 import { startLiveServer, type LiveServer } from './support/live-server';
+import { demoPlanName } from '../../server/seed/seed-demo';
 
 let server: LiveServer;
 let browser: { context: BrowserContext; close: () => Promise<void> };
@@ -36,7 +37,7 @@ it('signs in as the demo planner and shows the plans page', async () => {
   await page.locator('[data-test="plan-card"]').first().waitFor();
   expect(await page.locator('[data-test="page-title"]').innerText()).toBe('Plans');
   expect(await page.locator('[data-test="user-role"]').innerText()).toBe('Planner');
-  expect(await page.locator('[data-test="plan-card"]').first().innerText()).toContain('Demo town evacuation');
+  expect(await page.locator('[data-test="plan-card"]').first().innerText()).toContain(demoPlanName);
   // Roboto is served by the app itself.
   expect(await page.evaluate(() => document.fonts.check('16px Roboto'))).toBe(true);
   await page.screenshot({ path: path.join(screenshotDir, 'plans.png') });

@@ -57,7 +57,8 @@ describe('uploading a road layer', () => {
     expect(layer.report.crossingsOnDifferentLayers).toBe(1);
     expect(layer.bbox[0]).toBeCloseTo(10.0, 6);
     expect(layer.bbox[3]).toBeCloseTo(50.005, 6);
-    expect(await countRows(ctx, 'road_segments')).toBe(5);
+    const stored = await ctx.pool.query('SELECT count(*)::int AS n FROM road_segments WHERE layer_id = $1', [layer.id]);
+    expect(stored.rows[0].n).toBe(5);
 
     const active = await viewer.agent.get(`/api/plans/${planId}/road-layer`).expect(200);
     expect(active.body.layer.id).toBe(layer.id);
