@@ -1,0 +1,93 @@
+// What the figures rest on: data version, capacity table with each value's source, persons per
+// vehicle, departure curve, time step, horizon, engine and algorithm, and the method by name.
+import type { Content, TableCell } from 'pdfmake/interfaces';
+import type { BriefingInput } from '../briefing-input';
+import { formatCount, formatDateTime, formatDecimal, formatSpan, formatStep } from '../format';
+import { COLOURS, dataTable, td, th } from './document-styles';
+
+const algorithmNames: Record<string, string> = {
+  'edmonds-karp': 'Edmonds–Karp (shortest augmenting paths)',
+  dinic: 'Dinic (blocking flows)',
+  'push-relabel': 'Goldberg–Tarjan push-relabel',
+  auto: 'chosen by the engine',
+};
+
+function algorithmWords(key: string): string {
+  return algorithmNames[key] ?? key;
+}
+
+function keyValue(rows: [string, string][]): Content {
+  return {
+    table: { widths: [120, '*'], body: rows.map(([k, v]) => [{ text: k, style: 'th', margin: [0, 1, 0, 0] }, { text: v, fontSize: 8.5 }]) },
+    layout: {
+      hLineWidth: (i: number, node: { table: { body: unknown[] } }) => (i === 0 || i === node.table.body.length ? 0 : 0.35),
+      vLineWidth: () => 0,
+      hLineColor: () => COLOURS.rule,
+      paddingLeft: () => 0,
+      paddingRight: () => 6,
+      paddingTop: () => 3,
+      paddingBottom: () => 3,
+    },
+  };
+}
+
+export function assumptionsSection(input: BriefingInput): Content[] {
+  const { run, result, assumptions: a } = input;
+  const p = run.parameters;
+  const s = result.stats;
+  const requested = p.algorithm === 'auto' ? 'automatic choice' : algorithmWords(p.algorithm);
+  const rows: [string, string][] = [
+    ['Data version', `${run.dataVersion}: ${a.dataDescription}`],
+    ['Scenario', input.scenarioName ?? 'none (the plan’s own data)'],
+    ['Horizon', `${formatSpan(p.horizonMinutes)} after the evacuation order`],
+    ['Time step', formatStep(p.timeStepSeconds)],
+    ['Capacity factor', `${formatDecimal(p.capacityFactor)} on every lane capacity${a.capacityFactorNote ? ` — ${a.capacityFactorNote}` : ''}`],
+    ['Persons per vehicle', `${formatDecimal(a.personsPerVehicle)} — ${a.personsPerVehicleSource}`],
+    ['Departure curve', a.departureCurve],
+    ['Engine', `${s.engineVersion}; algorithm ${algorithmWords(s.algorithm)} (requested: ${requested})`],
+    [
+      'Model size',
+      `${formatCount(s.nodes)} nodes and ${formatCount(s.arcs)} arcs; ${formatCount(s.expandedNodes)} nodes and ${formatCount(s.expandedArcs)} arcs over time`,
+    ],
+    ['Result check', s.verified ? 'flow conservation, capacity bounds and cut = flow checked after solving' : 'not verified after solving'],
+    ['Run', `${run.id}${run.finishedAt ? `, finished ${formatDateTime(new Date(run.finishedAt), input.timeZone)}` : ''}`],
+  ];
+
+  const capRows: TableCell[][] = a.capacityTable.map((r) => [
+    td(r.roadClass.replace(/_/g, ' ')),
+    td(String(r.lanesPerDirection), { right: true }),
+    td(formatCount(r.speedKmh), { right: true }),
+    td(formatCount(r.capacityVehPerHourPerLane), { right: true }),
+    {
+      stack: [
+        { text: [{ text: 'Capacity: ', bold: true }, r.capacitySource] },
+        { text: [{ text: 'Lanes: ', bold: true }, r.lanesSource] },
+        { text: [{ text: 'Speed: ', bold: true }, r.speedSource] },
+      ],
+      fontSize: 6.8,
+      color: COLOURS.muted,
+      lineHeight: 1.2,
+    },
+  ]);
+
+  return [
+    { text: 'Assumptions', style: 'h1' },
+    keyValue(rows),
+    { text: 'Capacity table', style: 'h2', margin: [0, 14, 0, 4] },
+    dataTable([62, 34, 34, 44, '*'], [th('Road class'), th('Lanes\nper dir.', 'right'), th('km/h', 'right'), th('veh/h/lane', 'right'), th('Sources')], capRows),
+    {
+      text: 'Per-segment values from the road data (lanes, speed limits, closures) replace these defaults where present. Arc capacity = lanes × per-lane capacity × capacity factor.',
+      style: 'note',
+      margin: [0, 4, 0, 0],
+    },
+    { text: 'Method', style: 'h2', margin: [0, 14, 0, 4] },
+    {
+      text:
+        'Evacuees per hour is the maximum flow from the evacuation zones to the shelters through the road network at steady state; the limiting roads are a minimum cut of that flow (max-flow min-cut theorem, Ford & Fulkerson). ' +
+        'The evacuation curve and the clearance time come from a time-expanded network, in which each road is copied for every time step and vehicles may wait (Chalmet, Francis & Saunders 1982; Ford & Fulkerson 1958). ' +
+        'The maximum flow is computed with the algorithm named above (Edmonds & Karp 1972; Dinic 1970). The curve is the most that any routing could deliver by each minute under these inputs.',
+      fontSize: 8.5,
+      lineHeight: 1.3,
+    },
+  ];
+}

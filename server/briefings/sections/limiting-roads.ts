@@ -1,0 +1,88 @@
+// The map with the limiting roads, the bottleneck table and the ranking of fixes.
+import type { Content, TableCell } from 'pdfmake/interfaces';
+import type { BriefingInput } from '../briefing-input';
+import { formatCount, formatPercent } from '../format';
+import { mapSvg } from '../map-svg';
+import { chokePointRanks, rankBottlenecks, rankFixes } from '../rankings';
+import { roadNamer } from '../road-labels';
+import { COLOURS, dataTable, td, th } from './document-styles';
+
+function windows(w: [number, number][]): string {
+  if (w.length === 0) return '—';
+  const shown = w.slice(0, 3).map(([a, b]) => `${formatCount(a)}–${formatCount(b)}`);
+  return `${shown.join(', ')}${w.length > 3 ? ` (+${w.length - 3} more)` : ''} min`;
+}
+
+function roadClassWords(c: string): string {
+  return c.replace(/_/g, ' ');
+}
+
+export function mapFigure(input: BriefingInput): Content[] {
+  return [
+    { text: 'Where the roads choke', style: 'h1' },
+    {
+      text: 'The red roads are the ones that set the limit on evacuees per hour: together they form the narrowest cross-section between the zones and the shelters. Numbers match the table below.',
+      style: 'note',
+      margin: [0, 0, 0, 6],
+    },
+    { svg: mapSvg({ ...input.map, chokePoints: chokePointRanks(input.result), width: 516, height: 350 }), width: 516 },
+    { text: 'Figure 2. Road network, evacuation zones and shelters; north is up. Drawn from the run’s stored geometry.', style: 'caption' },
+  ];
+}
+
+export function bottleneckTable(input: BriefingInput): Content[] {
+  const roads = roadNamer(input.map);
+  const ranked = rankBottlenecks(input.result);
+  if (ranked.length === 0) {
+    return [{ text: 'Limiting roads', style: 'h2' }, { text: 'This run reported no limiting roads.', style: 'note' }];
+  }
+  const rows: TableCell[][] = ranked.map((b, i) => [
+    td(String(i + 1), { bold: true, color: COLOURS.warn }),
+    td(roads.name(b)),
+    td(roads.direction(b)),
+    td(roadClassWords(b.roadClass)),
+    td(formatCount(b.capacityVehiclesPerHour), { right: true }),
+    td(formatPercent(b.shareOfCut), { right: true }),
+    td(b.inStaticCut ? 'yes' : 'no'),
+    td(windows(b.cutWindows)),
+    td(formatCount(b.gainPerExtraLaneVehiclesPerHour), { right: true }),
+  ]);
+  return [
+    { text: 'Limiting roads', style: 'h2', margin: [0, 14, 0, 4] },
+    dataTable(
+      [12, '*', 70, 52, 46, 40, 34, 76, 42],
+      [th('#'), th('Road'), th('Direction'), th('Class'), th('Capacity\nveh/h', 'right'), th('Share of\nlimit', 'right'), th('Steady\nlimit'), th('Limiting\nduring'), th('+1 lane\nveh/h', 'right')],
+      rows,
+    ),
+    {
+      text: '“Share of limit” is the road’s part of the narrowest cross-section at steady state. “Limiting during” gives the minutes after the order when the road is full in the time-by-time analysis. “+1 lane” is the gain in evacuees per hour from one more lane on that road alone.',
+      style: 'note',
+      margin: [0, 4, 0, 0],
+    },
+  ];
+}
+
+export function fixRanking(input: BriefingInput): Content[] {
+  const roads = roadNamer(input.map);
+  const fixes = rankFixes(input.result);
+  const ppv = input.assumptions.personsPerVehicle;
+  const heading: Content = { text: 'Most valuable fixes', style: 'h2', margin: [0, 14, 0, 4] };
+  if (fixes.length === 0) return [heading, { text: 'No single change tested in this run raises evacuees per hour.', style: 'note' }];
+  const rows: TableCell[][] = fixes.map((f, i) => [
+    td(String(i + 1), { bold: true }),
+    td(f.kind === 'add-lane' ? 'Add a lane' : 'Reopen the road'),
+    td(roads.name(f)),
+    td(roads.direction(f)),
+    td(`+${formatCount(f.gainVehiclesPerHour)}`, { right: true }),
+    td(`+${formatCount(f.gainVehiclesPerHour * ppv)}`, { right: true }),
+  ]);
+  return [
+    heading,
+    dataTable([12, 78, '*', 76, 58, 62], [th('#'), th('Change'), th('Road'), th('Direction'), th('Gain\nveh/h', 'right'), th('Gain\npersons/h', 'right')], rows),
+    {
+      text: 'Each gain is for that change alone, measured against this run; gains do not add up, because once one road is widened another may set the limit. Any change to lanes, signals or closures needs a licensed traffic engineer’s review.',
+      style: 'note',
+      margin: [0, 4, 0, 0],
+    },
+  ];
+}
