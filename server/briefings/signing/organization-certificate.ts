@@ -36,7 +36,7 @@ export function certificateFingerprint(cert: forge.pki.Certificate): string {
 
 function attributeText(a: forge.pki.CertificateField): string {
   const raw = String(a.value);
-  if (a.valueTagClass !== forge.asn1.Type.UTF8) return raw;
+  if ((a.valueTagClass as unknown as forge.asn1.Type) !== forge.asn1.Type.UTF8) return raw;
   try {
     return forge.util.decodeUtf8(raw);
   } catch {
@@ -84,7 +84,8 @@ export function generateOrganizationCertificate({ organizationName, passphrase, 
   cert.validity.notAfter = new Date(now.getTime() + validDays * DAY_MS);
   // forge strings are byte strings: UTF-8-encode names, or letters beyond Latin-1 are cut to
   // one byte and the P12's MAC no longer verifies.
-  const utf8 = (value: string) => ({ value: forge.util.encodeUtf8(value), valueTagClass: forge.asn1.Type.UTF8 });
+  // (@types/node-forge types valueTagClass as a tag class; forge reads it as the tag type.)
+  const utf8 = (value: string) => ({ value: forge.util.encodeUtf8(value), valueTagClass: forge.asn1.Type.UTF8 as unknown as forge.asn1.Class });
   const name = [
     { name: 'commonName', ...utf8(`${organizationName} - briefing signing`) },
     { name: 'organizationName', ...utf8(organizationName) },
