@@ -189,7 +189,7 @@ function readXrefChain(buf: Buffer): Omit<PdfDocument, 'buf' | 'via'> {
   while (at !== null) {
     if (seen.has(at) || at >= buf.length) throw new PdfReadError('broken xref chain');
     seen.add(at);
-    const p = new PdfParser(buf, at);
+    const p: PdfParser = new PdfParser(buf, at);
     p.expectKeyword('xref');
     for (;;) {
       p.skipWhitespace();
@@ -210,10 +210,10 @@ function readXrefChain(buf: Buffer): Omit<PdfDocument, 'buf' | 'via'> {
         else if (type === 'f' && !offsets.has(num)) offsets.set(num, -1);
       }
     }
-    const dict = p.value();
+    const dict: PdfValue = p.value();
     if (dict.kind !== 'dict') throw new PdfReadError('trailer is not a dictionary');
     trailer ??= dict.entries;
-    const prev = dict.entries.get('Prev');
+    const prev: PdfValue | undefined = dict.entries.get('Prev');
     at = prev?.kind === 'number' ? prev.value : null;
   }
   for (const [k, v] of offsets) if (v < 0) offsets.delete(k);

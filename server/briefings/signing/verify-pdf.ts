@@ -116,7 +116,8 @@ function checkCms(cmsBytes: Buffer, signedData: Buffer): CmsCheck {
   let p7: forge.pkcs7.PkcsSignedData;
   try {
     // The placeholder is padded with zeros after the DER; parseAllBytes: false ignores them.
-    const asn1 = forge.asn1.fromDer(forge.util.createBuffer(cmsBytes.toString('binary')), { parseAllBytes: false });
+    // (@types/node-forge knows only the older boolean second argument.)
+    const asn1 = forge.asn1.fromDer(forge.util.createBuffer(cmsBytes.toString('binary')), { parseAllBytes: false } as unknown as boolean);
     p7 = forge.pkcs7.messageFromAsn1(asn1) as forge.pkcs7.PkcsSignedData;
   } catch (err) {
     out.problems.push(`The signature value is not a readable CMS signature (${(err as Error).message}).`);
