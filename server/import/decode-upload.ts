@@ -23,17 +23,12 @@ function startsWith(bytes: Uint8Array, prefix: number[]): boolean {
 /** @throws RoadImportError `unreadableFile` for empty, corrupt or unknown content. */
 export function decodeUpload(input: Uint8Array, fileName = 'upload'): DecodedUpload {
   let bytes = input;
-  let compression: DecodedUpload['compression'] = 'none';
+  const compression: DecodedUpload['compression'] = startsWith(input, [0x42, 0x5a, 0x68]) ? 'bzip2' : startsWith(input, [0x1f, 0x8b]) ? 'gzip' : 'none';
   try {
-    if (startsWith(bytes, [0x42, 0x5a, 0x68])) {
-      bytes = bunzip.decode(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
-      compression = 'bzip2';
-    } else if (startsWith(bytes, [0x1f, 0x8b])) {
-      bytes = gunzipSync(bytes);
-      compression = 'gzip';
-    }
+    if (compression === 'bzip2') bytes = bunzip.decode(Buffer.from(input.buffer, input.byteOffset, input.byteLength));
+    else if (compression === 'gzip') bytes = gunzipSync(input);
   } catch (error) {
-    throw new RoadImportError('unreadableFile', `${fileName}: the ${compression === 'none' ? 'compressed' : compression} data is corrupt (${(error as Error).message})`);
+    throw new RoadImportError('unreadableFile', `${fileName}: the ${compression} data is corrupt (${String((error as Error).message ?? error)})`);
   }
   let i = 0;
   // Skip a UTF-8 byte-order mark and leading blanks.

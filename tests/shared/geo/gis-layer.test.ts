@@ -1,0 +1,94 @@
+// A GIS-style layer without shared vertices (tests/fixtures/geo/gis-no-shared-vertices.geojson,
+// invented, built by make-fixtures.ts): junctions drawn as crossings, a level-1 freeway over
+// the grid, an undershoot, an end-to-end gap, an overshoot, a lone street, ESRI-style
+// attributes read through a property mapping. Expected counts are worked out by hand from
+// the drawing in make-fixtures.ts.
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { propertyMappingSchema } from '../../../shared/api/network';
+import { importRoadLayer } from '../../../server/import/import-road-layer';
+
+const fixture = (name: string) => readFileSync(new URL(`../../fixtures/geo/${name}`, import.meta.url));
+const mapping = propertyMappingSchema.parse(JSON.parse(fixture('gis-no-shared-vertices.mapping.json').toString()));
+const layer = fixture('gis-no-shared-vertices.geojson');
+const network = importRoadLayer(layer, { propertyMapping: mapping });
+const of = (id: string) => network.segments.filter((s) => s.sourceId === id);
+const meters = (id: string) => of(id).map((s) => Math.round(s.lengthMeters * 100) / 100);
+
+describe('splitting at crossings', () => {
+  it('splits a 3 × 3 grid of single lines at its nine crossings (and where Long Lane crosses)', () => {
+    expect(network.report.splitAtCrossings).toBe(true);
+    expect(network.report.crossingsJoined).toBe(10);
+    expect(meters('H0')).toEqual([50, 200, 100, 100, 50]); // x = 0, 200, 300 (Long Lane), 400
+    expect(meters('V1')).toEqual([50, 200, 200, 50]);
+    const h0 = of('H0');
+    const v0 = of('V0');
+    expect(v0[0]!.toNode).toBe(h0[0]!.toNode); // (0, 0) is one node
+  });
+
+  it('does not join roads on different layers: the level-1 freeway crosses four streets and meets none', () => {
+    expect(network.report.crossingsOnDifferentLayers).toBe(4);
+    const skyway = of('F1');
+    expect(skyway).toHaveLength(1);
+    expect(skyway[0]!.attributes).toMatchObject({ roadClass: 'motorway', layer: 1, oneway: false, lanesForward: 2, lanesBackward: 2 });
+    expect(skyway[0]!.component).not.toBe(0);
+  });
+
+  it('can be switched off: then nothing is joined and every street is its own piece', () => {
+    const apart = importRoadLayer(layer, { propertyMapping: mapping, splitAtCrossings: false, snapToleranceMeters: 0 });
+    expect(apart.report.crossingsJoined).toBe(0);
+    expect(apart.report.components).toHaveLength(11);
+    expect(apart.segments).toHaveLength(11);
+  });
+});
+
+describe('snapping dangling ends', () => {
+  it('joins an undershoot to the road it stops 1.5 m short of, splitting that road there', () => {
+    const [shortLane] = of('U1');
+    expect(meters('H2')).toEqual([50, 100, 100, 200, 50]); // split at x = 100
+    const northRow = of('H2');
+    expect(shortLane!.toNode).toBe(northRow[1]!.toNode);
+    expect(network.report.snappedEnds.map((s) => Math.round(s.movedMeters * 10) / 10)).toEqual([2, 1.5, 2]);
+  });
+
+  it('joins ends 2 m apart end to end, and trims a 2 m overshoot onto the road it crossed', () => {
+    expect(of('U2')[0]!.toNode).toBe(of('U1')[0]!.fromNode);
+    expect(meters('O1')).toEqual([150]);
+    expect(of('O1')[0]!.toNode).toBe(of('H0')[2]!.toNode); // x = 300 on South Row
+  });
+
+  it('leaves a street 50 m from anything alone, as its own component, and lists its ends', () => {
+    const lonely = of('X1')[0]!;
+    expect(lonely.component).toBe(2);
+    const dangling = new Set(network.report.danglingEnds.map((d) => d.node));
+    expect(dangling.has(lonely.fromNode) && dangling.has(lonely.toNode)).toBe(true);
+    expect(network.report.components.map((c) => [c.nodes, c.segments])).toEqual([[26, 29], [2, 1], [2, 1]]);
+  });
+
+  it('does not snap with a zero tolerance: the undershoot stays a dead end', () => {
+    const strict = importRoadLayer(layer, { propertyMapping: mapping, snapToleranceMeters: 0 });
+    expect(strict.report.snappedEnds).toEqual([]);
+    expect(strict.segments.filter((s) => s.sourceId === 'U1')[0]!.component).not.toBe(0);
+  });
+});
+
+describe('property mapping', () => {
+  it('maps class values, drops mapped-out and unknown classes, and counts them', () => {
+    expect(network.report.dropped).toEqual([
+      { roadClass: 'Ramp??', reason: 'unknownClass', features: 1 },
+      { roadClass: 'Trail', reason: 'unknownClass', features: 1 },
+    ]);
+    expect(Object.fromEntries(network.report.kept.map((k) => [k.roadClass, k.features]))).toEqual({ residential: 9, primary: 1, motorway: 1 });
+  });
+
+  it('reads FT/TF one-way codes, lane counts, speeds in mi/h and names', () => {
+    const middle = of('H1');
+    for (const s of middle) expect(s.attributes).toMatchObject({ oneway: true, lanesForward: 2, lanesBackward: 0, name: 'Middle Row' });
+    expect(middle[0]!.attributes.speedKmh).toBeCloseTo(35 * 1.609344, 9);
+    // TF: traffic runs against the drawing (drawn south → north), so segments run north → south.
+    const east = of('V2');
+    for (const s of east) expect(network.nodes[s.fromNode]!.lat).toBeGreaterThan(network.nodes[s.toNode]!.lat);
+    expect(of('H0')[0]!.attributes.speedKmh).toBeCloseTo(25 * 1.609344, 9);
+    expect(of('H2')[0]!.attributes.speedKmh).toBeNull();
+  });
+});

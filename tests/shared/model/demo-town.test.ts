@@ -1,0 +1,74 @@
+// The demo town (invented): the committed layers are the generator's output, they import
+// cleanly, and the evacuation's static choke points are the four bridges (solved by the flow
+// engine; 2 × 2 lanes × 1,000 + 850 + 750 veh/h from the default table).
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { buildSteadyStateNetwork, solveSteadyState, validateEvacuationProblem } from '../../../shared/flow';
+import { attachShelters, attachZones, indexNodes, readShelters, readZones } from '../../../shared/geo';
+import { buildEvacuationProblem, defaultCapacityTable } from '../../../shared/model';
+import { importRoadLayer } from '../../../server/import/import-road-layer';
+import { demoRoads, demoShelters, demoZones } from '../../../server/seed/demo-town/demo-town';
+
+const file = (name: string) => readFileSync(new URL(`../../../server/seed/demo-town/${name}`, import.meta.url), 'utf8');
+
+describe('demo town', () => {
+  const network = importRoadLayer(Buffer.from(file('roads.geojson')), {}, 'roads.geojson');
+  const zones = readZones(JSON.parse(file('zones.geojson')));
+  const shelters = readShelters(JSON.parse(file('shelters.geojson')));
+  const index = indexNodes(network);
+  const zoneLinks = attachZones(index, zones);
+  const shelterLinks = attachShelters(index, shelters);
+
+  it('commits exactly what the generator writes', () => {
+    expect(JSON.parse(file('roads.geojson'))).toEqual(demoRoads());
+    expect(JSON.parse(file('zones.geojson'))).toEqual(demoZones());
+    expect(JSON.parse(file('shelters.geojson'))).toEqual(demoShelters());
+  });
+
+  it('is one connected network of a few hundred to a few thousand segments', () => {
+    expect(network.segments.length).toBeGreaterThan(300);
+    expect(network.segments.length).toBeLessThan(5000);
+    expect(network.report.components).toHaveLength(1);
+    expect(network.report.tinySegments).toEqual([]);
+    expect(zones.length).toBeGreaterThanOrEqual(4);
+    expect(zones.length).toBeLessThanOrEqual(8);
+    expect(shelters.length).toBeGreaterThanOrEqual(3);
+    expect(shelters.length).toBeLessThanOrEqual(6);
+  });
+
+  it('keeps Wharf Road under the bridges and the ramps over the far carriageway apart', () => {
+    // 4 bridges over Wharf Road, Heron Overpass over 2 carriageways, 4 flyover ramps.
+    expect(network.report.crossingsOnDifferentLayers).toBe(10);
+    expect(network.report.crossingsJoined).toBe(0);
+    const nodesOf = (name: string) => new Set(network.segments.filter((s) => s.attributes.name === name).flatMap((s) => [s.fromNode, s.toNode]));
+    const wharf = nodesOf('Wharf Road');
+    for (const bridge of ['Quay Bridge', 'Market Bridge', 'Heron Bridge', 'Mill Bridge']) {
+      expect([...nodesOf(bridge)].some((v) => wharf.has(v))).toBe(false);
+    }
+  });
+
+  it('attaches every zone by the nodes inside it and every shelter within a few metres', () => {
+    expect(zoneLinks.every((z) => z.attachedBy === 'inside' && z.entryNodes.length > 50)).toBe(true);
+    expect(shelterLinks.every((s) => s.distanceMeters < 10)).toBe(true);
+  });
+
+  it('has the four bridges as its static minimum cut: 5,600 veh/h', () => {
+    const built = buildEvacuationProblem(
+      { nodeCount: network.nodes.length, segments: network.segments },
+      defaultCapacityTable(),
+      [],
+      zones.map((z, i) => ({ id: z.id!, attributes: z.attributes, entryNodes: zoneLinks[i]!.entryNodes })),
+      shelters.map((s, i) => ({ id: s.id!, attributes: s.attributes, node: shelterLinks[i]!.node })),
+      { timeStepSeconds: 60, horizonSteps: 360 },
+    );
+    validateEvacuationProblem(built.problem);
+    const { summary } = solveSteadyState(built.problem, buildSteadyStateNetwork(built.problem));
+    expect(summary.unbounded).toBe(false);
+    expect(summary.throughputVehPerHour).toBe(5600);
+    const cut = summary.cutRoads.map((r) => {
+      const origin = built.roadOrigins[r]!;
+      return `${network.segments[origin.segment]!.attributes.name} ${origin.direction}`;
+    });
+    expect(cut.sort()).toEqual(['Heron Bridge forward', 'Market Bridge forward', 'Mill Bridge forward', 'Quay Bridge forward']);
+  });
+});
