@@ -62,3 +62,15 @@ export function sha256Hex(data: string | Uint8Array): string {
 export function contentSha256(input: BriefingInput): string {
   return sha256Hex(canonicalJson(briefingContent(input)));
 }
+
+/** The content as JSON (Dates as ISO strings): what the database keeps. */
+export type StoredBriefingContent = Record<string, unknown> & { format: typeof CONTENT_FORMAT; briefingId: string };
+
+export function storedBriefingContent(input: BriefingInput): StoredBriefingContent {
+  return JSON.parse(canonicalJson(briefingContent(input))) as StoredBriefingContent;
+}
+
+/** Equals contentSha256(input) for storedBriefingContent(input): key order and Dates do not matter. */
+export function sha256OfStoredContent(stored: StoredBriefingContent): string {
+  return sha256Hex(canonicalJson(stored));
+}
