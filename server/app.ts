@@ -20,6 +20,9 @@ import { membersRouter } from './routes/members';
 import { auditRouter } from './routes/audit';
 import { roadLayersRouter } from './routes/road-layers';
 import { zonesSheltersRouter } from './routes/zones-shelters';
+import { settingsRouter } from './routes/settings';
+import { createSettings } from './services/settings';
+
 
 export type AppDeps = {
   config: Config;
@@ -32,25 +35,19 @@ export type AppDeps = {
 
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-function tileOrigin(url: string): string[] {
-  if (!url) return [];
-  try {
-    return [new URL(url.replaceAll(/\{[a-z]\}/g, 'a')).origin];
-  } catch {
-    return [];
-  }
-}
-
 export function createApp({ config, db, pool, log = console.error, clientDir = defaultClientDir }: AppDeps) {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
 
+  const settings = createSettings(db, config.TILE_URL);
+  // Warm the cache so the first page's policy already names a configured tile server.
+  void settings.getMapSettings().catch(log);
   app.use(
     helmet({
       contentSecurityPolicy: {
         directives: {
-          'img-src': ["'self'", 'data:', 'blob:', ...tileOrigin(config.TILE_URL)],
+          'img-src': ["'self'", 'data:', 'blob:', () => settings.tileOrigin() ?? "'self'"],
         },
       },
     }),
@@ -88,6 +85,7 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
+  app.use('/api/settings', settingsRouter(settings));
   app.use('/api', apiNotFound);
 
   if (fs.existsSync(path.join(clientDir, 'index.html'))) {

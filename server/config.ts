@@ -15,6 +15,10 @@ const configSchema = z.object({
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
+  // Per-run budget: a larger problem is refused before it starts; a longer or hungrier solve is stopped.
+  RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(30_000_000),
+  RUN_TIME_BUDGET_SECONDS: z.coerce.number().positive().default(900),
+  RUN_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(6144),
   UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
 });
 

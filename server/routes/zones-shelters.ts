@@ -22,6 +22,7 @@ import { actorOf, requireMember } from '../middleware/require-member';
 import { singleFileUpload } from '../middleware/upload';
 import { getCapacityTable, putCapacityTable } from '../services/capacity-table';
 import { assertPlanInOrganization } from '../services/plan-access';
+import { describeAttachments, loadPlanModel } from '../services/plan-model';
 import {
   createShelters,
   createZones,
@@ -103,6 +104,11 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
     const { planId, shelterId } = shelterParamsSchema.parse(req.params);
     await deleteShelter(db, actorOf(req), planId, shelterId);
     res.status(204).end();
+  });
+
+  router.get('/attachments', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json(describeAttachments(await loadPlanModel(db, actorOf(req).organizationId, planId)));
   });
 
   router.get('/capacity-table', requireMember('plans:read'), async (req, res) => {

@@ -49,6 +49,7 @@ export const attachmentsSchema = z.object({
       attachedBy: z.enum(['inside', 'nearest']),
       distanceMeters: z.number(),
       nodes: z.array(z.object({ index: z.number().int(), lon: z.number(), lat: z.number() })),
+      problem: z.string().nullable(),
     }),
   ),
   shelters: z.array(

@@ -4,3 +4,4 @@ export * from './plans';
 export * from './audit-events';
 export * from './network';
 export * from './runs';
+export * from './settings';
