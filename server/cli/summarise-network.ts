@@ -32,7 +32,8 @@ export function summariseNetwork(network: RoadNetwork, table: CapacityTable) {
     splitAtCrossings: r.splitAtCrossings,
     crossingsJoined: r.crossingsJoined,
     crossingsOnDifferentLayers: r.crossingsOnDifferentLayers,
-    snappedEnds: r.snappedEnds.length,
+    snappedEnds: r.snappedEnds.reduce((sum, s) => sum + s.ends, 0),
+    snappedAtNodes: r.snappedEnds.length,
     danglingEnds: r.danglingEnds.length,
     tinySegments: { belowMeters: r.tinySegmentMeters, count: r.tinySegments.length },
     components: {

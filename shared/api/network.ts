@@ -299,7 +299,8 @@ export const importReportSchema = z.object({
   /** Crossings left apart because the roads are on different layers (bridge, tunnel, layer). */
   crossingsOnDifferentLayers: z.int().min(0),
   snapToleranceMeters: z.number(),
-  snappedEnds: z.array(z.object({ node: z.int(), lon: z.number(), lat: z.number(), movedMeters: z.number() })),
+  /** Nodes where ends were moved to join: how many ends, and the largest move, metres. */
+  snappedEnds: z.array(z.object({ node: z.int(), lon: z.number(), lat: z.number(), ends: z.int().min(1), movedMeters: z.number() })),
   danglingEnds: z.array(z.object({ node: z.int(), lon: z.number(), lat: z.number() })),
   tinySegmentMeters: z.number(),
   tinySegments: z.array(z.object({ segment: z.int(), lengthMeters: z.number() })),

@@ -13,7 +13,7 @@ import { cutIntoSegments } from './cut-into-segments';
 import { connectedComponents } from './network-components';
 import { readRoadFeatures } from './read-road-features';
 import { RoadImportError } from './road-import-error';
-import { snapDanglingEnds } from './snap-dangling-ends';
+import { joinDanglingEnds, snapDanglingEnds } from './snap-dangling-ends';
 import { chooseCellMeters } from './spatial-grid';
 import { splitAtCrossings } from './split-at-crossings';
 import type { TopoLine } from './topology-lines';
@@ -41,9 +41,10 @@ function splitKey(key: string): [string, string] {
 }
 
 /**
- * Builds the road network. Topology: a node wherever lines share a vertex or end; for GIS
- * data (by default GeoJSON uploads) also where roads cross on the same layer; dangling ends
- * within the snap tolerance are joined to the nearest road. Lengths are turf's haversine
+ * Builds the road network. Topology: a node wherever lines share a vertex or end; dangling
+ * ends within the snap tolerance are joined to one another or to the nearest vertex; for GIS
+ * data (by default GeoJSON uploads) roads are then split where they cross on the same layer;
+ * finally remaining dangling ends are joined to the nearest vertex or edge. Lengths are turf's haversine
  * distances along the vertices.
  *
  * Runs in about O(V + E + P) for V vertices, E edges and P edge pairs sharing a grid cell.
@@ -92,8 +93,10 @@ export function buildRoadNetwork(
   const cellMeters = chooseCellMeters(edgeLengths, (maxX - minX) * (maxY - minY), Math.max(10, opts.snapToleranceMeters * 2));
 
   const split = opts.splitAtCrossings ?? context.sourceFormat === 'geojson';
+  const tolerance = opts.snapToleranceMeters;
+  const joinedEnds = joinDanglingEnds(lines, store, tolerance, cellMeters, split);
   const crossings = split ? splitAtCrossings(lines, store, cellMeters) : { joined: 0, onDifferentLayers: 0 };
-  const snapped = snapDanglingEnds(lines, store, opts.snapToleranceMeters, cellMeters);
+  const snapped = [...joinedEnds, ...snapDanglingEnds(lines, store, tolerance, cellMeters)];
   const cut = cutIntoSegments(lines, store);
   const { segmentComponent, components } = connectedComponents(cut.nodes, cut.segments);
 
@@ -179,13 +182,18 @@ function buildReport(p: ReportParts): ImportReport {
 
   const nodeOfVertex = new Map<number, number>();
   for (const [node, v] of cut.nodeVertex.entries()) nodeOfVertex.set(v, node);
-  const snappedEnds: ImportReport['snappedEnds'] = [];
+  const snappedAt = new Map<number, ImportReport['snappedEnds'][number]>();
   for (const s of p.snapped) {
     const node = nodeOfVertex.get(store.find(s.vertex));
     if (node === undefined) continue;
     const n = cut.nodes[node]!;
-    snappedEnds.push({ node, lon: n.lon, lat: n.lat, movedMeters: s.movedMeters });
+    const entry = snappedAt.get(node);
+    if (entry) {
+      entry.ends += 1;
+      entry.movedMeters = Math.max(entry.movedMeters, s.movedMeters);
+    } else snappedAt.set(node, { node, lon: n.lon, lat: n.lat, ends: 1, movedMeters: s.movedMeters });
   }
+  const snappedEnds = [...snappedAt.values()].sort((a, b) => a.node - b.node);
 
   const danglingEnds: ImportReport['danglingEnds'] = [];
   for (const [node, d] of degree.entries()) {

@@ -80,3 +80,15 @@ export function addInsertion(insertions: Map<number, Insertion[]>, line: number,
   if (list) list.push(insertion);
   else insertions.set(line, [insertion]);
 }
+
+/** Replaces every vertex by its group's representative and drops repeats, after joins. */
+export function normaliseLines(lines: TopoLine[], store: VertexStore): void {
+  for (const line of lines) {
+    const out: number[] = [];
+    for (const v of line.verts) {
+      const r = store.find(v);
+      if (out[out.length - 1] !== r) out.push(r);
+    }
+    line.verts = out;
+  }
+}

@@ -48,10 +48,13 @@ describe('snapping dangling ends', () => {
     expect(meters('H2')).toEqual([50, 100, 100, 200, 50]); // split at x = 100
     const northRow = of('H2');
     expect(shortLane!.toNode).toBe(northRow[1]!.toNode);
-    expect(network.report.snappedEnds.map((s) => Math.round(s.movedMeters * 10) / 10)).toEqual([2, 1.5, 2]);
+    // Gap Lane and Short Lane meet halfway (two ends, 1 m each), the undershoot moves 1.5 m
+    // and the overshoot 2 m.
+    const moves = network.report.snappedEnds.map((s) => [s.ends, Math.round(s.movedMeters * 10) / 10]);
+    expect(moves.sort((a, b) => a[1]! - b[1]!)).toEqual([[2, 1], [1, 1.5], [1, 2]]);
   });
 
-  it('joins ends 2 m apart end to end, and trims a 2 m overshoot onto the road it crossed', () => {
+  it('joins ends 2 m apart end to end at their midpoint, and trims a 2 m overshoot onto the road it crossed', () => {
     expect(of('U2')[0]!.toNode).toBe(of('U1')[0]!.fromNode);
     expect(meters('O1')).toEqual([150]);
     expect(of('O1')[0]!.toNode).toBe(of('H0')[2]!.toNode); // x = 300 on South Row
@@ -90,5 +93,24 @@ describe('property mapping', () => {
     for (const s of east) expect(network.nodes[s.fromNode]!.lat).toBeGreaterThan(network.nodes[s.toNode]!.lat);
     expect(of('H0')[0]!.attributes.speedKmh).toBeCloseTo(25 * 1.609344, 9);
     expect(of('H2')[0]!.attributes.speedKmh).toBeNull();
+  });
+});
+
+describe('junctions drawn as loose ends', () => {
+  it('joins four ends misplaced by up to 1 m into one node, without slivers from the crossing search', () => {
+    // A 3 × 3 grid of 100 m blocks, one feature per block edge, every end moved a little.
+    const D = 1 / 111195;
+    const wobble = [0.7, -0.4, 0.2, -0.9, 0.5, -0.1, 0.8, -0.6];
+    let k = 0;
+    const at = (x: number, y: number) => [(x + wobble[k++ % 8]!) * D, (y + wobble[k++ % 8]!) * D];
+    const features = [];
+    for (let j = 0; j < 3; j += 1) for (let i = 0; i < 2; i += 1) features.push({ type: 'Feature', properties: { highway: 'residential' }, geometry: { type: 'LineString', coordinates: [at(i * 100, j * 100), at((i + 1) * 100, j * 100)] } });
+    for (let i = 0; i < 3; i += 1) for (let j = 0; j < 2; j += 1) features.push({ type: 'Feature', properties: { highway: 'residential' }, geometry: { type: 'LineString', coordinates: [at(i * 100, j * 100), at(i * 100, (j + 1) * 100)] } });
+    const grid = importRoadLayer(Buffer.from(JSON.stringify({ type: 'FeatureCollection', features })));
+    expect(grid.nodes).toHaveLength(9);
+    expect(grid.segments).toHaveLength(12);
+    expect(grid.report.tinySegments).toEqual([]);
+    expect(grid.report.components).toHaveLength(1);
+    expect(grid.report.danglingEnds).toEqual([]);
   });
 });
