@@ -28,12 +28,6 @@ export const INFO_KEYS = {
   signedAt: 'CutlineSignedAt',
 } as const;
 
-const WATERMARKS: Partial<Record<BriefingInput['status'], string>> = {
-  draft: 'DRAFT',
-  'awaiting-sign-off': 'FOR REVIEW',
-  returned: 'RETURNED',
-};
-
 function checkInput(input: BriefingInput): void {
   if (input.status === 'signed' && !input.signature) throw new Error('a signed briefing needs signature (name, role, time)');
   if (input.status !== 'signed' && input.signature) throw new Error(`a ${input.status} briefing cannot carry a signature`);
@@ -76,7 +70,6 @@ export function buildBriefingDocument(input: BriefingInput): TDocumentDefinition
   checkInput(input);
   const hash = contentSha256(input);
   const scenario = input.scenarioName ?? 'plan data, no scenario';
-  const watermark = WATERMARKS[input.status];
   const margin = 48;
   return {
     pageSize: input.pageSize ?? 'LETTER',
@@ -84,7 +77,8 @@ export function buildBriefingDocument(input: BriefingInput): TDocumentDefinition
     info: documentInformation(input, hash),
     defaultStyle: { font: 'Roboto', fontSize: 9, color: COLOURS.ink, lineHeight: 1.2 },
     styles,
-    ...(watermark ? { watermark: { text: watermark, color: '#868e96', opacity: 0.09, bold: true, fontSize: 96 } } : {}),
+    // The status stands in the header of every page after the first (no watermark: its letters
+    // get mixed into the text that readers copy or search).
     header: (currentPage) =>
       currentPage === 1
         ? null

@@ -14,7 +14,7 @@ export function zoneTable(input: BriefingInput): Content[] {
     td(formatCount(z.deliveredVehicles), { right: true }),
     td(z.demandVehicles > 0 ? formatPercent(z.deliveredVehicles / z.demandVehicles) : '—', { right: true }),
     td(formatCount(z.steadyStateVehiclesPerHour), { right: true }),
-    td(z.clearanceMinutes === null ? `not within ${formatSpan(h.horizonMinutes)}` : formatDuration(z.clearanceMinutes), {
+    td(z.clearanceMinutes === null ? 'not cleared' : formatDuration(z.clearanceMinutes), {
       right: true,
       color: z.clearanceMinutes === null ? COLOURS.warn : COLOURS.ink,
     }),
@@ -26,7 +26,7 @@ export function zoneTable(input: BriefingInput): Content[] {
     td(formatCount(h.deliveredVehicles), { right: true, bold: true }),
     td(h.demandVehicles > 0 ? formatPercent(h.deliveredVehicles / h.demandVehicles) : '—', { right: true, bold: true }),
     td(formatCount(h.steadyStateVehiclesPerHour), { right: true, bold: true }),
-    td(h.clearanceMinutes === null ? `not within ${formatSpan(h.horizonMinutes)}` : formatDuration(h.clearanceMinutes), { right: true, bold: true }),
+    td(h.clearanceMinutes === null ? 'not cleared' : formatDuration(h.clearanceMinutes), { right: true, bold: true }),
   ]);
   return [
     { text: 'Evacuation zones', style: 'h1', margin: [0, 20, 0, 6] },
@@ -35,7 +35,11 @@ export function zoneTable(input: BriefingInput): Content[] {
       [th('Zone'), th('Persons\nleaving', 'right'), th('Vehicles\nleaving', 'right'), th('At a shelter\n(vehicles)', 'right'), th('Share', 'right'), th('Steady rate\nveh/h', 'right'), th('Zone\nclear', 'right')],
       rows,
     ),
-    { text: '“At a shelter” counts vehicles from the zone that arrive within the horizon. “Zone clear” is when its last vehicle arrives.', style: 'note', margin: [0, 4, 0, 0] },
+    {
+      text: `“At a shelter” counts vehicles from the zone that arrive within the horizon of ${formatSpan(h.horizonMinutes)}. “Zone clear” is when its last vehicle arrives; “not cleared” means some are still on the way when the horizon ends.`,
+      style: 'note',
+      margin: [0, 4, 0, 0],
+    },
   ];
 }
 
