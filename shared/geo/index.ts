@@ -16,3 +16,4 @@ export {
   DEFAULT_ZONE_MAX_DISTANCE_METERS,
   type AttachOptions,
 } from './attach-zones-and-shelters';
+export { reportFindingsToGeoJson, segmentsToGeoJson, type FindingKind } from './network-to-geojson';

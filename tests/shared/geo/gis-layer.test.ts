@@ -114,3 +114,17 @@ describe('junctions drawn as loose ends', () => {
     expect(grid.report.danglingEnds).toEqual([]);
   });
 });
+
+describe('map output', () => {
+  it('draws every segment and every finding of the report', async () => {
+    const { reportFindingsToGeoJson, segmentsToGeoJson } = await import('../../../shared/geo');
+    const lines = segmentsToGeoJson(network.segments);
+    expect(lines.features).toHaveLength(network.segments.length);
+    expect(lines.features[0]!.properties).toMatchObject({ segment: 0, roadClass: 'residential', sourceId: 'H0' });
+    const findings = reportFindingsToGeoJson(network.report, network);
+    const count = (kind: string) => findings.features.filter((f) => f.properties!['finding'] === kind).length;
+    expect(count('danglingEnd')).toBe(network.report.danglingEnds.length);
+    expect(count('snappedEnd')).toBe(3);
+    expect(count('smallComponent')).toBe(2); // the skyway and Lonely Lane
+  });
+});
