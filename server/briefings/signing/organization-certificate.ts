@@ -34,18 +34,29 @@ export function certificateFingerprint(cert: forge.pki.Certificate): string {
   return createHash('sha256').update(Buffer.from(der, 'binary')).digest('hex');
 }
 
-function attributeText(a: forge.pki.CertificateField): string {
-  const raw = String(a.value);
-  if ((a.valueTagClass as unknown as forge.asn1.Type) !== forge.asn1.Type.UTF8) return raw;
-  try {
-    return forge.util.decodeUtf8(raw);
-  } catch {
-    return raw;
-  }
+// (@types/node-forge types valueTagClass as a tag class; forge reads it as the tag type.)
+const UTF8 = forge.asn1.Type.UTF8 as unknown as forge.asn1.Class;
+
+/**
+ * Names in our certificates are kept to ASCII: node-forge re-encodes a parsed UTF-8 name when it
+ * writes the signer's issuer into the CMS, so a name with "é" or "Ł" no longer matches its own
+ * certificate and pdfsig rejects the signature. The full name still prints on every page.
+ */
+export function certificateName(name: string): string {
+  const special: Record<string, string> = { Ł: 'L', ł: 'l', Ø: 'O', ø: 'o', Đ: 'D', đ: 'd', ß: 'ss', Æ: 'AE', æ: 'ae', Œ: 'OE', œ: 'oe', Þ: 'Th', þ: 'th', '—': '-', '–': '-' };
+  return name
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .replace(/[^\x20-\x7e]/g, (c) => special[c] ?? '?')
+    .trim();
+}
+
+function isAscii(value: unknown): boolean {
+  return typeof value === 'string' && /^[\x20-\x7e]*$/.test(value);
 }
 
 export function subjectString(cert: forge.pki.Certificate): string {
-  return cert.subject.attributes.map((a) => `${a.shortName ?? a.name}=${attributeText(a)}`).join(', ');
+  return cert.subject.attributes.map((a) => `${a.shortName ?? a.name}=${String(a.value)}`).join(', ');
 }
 
 function describe(source: CertificateSource, p12: Buffer, passphrase: string, cert: forge.pki.Certificate): OrganizationCertificate {
@@ -82,13 +93,9 @@ export function generateOrganizationCertificate({ organizationName, passphrase, 
   // Back-dated a few minutes so a verifier with a slightly slow clock accepts a fresh signature.
   cert.validity.notBefore = new Date(now.getTime() - 5 * 60_000);
   cert.validity.notAfter = new Date(now.getTime() + validDays * DAY_MS);
-  // forge strings are byte strings: UTF-8-encode names, or letters beyond Latin-1 are cut to
-  // one byte and the P12's MAC no longer verifies.
-  // (@types/node-forge types valueTagClass as a tag class; forge reads it as the tag type.)
-  const utf8 = (value: string) => ({ value: forge.util.encodeUtf8(value), valueTagClass: forge.asn1.Type.UTF8 as unknown as forge.asn1.Class });
   const name = [
-    { name: 'commonName', ...utf8(`${organizationName} - briefing signing`) },
-    { name: 'organizationName', ...utf8(organizationName) },
+    { name: 'commonName', value: `${certificateName(organizationName)} - briefing signing`, valueTagClass: UTF8 },
+    { name: 'organizationName', value: certificateName(organizationName), valueTagClass: UTF8 },
   ];
   cert.setSubject(name);
   cert.setIssuer(name);
@@ -125,6 +132,10 @@ export function loadOrganizationCertificate(p12: Buffer, passphrase: string, sou
       return !!pub && pub.n.compareTo(key.n) === 0 && pub.e.compareTo(key.e) === 0;
     });
   if (!cert) throw new CertificateError('no certificate in the file matches its private key');
+  // See certificateName: such an issuer name would make every signature invalid, so say so now.
+  if (!cert.issuer.attributes.every((a) => isAscii(a.value))) {
+    throw new CertificateError('the certificate issuer name has non-ASCII letters, which the signing library cannot write correctly; use a certificate whose issuer name is ASCII');
+  }
   return describe(source, p12, passphrase, cert);
 }
 
