@@ -7,12 +7,13 @@ import { readFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import { parseArgs } from 'node:util';
 import { propertyMappingSchema, type ImportOptionsInput } from '../../shared/api/network';
-import { buildSteadyStateNetwork, dimacsMaxFlowChunks, networkToDimacs } from '../../shared/flow';
+import { dimacsMaxFlowChunks } from '../../shared/flow';
 import { indexNodes } from '../../shared/geo/node-index';
 import { RoadImportError } from '../../shared/geo/road-import-error';
-import { buildEvacuationProblem, defaultCapacityTable } from '../../shared/model';
+import { defaultCapacityTable } from '../../shared/model';
 import { importRoadLayerFile } from '../import/import-road-layer';
 import { importShelters, importZones } from '../import/import-zones-and-shelters';
+import { staticNetworkDimacs } from './static-network-dimacs';
 import { summariseNetwork } from './summarise-network';
 
 const USAGE = `usage: npm run --silent network -- FILE [--snap-meters M] [--split-crossings | --no-split-crossings]
@@ -60,24 +61,7 @@ async function main(): Promise<number> {
     const index = indexNodes(network);
     const z = importZones(await readFile(values.zones), index, {}, values.zones);
     const s = importShelters(await readFile(values.shelters), index, {}, values.shelters);
-    const built = buildEvacuationProblem(
-      { nodeCount: network.nodes.length, segments: network.segments },
-      table,
-      [],
-      z.zones.map((zone, i) => ({ id: zone.id ?? `zone-${zone.index}`, attributes: zone.attributes, entryNodes: z.attachments[i]!.entryNodes })),
-      s.shelters.map((sh, i) => ({ id: sh.id ?? `shelter-${sh.index}`, attributes: sh.attributes, node: s.attachments[i]!.node })),
-      { timeStepSeconds: 60, horizonSteps: 0 },
-    );
-    const steady = buildSteadyStateNetwork(built.problem);
-    const dimacs = networkToDimacs(steady.network, steady.source, steady.sink);
-    const N = network.nodes.length;
-    const comments = [
-      `Cutline static s-t network of ${file}: capacities in vehicles per hour, default capacity table, factor ${table.capacityFactor}`,
-      `nodes 1..${N}: road nodes (node id + 1); ${N + 1}: super source; ${N + 2}: super sink`,
-      `nodes ${N + 3}..${N + 2 + built.problem.zones.length}: zones (${built.problem.zones.map((zone) => zone.id).join(', ')})`,
-      `then one collector per shelter (${built.problem.shelters.map((sh) => sh.id).join(', ')})`,
-      `the first ${built.problem.roads.length} arc lines are roads (one per segment direction, in segment order); capacity 2147483647 = no limit`,
-    ];
+    const { dimacs, comments, built } = staticNetworkDimacs(network, table, z, s, file);
     const out = createWriteStream(values.dimacs);
     for (const chunk of dimacsMaxFlowChunks(dimacs, comments)) if (!out.write(chunk)) await once(out, 'drain');
     out.end();
