@@ -2,6 +2,7 @@
 // responses parsed with the shared zod schemas, failures turned into ApiError.
 import type { z } from 'zod';
 import { errorEnvelopeSchema, type ErrorCode, type FieldError } from '@shared/api/errors';
+import type { ImportFailure } from '@shared/api/network';
 
 export class ApiError extends Error {
   constructor(
@@ -9,6 +10,8 @@ export class ApiError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields: FieldError[] = [],
+    // A refused upload names every bad feature, so the planner can fix the file.
+    readonly importFailure: ImportFailure | null = null,
   ) {
     super(message);
   }
@@ -21,17 +24,31 @@ export function setCsrfToken(token: string) {
 
 type Method = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
 
-async function toApiError(response: Response): Promise<ApiError> {
-  const body: unknown = await response.json().catch(() => null);
+/** The error envelope of a failed answer (already read as JSON, or null) as an ApiError. */
+export function apiErrorFrom(status: number, statusText: string, body: unknown): ApiError {
   const parsed = errorEnvelopeSchema.safeParse(body);
   if (parsed.success) {
-    const { code, message, fields } = parsed.data.error;
-    return new ApiError(response.status, code, message, fields);
+    const { code, message, fields, importFailure } = parsed.data.error;
+    return new ApiError(status, code, message, fields, importFailure ?? null);
   }
-  return new ApiError(response.status, 'internal', `The server answered ${response.status} ${response.statusText}.`);
+  return new ApiError(status, 'internal', `The server answered ${status} ${statusText}.`);
 }
 
-export async function request<S extends z.ZodType>(method: Method, path: string, schema: S, body?: unknown): Promise<z.infer<S>> {
+/** The CSRF header value for changes sent outside request() (uploads through XMLHttpRequest). */
+export const currentCsrfToken = () => csrfToken;
+
+async function toApiError(response: Response): Promise<ApiError> {
+  const body: unknown = await response.json().catch(() => null);
+  return apiErrorFrom(response.status, response.statusText, body);
+}
+
+export async function request<S extends z.ZodType>(
+  method: Method,
+  path: string,
+  schema: S,
+  body?: unknown,
+  options: { signal?: AbortSignal } = {},
+): Promise<z.infer<S>> {
   const headers: Record<string, string> = { accept: 'application/json' };
   if (body !== undefined) headers['content-type'] = 'application/json';
   if (method !== 'GET') headers['x-csrf-token'] = csrfToken;
@@ -42,8 +59,11 @@ export async function request<S extends z.ZodType>(method: Method, path: string,
       headers,
       credentials: 'same-origin',
       body: body === undefined ? undefined : JSON.stringify(body),
+      signal: options.signal,
     });
-  } catch {
+  } catch (e) {
+    // A caller that aborted (a stale map request) wants the abort, not a connection error.
+    if (options.signal?.aborted) throw e;
     throw new ApiError(0, 'internal', 'The server cannot be reached. Check your connection.');
   }
   if (!response.ok) throw await toApiError(response);

@@ -1,0 +1,52 @@
+// The plan's road layer: summary and import report, segments for the map and the table, edits.
+import { z } from 'zod';
+import type { ImportOptionsInput, SegmentAttributesPatch } from '@shared/api/network';
+import {
+  roadLayerResponseSchema,
+  segmentMapSchema,
+  segmentPageSchema,
+  segmentSchema,
+  type SegmentPageQuery,
+} from '@shared/api/road-layers';
+import { request } from './http';
+import { uploadFile, type UploadProgress } from './upload';
+
+const base = (planId: string) => `/plans/${planId}`;
+
+export const getRoadLayer = async (planId: string) => (await request('GET', `${base(planId)}/road-layer`, roadLayerResponseSchema)).layer;
+
+export function uploadRoadLayer(
+  planId: string,
+  file: File,
+  options: { name?: string; importOptions?: ImportOptionsInput; onProgress?: (p: UploadProgress) => void; signal?: AbortSignal } = {},
+) {
+  const fields: Record<string, string> = {};
+  if (options.name) fields.name = options.name;
+  if (options.importOptions) fields.options = JSON.stringify(options.importOptions);
+  return uploadFile(`${base(planId)}/road-layer`, file, roadLayerResponseSchema, { fields, onProgress: options.onProgress, signal: options.signal });
+}
+
+/** west,south,east,north in degrees. */
+export type Bbox = [number, number, number, number];
+
+export const getSegmentMap = (planId: string, bbox: Bbox, zoom: number, signal?: AbortSignal) =>
+  request('GET', `${base(planId)}/segments/map?bbox=${bbox.join(',')}&zoom=${zoom}`, segmentMapSchema, undefined, { signal });
+
+export function segmentPageSearch(query: SegmentPageQuery): string {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query)) {
+    if (value !== undefined && value !== null && value !== '') params.set(key, String(value));
+  }
+  return params.toString();
+}
+
+export const listSegments = (planId: string, query: SegmentPageQuery, signal?: AbortSignal) =>
+  request('GET', `${base(planId)}/segments?${segmentPageSearch(query)}`, segmentPageSchema, undefined, { signal });
+
+export const getSegment = (planId: string, segmentId: number) => request('GET', `${base(planId)}/segments/${segmentId}`, segmentSchema);
+
+export const updateSegment = (planId: string, segmentId: number, patch: SegmentAttributesPatch) =>
+  request('PATCH', `${base(planId)}/segments/${segmentId}`, segmentSchema, patch);
+
+export const updateSegments = (planId: string, ids: number[], patch: SegmentAttributesPatch) =>
+  request('PATCH', `${base(planId)}/segments`, z.object({ updated: z.number().int() }), { ids, patch });
