@@ -10,6 +10,8 @@ declare module 'vue-router' {
     public?: boolean;
     permission?: Permission;
     title?: string;
+    /** The page uses the whole window (the workspace map): the navigation drawer shrinks to icons. */
+    fullBleed?: boolean;
   }
 }
 
@@ -22,9 +24,15 @@ export const router = createRouter({
     {
       path: '/plans/:planId',
       name: 'plan',
-      component: () => import('@/views/PlanOverviewView.vue'),
+      component: () => import('@/views/PlanWorkspaceView.vue'),
       props: true,
-      meta: { title: 'Plan' },
+      meta: { title: 'Plan', fullBleed: true },
+    },
+    {
+      path: '/admin/map',
+      name: 'map-settings',
+      component: () => import('@/views/MapSettingsView.vue'),
+      meta: { permission: 'users:manage', title: 'Map settings' },
     },
     {
       path: '/admin/members',
