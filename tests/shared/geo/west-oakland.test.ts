@@ -1,6 +1,6 @@
 // The real OpenStreetMap extract West-Oakland.osm.bz2 (© OpenStreetMap contributors, ODbL;
 // from Debian's python-osmnx-doc 1.2.3+ds-1, see tests/fixtures/osm/PROVENANCE.md).
-// The reference reading of the XML is independent of our reader: xmldom's DOM parser, the
+// The reference reading of the XML is independent of our reader: @xmldom/xmldom's DOM parser, the
 // one osmtogeojson itself uses for XML documents.
 //
 // Drivable (what Cutline keeps): highway = motorway, trunk, primary, secondary, tertiary (and
@@ -19,7 +19,7 @@ interface DomElement {
   getAttribute(name: string): string;
   getElementsByTagName(name: string): ArrayLike<DomElement>;
 }
-const { DOMParser } = createRequire(import.meta.url)('xmldom') as { DOMParser: new () => { parseFromString(s: string, type: string): DomElement } };
+const { DOMParser } = createRequire(import.meta.url)('@xmldom/xmldom') as { DOMParser: new () => { parseFromString(s: string, type: string): DomElement } };
 
 const DRIVABLE = new Set(['motorway', 'motorway_link', 'trunk', 'trunk_link', 'primary', 'primary_link', 'secondary', 'secondary_link', 'tertiary', 'tertiary_link', 'unclassified', 'residential', 'living_street', 'service']);
 const NO_CARS = new Set(['no', 'agricultural', 'forestry', 'bus', 'psv']);
