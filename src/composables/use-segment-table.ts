@@ -17,7 +17,8 @@ export function segmentQuery(options: SegmentTableOptions, filters: SegmentFilte
   const sort = options.sortBy[0];
   const query: SegmentPageQuery = {
     page: Math.max(1, options.page),
-    pageSize: Math.min(500, Math.max(1, options.itemsPerPage)),
+    // Vuetify says -1 for "all": the server sends at most 500 at a time.
+    pageSize: options.itemsPerPage <= 0 ? 500 : Math.min(500, options.itemsPerPage),
   };
   if (sort && isSortKey(sort.key)) {
     query.sortBy = sort.key;
