@@ -70,10 +70,11 @@ export function loadBySegment(arcs: readonly ArcFlow[]): Map<number, SegmentLoad
 
 export const bottleneckKey = (b: Pick<Bottleneck, 'segmentId' | 'direction'>) => `${b.segmentId}:${b.direction}`;
 
-/** Cumulative vehicles safe by each step, as chart points (x in hours after the order). */
+/** Cumulative vehicles safe by each step, as chart points (x in hours after the order; step i
+ *  is at i × stepMinutes, as in the server's curve.csv). */
 export function curvePoints(result: RunResult): { x: number; y: number }[] {
   const { stepMinutes, deliveredVehicles } = result.curve;
-  return deliveredVehicles.map((y, i) => ({ x: Math.round(((i + 1) * stepMinutes * 100) / 60) / 100, y }));
+  return deliveredVehicles.map((y, i) => ({ x: Math.round((i * stepMinutes * 1000) / 60) / 1000, y }));
 }
 
 function escapeHtml(text: string): string {
