@@ -1,0 +1,22 @@
+// The flow engine's public surface. Everything else in this folder is internal.
+export * from './capacity';
+export * from './errors';
+export * from './network';
+export * from './flow-state';
+export type { MaxFlowStats } from './solve-context';
+export * from './min-cut';
+export * from './max-flow';
+export * from './verify';
+export * from './evacuation-problem';
+export * from './release-schedule';
+export * from './road-timing';
+export * from './steady-state';
+export * from './time-expanded';
+export * from './dimacs';
+export * from './boykov-kolmogorov';
+export * from './incremental-bfs';
+export * from './evacuation-curve';
+export * from './expanded-usage';
+export * from './bottlenecks';
+export * from './fixes';
+export * from './solve-evacuation';

@@ -1,0 +1,334 @@
+// solveEvacuation: everything the product reports about one evacuation problem, as plain JSON.
+// Phases, in order: steady state (static maximum flow and its cut), time expansion, the
+// evacuation curve (incremental over horizons), plan read-out (road use, trips, bottlenecks),
+// fix ranking, and on request the independent verification of every flow returned.
+
+import { timeExpandedBottlenecks, type TimeExpandedBottlenecks } from './bottlenecks';
+import { computeEvacuationCurve, type CurveMarks } from './evacuation-curve';
+import { validateEvacuationProblem, type EvacuationProblem } from './evacuation-problem';
+import { decomposeTrips, roadUsage } from './expanded-usage';
+import { rankFixes, type RoadFix } from './fixes';
+import { arcFlows, createFlowState } from './flow-state';
+import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice } from './max-flow';
+import { minimumCut } from './min-cut';
+import { perStepCapacity } from './road-timing';
+import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateSummary } from './steady-state';
+import { expandOverTime, nodeLimitAtHorizon } from './time-expanded';
+import { verify } from './verify';
+
+export type EvacuationPhase = 'steady-state' | 'expand' | 'curve' | 'bottlenecks' | 'fixes' | 'verify';
+
+/** Options of solveEvacuation; all optional. */
+export interface SolveEvacuationOptions {
+  /** Max-flow algorithm; 'auto' (default) picks by size, and the curve then uses 'incremental-bfs'. */
+  algorithm?: MaxFlowAlgorithmChoice;
+  /** Instant (seconds from the start) whose closures the steady state reflects; default 0. */
+  steadyStateAtSeconds?: number;
+  /** Horizon whose time-expanded cut is reported; default: the step before clearance, else T. */
+  bottleneckStep?: number;
+  /** Most fix what-ifs to solve; default 200. */
+  maxFixEvaluations?: number;
+  /** Run verify() on every flow returned and report the findings; default false. */
+  verify?: boolean;
+  /** Called with a phase and its completed share (0..1), often enough for a progress bar. */
+  onProgress?: (phase: EvacuationPhase, fraction: number) => void;
+  /** A millisecond clock; when given, the result carries per-phase timings. */
+  now?: () => number;
+  /** Polled between steps; returning true throws FlowAbortedError. */
+  shouldAbort?: () => boolean;
+}
+
+export interface EvacuationWarning {
+  code:
+    | 'capacity-rounds-to-zero'
+    | 'road-longer-than-horizon'
+    | 'release-incomplete'
+    | 'release-rate-rounds-to-zero'
+    | 'steady-state-unbounded';
+  message: string;
+  road?: number;
+  zone?: string;
+}
+
+export interface ZoneOutcome {
+  id: string;
+  vehicles: number;
+  /** Vehicles that depart within the horizon according to the departure curve. */
+  releasedVehicles: number;
+  /** Vehicles of this zone delivered in the plan found for the final horizon. */
+  deliveredVehicles: number;
+  /** Last arrival step of this zone's vehicles in that plan (null if none arrive). */
+  lastArrivalStep: number | null;
+  steadyStateVehPerHour: number;
+}
+
+export interface ShelterOutcome {
+  id: string;
+  capacityVehicles: number | null;
+  arrivedVehicles: number;
+  lastArrivalStep: number | null;
+  steadyStateVehPerHour: number;
+}
+
+export interface EvacuationResult {
+  timeStepSeconds: number;
+  horizonSteps: number;
+  demandVehicles: number;
+  steadyState: SteadyStateSummary;
+  curve: {
+    /** Index t = 0..T: the most vehicles that can have arrived by the end of step t (exact). */
+    deliveredVehiclesByStep: number[];
+    /** First step with all demand delivered, null = not within the horizon. */
+    clearanceStep: number | null;
+    marks: CurveMarks;
+  };
+  /**
+   * The plan behind the last horizon solved (min(T, clearanceStep)): one maximum flow of the
+   * time-expanded network, of possibly many with the same total.
+   */
+  plan: {
+    horizonStep: number;
+    deliveredVehicles: number;
+    zones: ZoneOutcome[];
+    shelters: ShelterOutcome[];
+    /** Zone → shelter vehicle counts (indices into problem.zones and problem.shelters). */
+    assignments: { zone: number; shelter: number; vehicles: number }[];
+    /** Per road (index = road): vehicles over the horizon, the busiest step, and its load. */
+    roads: {
+      totalVehicles: number[];
+      peakVehiclesPerStep: number[];
+      /** −1 for an unused road. */
+      peakStep: number[];
+      /** Peak vehicles per step / per-step capacity. */
+      peakUtilisation: number[];
+      /** Per-step capacity ⌊veh/h · Δ / 3600⌋ and travel time in steps. */
+      stepCapacity: number[];
+      travelSteps: number[];
+    };
+  };
+  bottlenecks: TimeExpandedBottlenecks;
+  /** Ranked, largest gain first. */
+  fixes: RoadFix[];
+  /** True when some fix candidates were not evaluated (maxFixEvaluations). */
+  fixesTruncated: boolean;
+  warnings: EvacuationWarning[];
+  stats: {
+    algorithm: { steadyState: MaxFlowAlgorithm; curve: MaxFlowAlgorithm };
+    steadyStateNetwork: { nodes: number; arcs: number };
+    timeExpandedNetwork: { nodes: number; arcs: number };
+    augmentations: number;
+    /** Present when options.now was given. */
+    timingsMs?: Partial<Record<EvacuationPhase, number>>;
+  };
+  /** Present when options.verify was set: verify() on the steady-state and time-expanded flows. */
+  verification?: { ok: boolean; problems: string[] };
+}
+
+const DEFAULT_MAX_FIX_EVALUATIONS = 200;
+
+/**
+ * Solves an evacuation problem. Pure and synchronous (meant for a worker thread); the result is
+ * plain JSON. Road, zone and shelter indices in the result are those of `problem`.
+ *
+ * @throws EvacuationInputError for an invalid problem; FlowAbortedError on shouldAbort.
+ * @example
+ *   // One road, 2 vehicles per step, 3 steps long, 13 vehicles (DOMAIN.md §6): clearance at step 9.
+ *   solveEvacuation({ nodeCount: 2, timeStepSeconds: 60, horizonSteps: 12,
+ *     roads: [{ from: 0, to: 1, capacityVehPerHour: 120, travelTimeSeconds: 180 }],
+ *     zones: [{ id: 'z', entryNodes: [0], vehicles: 13 }],
+ *     shelters: [{ id: 's', node: 1, capacityVehicles: null }] }).curve.clearanceStep; // 9
+ */
+export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacuationOptions = {}): EvacuationResult {
+  validateEvacuationProblem(problem);
+  const progress = options.onProgress ?? (() => {});
+  const timings: Partial<Record<EvacuationPhase, number>> = {};
+  let clock = options.now?.();
+  const lap = (phase: EvacuationPhase): void => {
+    if (!options.now || clock === undefined) return;
+    const t = options.now();
+    timings[phase] = (timings[phase] ?? 0) + t - clock;
+    clock = t;
+  };
+  const T = problem.horizonSteps;
+  const demand = problem.zones.reduce((sum, zone) => sum + zone.vehicles, 0);
+  const warnings = collectWarnings(problem);
+  const problems: string[] = [];
+
+  // Steady state.
+  progress('steady-state', 0);
+  const steady = buildSteadyStateNetwork(problem, options.steadyStateAtSeconds ?? 0);
+  const choice = options.algorithm ?? 'auto';
+  const steadyAlgorithm = choice === 'auto' ? chooseAlgorithm(steady.network) : choice;
+  const { summary, result: steadyResult } = solveSteadyState(problem, steady, {
+    algorithm: steadyAlgorithm,
+    shouldAbort: options.shouldAbort,
+  });
+  if (summary.unbounded) {
+    warnings.push({
+      code: 'steady-state-unbounded',
+      message: 'a zone reaches a shelter through roads without a capacity limit; the steady state has no finite bottleneck',
+    });
+  }
+  if (options.verify) collect(problems, 'steady state', verify(steady.network, steadyResult).problems);
+  lap('steady-state');
+  progress('steady-state', 1);
+
+  // Time expansion and the curve.
+  progress('expand', 0);
+  const expanded = expandOverTime(problem);
+  lap('expand');
+  progress('expand', 1);
+  const curveAlgorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
+  const state = createFlowState(expanded.network);
+  const curve = computeEvacuationCurve(expanded, demand, state, {
+    algorithm: curveAlgorithm,
+    cutHorizon: options.bottleneckStep === undefined ? undefined : Math.max(0, Math.min(T, options.bottleneckStep)),
+    onHorizon: (t) => progress('curve', T === 0 ? 1 : t / T),
+    shouldAbort: options.shouldAbort,
+  });
+  lap('curve');
+  progress('curve', 1);
+
+  // Read-out of the final plan and the cut.
+  progress('bottlenecks', 0);
+  const R = problem.roads.length;
+  const usage = roadUsage(expanded, state, R);
+  const trips = decomposeTrips(expanded, state, problem.zones.length, problem.shelters.length);
+  const bottlenecks = timeExpandedBottlenecks(expanded, curve.cutResidual, curve.cutHorizon);
+  lap('bottlenecks');
+  progress('bottlenecks', 1);
+
+  // Fixes.
+  progress('fixes', 0);
+  const fixAlgorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
+  const { fixes, truncated } = summary.unbounded
+    ? { fixes: [], truncated: false }
+    : rankFixes(problem, steady, steadyResult, {
+        algorithm: fixAlgorithm,
+        maxEvaluations: options.maxFixEvaluations ?? DEFAULT_MAX_FIX_EVALUATIONS,
+        onEvaluated: (done, total) => progress('fixes', done / total),
+        shouldAbort: options.shouldAbort,
+      });
+  lap('fixes');
+  progress('fixes', 1);
+
+  const finalDelivered = curve.deliveredByStep[curve.finalHorizon]!;
+  if (options.verify) {
+    progress('verify', 0);
+    const { network, source, sink } = expanded;
+    const finalLimit = nodeLimitAtHorizon(expanded, curve.finalHorizon);
+    collect(problems, 'time-expanded flow', verify(network, {
+      source,
+      sink,
+      nodeLimit: finalLimit,
+      value: finalDelivered,
+      flow: arcFlows(network, state),
+      minCut: minimumCut(network, state.residual, source, finalLimit),
+    }).problems);
+    const cutLimit = nodeLimitAtHorizon(expanded, curve.cutHorizon);
+    collect(problems, `time-expanded flow at step ${curve.cutHorizon}`, verify(network, {
+      source,
+      sink,
+      nodeLimit: cutLimit,
+      value: curve.deliveredByStep[curve.cutHorizon]!,
+      flow: arcFlows(network, { residual: curve.cutResidual }),
+      minCut: minimumCut(network, curve.cutResidual, source, cutLimit),
+    }).problems);
+    if (trips.zoneDelivered.reduce((a, b) => a + b, 0) !== finalDelivered) problems.push('trips do not add up to the delivered total');
+    lap('verify');
+    progress('verify', 1);
+  }
+
+  const released = expanded.releases.map((counts) => counts.reduce((a, b) => a + b, 0));
+  const orNull = (step: number): number | null => (step < 0 ? null : step);
+  const result: EvacuationResult = {
+    timeStepSeconds: problem.timeStepSeconds,
+    horizonSteps: T,
+    demandVehicles: demand,
+    steadyState: summary,
+    curve: { deliveredVehiclesByStep: curve.deliveredByStep, clearanceStep: curve.clearanceStep, marks: curve.marks },
+    plan: {
+      horizonStep: curve.finalHorizon,
+      deliveredVehicles: finalDelivered,
+      zones: problem.zones.map((zone, z) => ({
+        id: zone.id,
+        vehicles: zone.vehicles,
+        releasedVehicles: released[z]!,
+        deliveredVehicles: trips.zoneDelivered[z]!,
+        lastArrivalStep: orNull(trips.zoneLastArrivalStep[z]!),
+        steadyStateVehPerHour: summary.zones[z]!.vehPerHour,
+      })),
+      shelters: problem.shelters.map((shelter, s) => ({
+        id: shelter.id,
+        capacityVehicles: shelter.capacityVehicles,
+        arrivedVehicles: trips.shelterArrived[s]!,
+        lastArrivalStep: orNull(trips.shelterLastArrivalStep[s]!),
+        steadyStateVehPerHour: summary.shelters[s]!.vehPerHour,
+      })),
+      assignments: trips.assignments,
+      roads: {
+        ...usage,
+        stepCapacity: Array.from(expanded.roadStepCapacity),
+        travelSteps: Array.from(expanded.roadTravelSteps),
+      },
+    },
+    bottlenecks,
+    fixes,
+    fixesTruncated: truncated,
+    warnings,
+    stats: {
+      algorithm: { steadyState: steadyResult.algorithm, curve: curveAlgorithm },
+      steadyStateNetwork: { nodes: steady.network.nodeCount, arcs: steady.network.arcCount },
+      timeExpandedNetwork: { nodes: expanded.network.nodeCount, arcs: expanded.network.arcCount },
+      augmentations: steadyResult.stats.augmentations + curve.stats.augmentations,
+      ...(options.now ? { timingsMs: timings } : {}),
+    },
+  };
+  if (options.verify) result.verification = { ok: problems.length === 0, problems };
+  return result;
+}
+
+function collect(into: string[], what: string, problems: readonly string[]): void {
+  for (const p of problems) into.push(`${what}: ${p}`);
+}
+
+function collectWarnings(problem: EvacuationProblem): EvacuationWarning[] {
+  const warnings: EvacuationWarning[] = [];
+  const dt = problem.timeStepSeconds;
+  problem.roads.forEach((road, e) => {
+    if (road.capacityVehPerHour > 0 && perStepCapacity(road.capacityVehPerHour, dt) === 0) {
+      warnings.push({
+        code: 'capacity-rounds-to-zero',
+        road: e,
+        message: `road ${e}: ${road.capacityVehPerHour} veh/h is less than one vehicle per ${dt} s step; it carries nothing over time`,
+      });
+    }
+    if (road.travelTimeSeconds > problem.horizonSteps * dt) {
+      warnings.push({ code: 'road-longer-than-horizon', road: e, message: `road ${e}: its travel time exceeds the horizon` });
+    }
+  });
+  problem.zones.forEach((zone) => {
+    const schedule = zone.releaseVehiclesByStep;
+    const shares = zone.releaseFractionByStep;
+    const released = schedule
+      ? schedule.slice(0, problem.horizonSteps + 1).reduce((a, b) => a + b, 0)
+      : shares && shares.length > 0
+        ? Math.round(zone.vehicles * Math.min(1, shares[Math.min(problem.horizonSteps, shares.length - 1)]!))
+        : zone.vehicles;
+    if (released < zone.vehicles) {
+      warnings.push({
+        code: 'release-incomplete',
+        zone: zone.id,
+        message: `zone ${zone.id}: only ${released} of ${zone.vehicles} vehicles depart within the horizon`,
+      });
+    }
+    if (zone.releaseVehPerHour !== undefined && zone.vehicles > 0 && perStepCapacity(zone.releaseVehPerHour, dt) === 0) {
+      warnings.push({
+        code: 'release-rate-rounds-to-zero',
+        zone: zone.id,
+        message: `zone ${zone.id}: a release rate of ${zone.releaseVehPerHour} veh/h is less than one vehicle per step`,
+      });
+    }
+  });
+  return warnings;
+}
