@@ -26,6 +26,8 @@ export type WorkspaceMap = {
 export function useLeafletMap() {
   const handle = shallowRef<WorkspaceMap | null>(null);
   const zoom = ref(0);
+  // The last extent fitted and the view it gave: a resize refits it unless the planner moved on.
+  let lastFit: { bbox: Bbox; maxZoom: number; view: { zoom: number; lat: number; lng: number } | null } | null = null;
 
   function attach(map: L.Map) {
     markRaw(map);
@@ -44,12 +46,26 @@ export function useLeafletMap() {
     map.on('zoomend', () => {
       zoom.value = map.getZoom();
     });
+    map.on('moveend', () => {
+      if (lastFit && lastFit.view === null) {
+        const c = map.getCenter();
+        lastFit.view = { zoom: map.getZoom(), lat: c.lat, lng: c.lng };
+      }
+    });
+    map.on('resize', () => {
+      const fit = lastFit;
+      if (!fit?.view) return;
+      const c = map.getCenter();
+      const unmoved = map.getZoom() === fit.view.zoom && Math.abs(c.lat - fit.view.lat) < 1e-6 && Math.abs(c.lng - fit.view.lng) < 1e-6;
+      if (unmoved) fitBbox(fit.bbox, fit.maxZoom);
+    });
   }
 
   function fitBbox(bbox: Bbox, maxZoom = 17) {
     const map = handle.value?.map;
     if (!map) return;
     const [w, s, e, n] = bbox;
+    lastFit = { bbox, maxZoom, view: null };
     map.fitBounds(
       [
         [s, w],

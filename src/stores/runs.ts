@@ -57,8 +57,9 @@ export const useRunsStore = defineStore('runs', () => {
       current.value = next;
       if (runIsActive(next.status)) schedulePoll();
       else {
+        // A failed run says why in its own failureReason; the findings show it once.
         runs.value = runs.value.map((r) => (r.id === next.id ? stripResult(next) : r));
-        if (next.status === 'failed') error.value = next.failureReason ?? 'The analysis failed.';
+        error.value = '';
       }
     } catch (e) {
       if (controller.signal.aborted) return;

@@ -90,7 +90,8 @@ describe('runs store', () => {
     expect(store.error).toContain('cannot be reached');
     await vi.advanceTimersByTimeAsync(pollIntervalMs);
     expect(store.current?.status).toBe('failed');
-    expect(store.error).toBe('No zone reaches a shelter.');
+    expect(store.current?.failureReason).toBe('No zone reaches a shelter.');
+    expect(store.error).toBe('');
   });
 
   it('opens a plan on its latest finished run and resumes polling an active one', async () => {
