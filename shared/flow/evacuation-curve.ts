@@ -116,7 +116,7 @@ export function computeEvacuationCurve(
   if (explicitCut !== undefined && snapshotHorizon === explicitCut) {
     cutHorizon = explicitCut;
     cutResidual = snapshot;
-  } else if (explicitCut === undefined && clearanceStep !== null && snapshotHorizon === clearanceStep - 1) {
+  } else if (explicitCut === undefined && clearanceStep !== null && clearanceStep > 0 && snapshotHorizon === clearanceStep - 1) {
     cutHorizon = snapshotHorizon;
     cutResidual = snapshot;
   } else {
