@@ -23,8 +23,12 @@ const ORPHAN = -3;
 const INFINITE_DISTANCE = 0x3fffffff;
 
 export interface BoykovKolmogorovSolver {
-  /** Augments until no augmenting path remains among nodes below the current node limit. */
-  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): void;
+  /**
+   * Augments until no augmenting path remains among nodes below the current node limit and
+   * returns the flow added (robust even where raiseCapacity() made a residual exceed the
+   * network's recorded capacity).
+   */
+  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): number;
   /** Lets nodes up to newLimit − 1 take part; their arcs to older nodes wake those nodes. */
   extendNodeLimit(newLimit: number): void;
   /** Adds `amount` to the residual capacity of residual arc r (an arc whose capacity grew). */
@@ -100,7 +104,7 @@ export function createBoykovKolmogorov(
    * Pushes the bottleneck along source ⇝ p → q ⇝ sink, where `bridge` is the residual arc
    * p → q with p in the source tree and q in the sink tree. Saturated tree arcs orphan their child.
    */
-  const augment = (bridge: number, stats: MaxFlowStats): void => {
+  const augment = (bridge: number, stats: MaxFlowStats): number => {
     let bottleneck = residual[bridge]!;
     for (let v = head[mate[bridge]!]!; v !== source; ) {
       const a = parent[v]!;
@@ -131,6 +135,7 @@ export function createBoykovKolmogorov(
       v = down;
     }
     stats.augmentations++;
+    return bottleneck;
   };
 
   /** Length of the tree path from j to its root, or INFINITE_DISTANCE if it ends in an orphan. */
@@ -206,9 +211,10 @@ export function createBoykovKolmogorov(
     }
   };
 
-  const maximise = (stats: MaxFlowStats, shouldAbort?: () => boolean): void => {
+  const maximise = (stats: MaxFlowStats, shouldAbort?: () => boolean): number => {
     stats.phases++;
     let sinceCheck = 0;
+    let added = 0;
     while (activeCount > 0) {
       const p = active[activeHead]!;
       activeHead = activeHead + 1 === n ? 0 : activeHead + 1;
@@ -265,7 +271,7 @@ export function createBoykovKolmogorov(
         }
         // The trees touch: augment, repair the trees, and look at this arc again if p survived.
         time++;
-        augment(bridge, stats);
+        added += augment(bridge, stats);
         adoptOrphans();
         if (++sinceCheck >= 256) {
           sinceCheck = 0;
@@ -275,6 +281,7 @@ export function createBoykovKolmogorov(
         r--;
       }
     }
+    return added;
   };
 
   return {

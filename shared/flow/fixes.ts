@@ -69,8 +69,8 @@ export function rankFixes(
     chosen.forEach((candidate, k) => {
       if (options.shouldAbort?.()) throw new FlowAbortedError('fix ranking aborted by the caller');
       solver.raiseCapacity(network.residualOfArc[candidate.road]!, candidate.addedVehPerHour);
-      solver.maximise(emptyStats(), options.shouldAbort);
-      fixes.push({ ...candidate, gainVehPerHour: netOutflow(network, work, source) - base });
+      const gain = solver.maximise(emptyStats(), options.shouldAbort);
+      fixes.push({ ...candidate, gainVehPerHour: gain });
       solver.restore(saved);
       options.onEvaluated?.(k + 1, chosen.length);
     });
@@ -79,6 +79,7 @@ export function rankFixes(
       const work = copyFlowState(result.state);
       work.residual[network.residualOfArc[candidate.road]!]! += candidate.addedVehPerHour;
       maximiseInPlace(network, source, sink, work, { algorithm: options.algorithm, shouldAbort: options.shouldAbort });
+      // Road arcs never touch the super source, so its net outflow still reads correctly.
       fixes.push({ ...candidate, gainVehPerHour: netOutflow(network, work, source) - base });
       options.onEvaluated?.(k + 1, chosen.length);
     });

@@ -27,8 +27,12 @@ const ROOT = -2;
 const ORPHAN = -3;
 
 export interface IncrementalSolver {
-  /** Augments until no augmenting path remains among nodes below the current node limit. */
-  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): void;
+  /**
+   * Augments until no augmenting path remains among nodes below the current node limit and
+   * returns the flow added (robust even where raiseCapacity() made a residual exceed the
+   * network's recorded capacity).
+   */
+  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): number;
   /** Lets nodes up to newLimit − 1 take part; their arcs to older nodes wake those nodes. */
   extendNodeLimit(newLimit: number): void;
   /** Adds `amount` to the residual capacity of residual arc r (an arc whose capacity grew). */
@@ -261,9 +265,10 @@ export function createIncrementalBfs(
     return v;
   };
 
-  const maximise = (stats: MaxFlowStats, shouldAbort?: () => boolean): void => {
+  const maximise = (stats: MaxFlowStats, shouldAbort?: () => boolean): number => {
     stats.phases++;
     let sinceCheck = 0;
+    let added = 0;
     while (activeCountS + activeCountT > 0) {
       const growSource = activeCountT === 0 || (activeCountS > 0 && lowestActiveS <= lowestActiveT);
       const p = popActive(growSource);
@@ -303,7 +308,7 @@ export function createIncrementalBfs(
           }
           bridge = back;
         }
-        augment(bridge, stats);
+        added += augment(bridge, stats);
         if (++sinceCheck >= 256) {
           sinceCheck = 0;
           if (shouldAbort?.()) throw new FlowAbortedError('incremental BFS aborted by the caller');
@@ -316,6 +321,7 @@ export function createIncrementalBfs(
         r--; // the same arc may carry more
       }
     }
+    return added;
   };
 
   return {
