@@ -110,8 +110,8 @@ export function maxFlow(
   const stats = emptyStats();
   const started = options.now?.();
   run({ network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort });
-  const minCut = minimumCut(network, state.residual, source, nodeLimit);
   if (started !== undefined && options.now) stats.elapsedMs = options.now() - started;
+  const minCut = minimumCut(network, state.residual, source, nodeLimit);
 
   let unbounded = false;
   for (const arc of minCut.cutArcs) {

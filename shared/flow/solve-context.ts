@@ -14,7 +14,7 @@ export interface MaxFlowStats {
   relabels: number;
   /** Global relabellings, i.e. exact distance labels by breadth-first search (push-relabel). */
   globalRelabels: number;
-  /** Wall time of the run, present only when the caller passed `now`. */
+  /** Wall time of the algorithm itself (not reading off the cut), present only when the caller passed `now`. */
   elapsedMs?: number;
 }
 
