@@ -11,12 +11,13 @@ export const roleLabels: Record<Role, string> = {
   viewer: 'Viewer',
 };
 
-export type Permission = 'plans:read' | 'plans:write' | 'users:manage' | 'briefings:sign';
+// 'briefings:read-drafts': see and download briefings before they are signed (viewers see signed ones only).
+export type Permission = 'plans:read' | 'plans:write' | 'users:manage' | 'briefings:sign' | 'briefings:read-drafts';
 
 const permissions: Record<Role, readonly Permission[]> = {
-  admin: ['plans:read', 'plans:write', 'users:manage'],
-  planner: ['plans:read', 'plans:write'],
-  official: ['plans:read', 'briefings:sign'],
+  admin: ['plans:read', 'plans:write', 'users:manage', 'briefings:read-drafts'],
+  planner: ['plans:read', 'plans:write', 'briefings:read-drafts'],
+  official: ['plans:read', 'briefings:sign', 'briefings:read-drafts'],
   viewer: ['plans:read'],
 };
 
