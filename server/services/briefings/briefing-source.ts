@@ -1,0 +1,133 @@
+// Gathers what a new briefing prints from the database: the run and its result, the plan and
+// organisation, the run's road layer (geometry from PostGIS), zones, shelters and the capacity
+// table. The content is frozen into the briefing row at drafting; later steps re-render from
+// that stored content, never from the live plan, so the signed figures are the reviewed ones.
+import { and, asc, eq, sql } from 'drizzle-orm';
+import type { Database, Tx } from '../../db/client';
+import { organizations, plans, roadLayers, runs, shelters, users, zones } from '../../db/schema';
+import type { Run } from '../../../shared/api/runs';
+import { roleLabels, type Role } from '../../../shared/api/roles';
+import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
+import type { BriefingInput, LonLat, MapSegment, MapZone } from '../../briefings/briefing-input';
+import { formatCount, formatDate, formatDecimal } from '../../briefings/format';
+import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
+import { ConflictError, NotFoundError } from '../../errors';
+import { getCapacityTable } from '../capacity-table';
+import { departureCurvesDescription } from './departure-words';
+
+type RunRow = typeof runs.$inferSelect;
+
+function toRun(row: RunRow): Run {
+  return {
+    id: row.id,
+    planId: row.planId,
+    scenarioId: row.scenarioId,
+    status: row.status,
+    phase: row.phase,
+    progress: row.progress,
+    parameters: row.parameters,
+    dataVersion: row.dataVersion,
+    failureReason: row.failureReason,
+    createdBy: row.createdBy,
+    createdAt: row.createdAt.toISOString(),
+    startedAt: row.startedAt?.toISOString() ?? null,
+    finishedAt: row.finishedAt?.toISOString() ?? null,
+  };
+}
+
+function zoneRings(geometry: ZoneGeometry): LonLat[][] {
+  return geometry.type === 'Polygon' ? geometry.coordinates : geometry.coordinates.flat();
+}
+
+export type BriefingSourceOptions = {
+  briefingId: string;
+  version: number;
+  createdAt: Date;
+  preparer: { userId: string; role: Role };
+  timeZone: string;
+  verificationUrl: string;
+};
+
+/** The run of this organisation, checked to be finished with a stored result. */
+export async function finishedRun(db: Database | Tx, organizationId: string, runId: string): Promise<RunRow> {
+  const [row] = await db
+    .select({ run: runs })
+    .from(runs)
+    .innerJoin(plans, eq(plans.id, runs.planId))
+    .where(and(eq(runs.id, runId), eq(plans.organizationId, organizationId)));
+  if (!row) throw new NotFoundError('run');
+  if (row.run.status !== 'succeeded' || !row.run.result) throw new ConflictError('Only a finished analysis can be briefed: this run has not succeeded.');
+  return row.run;
+}
+
+async function mapSegments(db: Database | Tx, layerId: number): Promise<MapSegment[]> {
+  const rows = await db.execute<{ id: string; road_class: string; g: string }>(sql`
+    SELECT id, road_class, ST_AsGeoJSON(geom, 7) AS g FROM road_segments WHERE layer_id = ${layerId} ORDER BY id`);
+  return rows.rows.map((r) => ({ id: Number(r.id), roadClass: r.road_class, coordinates: (JSON.parse(r.g) as { coordinates: LonLat[] }).coordinates }));
+}
+
+/**
+ * Everything the briefing prints, for a draft. Refuses a run whose plan data changed since it
+ * ran: the capacity table, zones and shelters would then not be the ones the figures rest on.
+ */
+export async function gatherBriefingInput(db: Database, organizationId: string, run: RunRow, o: BriefingSourceOptions): Promise<BriefingInput> {
+  const [plan] = await db
+    .select({ name: plans.name, dataVersion: plans.dataVersion, organizationName: organizations.name })
+    .from(plans)
+    .innerJoin(organizations, eq(organizations.id, plans.organizationId))
+    .where(and(eq(plans.id, run.planId), eq(plans.organizationId, organizationId)));
+  if (!plan) throw new NotFoundError('plan');
+  if (plan.dataVersion !== run.dataVersion) {
+    throw new ConflictError(
+      `The plan's roads, zones, shelters or capacity table changed after this analysis (data version ${run.dataVersion}, now ${plan.dataVersion}). ` +
+        'Analyse again and brief the new run, so that the briefing states the assumptions its figures rest on.',
+    );
+  }
+  if (run.roadLayerId === null) throw new ConflictError('The road layer this analysis used no longer exists, so its map cannot be drawn.');
+  const [layer] = await db.select().from(roadLayers).where(eq(roadLayers.id, run.roadLayerId));
+  if (!layer) throw new ConflictError('The road layer this analysis used no longer exists, so its map cannot be drawn.');
+
+  const [preparer] = await db.select({ name: users.displayName }).from(users).where(eq(users.id, o.preparer.userId));
+  const zoneRows = await db.select().from(zones).where(eq(zones.planId, run.planId)).orderBy(asc(zones.id));
+  const shelterRows = await db.select().from(shelters).where(eq(shelters.planId, run.planId)).orderBy(asc(shelters.id));
+  const table = await getCapacityTable(db, organizationId, run.planId);
+  const segments = await mapSegments(db, layer.id);
+
+  const tableFactor = table.capacityFactor === 1 ? '' : `the plan's capacity table adds × ${formatDecimal(table.capacityFactor)}`;
+  const factorNote = [tableFactor, table.capacityFactorNote].filter(Boolean).join('; ');
+  const mapZones: MapZone[] = zoneRows.map((z) => ({ id: z.id, name: z.name, rings: zoneRings(z.geometry) }));
+
+  return {
+    briefingId: o.briefingId,
+    version: o.version,
+    organizationName: plan.organizationName,
+    planName: plan.name,
+    // Scenarios are not stored yet; a scenario run is named by its identifier until they are.
+    scenarioName: run.scenarioId ? `scenario ${run.scenarioId.slice(0, 8)}` : null,
+    createdAt: o.createdAt,
+    preparedBy: { name: preparer?.name ?? 'unknown', role: roleLabels[o.preparer.role] },
+    status: 'draft',
+    run: toRun(run),
+    result: run.result!,
+    assumptions: {
+      dataDescription:
+        `road layer “${layer.name}” imported ${formatDate(layer.createdAt, o.timeZone)} from ${layer.sourceFileName} ` +
+        `(${formatCount(layer.segmentCount)} segments), ${zoneRows.length} evacuation zones, ${shelterRows.length} shelters and exits`,
+      capacityTable: table.rows.map((r) => ({ ...r })),
+      capacityFactorNote: factorNote,
+      personsPerVehicle: meanPersonsPerVehicle(zoneRows),
+      personsPerVehicleSource:
+        zoneRows.length === 1
+          ? `the zone's own figure`
+          : `vehicle-weighted mean of the zones' figures (${[...new Set(zoneRows.map((z) => formatDecimal(z.personsPerVehicle)))].join(', ')} persons per vehicle)`,
+      departureCurve: departureCurvesDescription(zoneRows),
+    },
+    map: {
+      segments,
+      zones: mapZones,
+      shelters: shelterRows.map((s) => ({ id: s.id, name: s.name, location: [s.lon, s.lat] as LonLat })),
+    },
+    verificationUrl: o.verificationUrl,
+    timeZone: o.timeZone,
+  };
+}
