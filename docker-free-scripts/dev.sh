@@ -9,5 +9,7 @@ node --import tsx server/db/migrate.ts
 node --import tsx server/seed/run.ts
 npx tsx watch server/index.ts &
 api=$!
-trap 'kill $api 2>/dev/null' EXIT
+node --import tsx server/worker.ts &
+worker=$!
+trap 'kill $api $worker 2>/dev/null' EXIT
 npx vite

@@ -11,4 +11,8 @@ say "seeding the demo organization"
 node --import tsx server/seed/run.ts
 say "building the client"
 npx vite build --logLevel error
-exec node --import tsx server/index.ts
+# One worker solves the queued runs; add more with `npm run worker` (see DEVELOPERS.md).
+node --import tsx server/worker.ts &
+worker=$!
+trap 'kill $worker 2>/dev/null; wait $worker 2>/dev/null' EXIT INT TERM
+node --import tsx server/index.ts

@@ -22,7 +22,9 @@ import { roadLayersRouter } from './routes/road-layers';
 import { zonesSheltersRouter } from './routes/zones-shelters';
 import { settingsRouter } from './routes/settings';
 import { createSettings } from './services/settings';
-
+import { runsRouter } from './routes/runs';
+import type { RunEnqueuer } from './routes/runs';
+import { healthRouter } from './routes/health';
 
 export type AppDeps = {
   config: Config;
@@ -31,11 +33,13 @@ export type AppDeps = {
   log?: (err: unknown) => void;
   // The built client; served with a fallback to index.html for client-side routes.
   clientDir?: string;
+  // Where new runs are queued; worker processes take them from there (server/worker.ts).
+  runQueue: RunEnqueuer;
 };
 
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-export function createApp({ config, db, pool, log = console.error, clientDir = defaultClientDir }: AppDeps) {
+export function createApp({ config, db, pool, log = console.error, clientDir = defaultClientDir, runQueue }: AppDeps) {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -52,6 +56,8 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
       },
     }),
   );
+  // Health checks come before sessions: probes carry no cookie and must not create sessions.
+  app.use(healthRouter(pool));
   app.use(express.json({ limit: '1mb' }));
 
   const PgStore = connectPgSimple(session);
@@ -83,6 +89,7 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
   app.use('/api/plans', plansRouter(db));
   app.use('/api/plans/:planId', roadLayersRouter(db, config));
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
+  app.use('/api/plans/:planId', runsRouter(db, config, runQueue));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api/settings', settingsRouter(settings));

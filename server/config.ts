@@ -19,7 +19,33 @@ const configSchema = z.object({
   RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(30_000_000),
   RUN_TIME_BUDGET_SECONDS: z.coerce.number().positive().default(900),
   RUN_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(6144),
+  // How often the queue looks for jobs of dead workers to retry.
+  QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
+  WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
+  // Briefing e-mail. Empty SMTP_URL with the development outbox on: the server starts its own
+  // fake SMTP server on loopback and keeps every message (server/services/briefings/outbox.ts).
+  SMTP_URL: z.string().default(''),
+  MAIL_FROM: z.string().min(3).default('Cutline briefings <briefings@cutline.example>'),
+  // The address people open the app at, for links in e-mail and on signed briefings; default http://HOST:PORT.
+  PUBLIC_BASE_URL: z.string().url().optional(),
+  // Encrypts the organisations' generated signing keys in the database. The default is for
+  // development only: set your own before real use, and keep it (a changed one cannot open the stored keys).
+  SIGNING_KEY_PASSPHRASE: z.string().min(8).default('cutline-development-signing-key'),
+  // A real certificate (PKCS#12) to sign briefings with instead of the generated self-signed one.
+  SIGNING_P12_PATH: z.string().optional(),
+  SIGNING_P12_PASSPHRASE: z.string().default(''),
+  // The outbox page and the fake SMTP server: on unless NODE_ENV=production.
+  DEV_OUTBOX: z.enum(['on', 'off']).optional(),
+  // Dates on briefings (IANA name).
+  BRIEFING_TIME_ZONE: z.string().default('UTC').refine((tz) => {
+    try {
+      new Intl.DateTimeFormat('en-US', { timeZone: tz });
+      return true;
+    } catch {
+      return false;
+    }
+  }, 'Not an IANA time zone name.'),
 });
 
 export type Config = z.infer<typeof configSchema>;

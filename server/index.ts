@@ -3,10 +3,12 @@ import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { createApp } from './app';
 import { demoAccounts } from './seed/demo-accounts';
+import { startRunQueue } from './queue/run-queue';
 
 const config = loadConfig();
 const { db, pool } = createDatabase(config.DATABASE_URL);
-const app = createApp({ config, db, pool });
+const runQueue = await startRunQueue(config);
+const app = createApp({ config, db, pool, runQueue });
 
 const server = app.listen(config.PORT, config.HOST, () => {
   const url = `http://${config.HOST === '0.0.0.0' ? 'localhost' : config.HOST}:${config.PORT}/`;
@@ -24,7 +26,10 @@ const server = app.listen(config.PORT, config.HOST, () => {
 
 function shutdown() {
   server.close(() => {
-    pool.end().finally(() => process.exit(0));
+    runQueue
+      .stop()
+      .then(() => pool.end())
+      .finally(() => process.exit(0));
   });
   setTimeout(() => process.exit(0), 5000).unref();
 }

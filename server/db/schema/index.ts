@@ -5,3 +5,4 @@ export * from './audit-events';
 export * from './network';
 export * from './runs';
 export * from './settings';
+export * from './briefings';

@@ -1,6 +1,7 @@
 // Runs: one analysis each, with the exact inputs it used and its full result.
 import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
+import type { RunInput } from '../../runs/run-input';
 import { plans } from './plans';
 import { users } from './organizations';
 import { roadLayers } from './network';
@@ -32,3 +33,12 @@ export const runs = pgTable(
   },
   (t) => [index().on(t.planId, t.createdAt), index().on(t.planId, t.inputHash)],
 );
+
+// What a worker needs to solve a run, stored with it: any worker on any machine can pick the
+// run up (or retry it after a crash) and solve exactly the input the planner started.
+export const runInputs = pgTable('run_inputs', {
+  runId: uuid()
+    .primaryKey()
+    .references(() => runs.id, { onDelete: 'cascade' }),
+  input: jsonb().$type<RunInput>().notNull(),
+});

@@ -7,6 +7,8 @@ import { createApp } from '../../../server/app';
 import { loadConfig } from '../../../server/config';
 import { seedDemo } from '../../../server/seed/seed-demo';
 import { createTestDatabase, type TestDatabase } from '../../server/support/database';
+import { startRunQueue } from '../../../server/queue/run-queue';
+import { createRunExecutor } from '../../../server/runs/run-executor';
 
 const clientDir = fileURLToPath(new URL('../../../dist', import.meta.url));
 
@@ -17,7 +19,10 @@ export async function startLiveServer(): Promise<LiveServer> {
   const database = await createTestDatabase();
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: database.url, PASSWORD_HASH_ROUNDS: '4' });
   await seedDemo(database.db, config.PASSWORD_HASH_ROUNDS);
-  const app = createApp({ config, db: database.db, pool: database.pool, clientDir });
+  const runQueue = await startRunQueue(config);
+  const executor = createRunExecutor(database.db, config, console.error);
+  await runQueue.work(1, ({ runId }) => executor.execute(runId));
+  const app = createApp({ config, db: database.db, pool: database.pool, clientDir, runQueue });
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, '127.0.0.1', () => resolve(s));
   });
@@ -27,6 +32,7 @@ export async function startLiveServer(): Promise<LiveServer> {
     url: `http://127.0.0.1:${port}`,
     stop: async () => {
       await new Promise((resolve) => server.close(resolve));
+      await runQueue.stop();
       await database.drop();
     },
   };

@@ -4,7 +4,12 @@ import { randomBytes } from 'node:crypto';
 import pg from 'pg';
 import { createDatabase, type Database } from '../../../server/db/client';
 
-export const templateDatabase = 'cutline_test_template';
+// Set by global-setup.ts for this test run.
+export function templateDatabase(): string {
+  const name = process.env.CUTLINE_TEST_TEMPLATE;
+  if (!name) throw new Error('no test template database: run the tests through vitest (global setup)');
+  return name;
+}
 
 export function baseUrl(): string {
   return process.env.CUTLINE_TEST_DATABASE_BASE_URL ?? `postgres://postgres@127.0.0.1:${process.env.CUTLINE_PG_PORT ?? 54329}/`;
@@ -28,7 +33,7 @@ export type TestDatabase = { name: string; url: string; db: Database; pool: pg.P
 
 export async function createTestDatabase(): Promise<TestDatabase> {
   const name = `cutline_test_${randomBytes(5).toString('hex')}`;
-  await withAdminClient((c) => c.query(`CREATE DATABASE "${name}" TEMPLATE "${templateDatabase}"`));
+  await withAdminClient((c) => c.query(`CREATE DATABASE "${name}" TEMPLATE "${templateDatabase()}"`));
   const url = databaseUrl(name);
   const { db, pool } = createDatabase(url);
   // DROP … WITH (FORCE) may reach a client that pool.end() is still closing; that is expected.

@@ -8,6 +8,8 @@ import { seedDemo } from '../../../server/seed/seed-demo';
 import { seedOrganization } from '../../../server/seed/seed-organization';
 import { demoAccounts } from '../../../server/seed/demo-accounts';
 import { createTestDatabase, type TestDatabase } from './database';
+import { startRunQueue } from '../../../server/queue/run-queue';
+import { createRunExecutor } from '../../../server/runs/run-executor';
 
 export const otherAccounts = [
   { role: 'admin' as Role, email: 'admin@other.example', displayName: 'Other Admin', password: 'other-admin-2026' },
@@ -29,15 +31,36 @@ export type TestContext = TestDatabase & {
   errors: unknown[];
 };
 
-export async function createTestContext(env: Record<string, string> = {}): Promise<TestContext> {
+export type TestContextOptions = {
+  // A real pg-boss queue on the test database and an in-process worker solving what it queues.
+  withRunWorker?: boolean;
+};
+
+const noQueue = {
+  enqueue: async () => {
+    throw new Error('this test context has no run queue: pass { withRunWorker: true }');
+  },
+};
+
+export async function createTestContext(env: Record<string, string> = {}, options: TestContextOptions = {}): Promise<TestContext> {
   const database = await createTestDatabase();
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: database.url, PASSWORD_HASH_ROUNDS: '4', ...env });
   const demo = await seedDemo(database.db, config.PASSWORD_HASH_ROUNDS);
   const other = await seedOrganization(database.db, { name: 'Other County', slug: 'other' }, otherAccounts, config.PASSWORD_HASH_ROUNDS);
   const errors: unknown[] = [];
-  const app = createApp({ config, db: database.db, pool: database.pool, log: (e) => errors.push(e), clientDir: '/nonexistent' });
+  const log = (e: unknown) => errors.push(e);
+  const queue = options.withRunWorker ? await startRunQueue(config) : null;
+  if (queue) {
+    const executor = createRunExecutor(database.db, config, log);
+    await queue.work(1, ({ runId }) => executor.execute(runId));
+  }
+  const app = createApp({ config, db: database.db, pool: database.pool, log, clientDir: '/nonexistent', runQueue: queue ?? noQueue });
   return {
     ...database,
+    drop: async () => {
+      await queue?.stop();
+      await database.drop();
+    },
     app,
     config,
     demoOrganizationId: demo.organizationId,

@@ -1,0 +1,50 @@
+// Runs wait in a PostgreSQL-backed queue (pg-boss). Any number of worker processes, on this
+// machine or others pointing at the same database, take jobs from it; a job whose worker dies
+// expires and is retried by another.
+import PgBoss from 'pg-boss';
+import type { Config } from '../config';
+
+export const RUN_QUEUE = 'runs';
+export type RunJob = { runId: string };
+
+export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_TIME_BUDGET_SECONDS' | 'QUEUE_MAINTENANCE_SECONDS'>) {
+  const boss = new PgBoss({
+    connectionString: config.DATABASE_URL,
+    schema: 'pgboss',
+    max: 4,
+    maintenanceIntervalSeconds: config.QUEUE_MAINTENANCE_SECONDS,
+    monitorStateIntervalSeconds: Math.max(config.QUEUE_MAINTENANCE_SECONDS, 1),
+  });
+  // 57P01: the database shut the connection (a restart, or a dropped test database).
+  boss.on('error', (e: Error & { code?: string }) => {
+    if (e.code !== '57P01') console.error('[queue]', e);
+  });
+  await boss.start();
+  // A queue must exist before send(), or pg-boss 10 drops the job silently.
+  await boss.createQueue(RUN_QUEUE);
+
+  return {
+    boss,
+    async enqueue(runId: string): Promise<void> {
+      const id = await boss.send(RUN_QUEUE, { runId } satisfies RunJob, {
+        singletonKey: runId,
+        retryLimit: 3,
+        retryDelay: 1,
+        // A job still active after the budget (plus slack) belongs to a dead worker: retry it.
+        expireInSeconds: Math.ceil(config.RUN_TIME_BUDGET_SECONDS + 30),
+      });
+      if (id === null) throw new Error(`run ${runId} could not be queued`);
+    },
+    async work(concurrency: number, handler: (job: RunJob) => Promise<void>): Promise<void> {
+      for (let i = 0; i < concurrency; i++) {
+        await boss.work<RunJob>(RUN_QUEUE, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+          if (job) await handler(job.data);
+        });
+      }
+    },
+    async stop(): Promise<void> {
+      await boss.stop({ graceful: true, wait: true, timeout: 10_000 });
+    },
+  };
+}
+export type RunQueue = Awaited<ReturnType<typeof startRunQueue>>;

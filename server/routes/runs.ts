@@ -1,0 +1,74 @@
+// /api/plans/:planId/runs: start (202, solved in the background), list, poll, cancel, export.
+import { Router } from 'express';
+import { z } from 'zod';
+import { runParametersSchema } from '../../shared/api/runs';
+import { planParamsSchema } from '../../shared/api/road-layers';
+import { bottlenecksCsv, curveCsv } from '../../shared/api/run-exports';
+import type { Config } from '../config';
+import type { Database } from '../db/client';
+import { ConflictError } from '../errors';
+import { actorOf, requireMember } from '../middleware/require-member';
+
+import { arcsGeoJson } from '../services/run-exports';
+import { createRun, getRun, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
+
+const runParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.'), runId: z.string().uuid('Not a valid identifier.') });
+const startRunSchema = z.object({ parameters: runParametersSchema });
+
+export type RunEnqueuer = { enqueue: (runId: string) => Promise<void> };
+
+export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Router {
+  const router = Router({ mergeParams: true });
+
+  router.post('/runs', requireMember('plans:write'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const { parameters } = startRunSchema.parse(req.body);
+    const actor = actorOf(req);
+    const prepared = await prepareRun(db, actor.organizationId, planId, parameters, config.RUN_MAX_EXPANDED_ARCS);
+    const { row, reused } = await createRun(db, actor, planId, parameters, prepared);
+    if (!reused) await queue.enqueue(row.id);
+    res.status(202).json(toRun(row));
+  });
+
+  router.get('/runs', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json({ runs: await listRuns(db, actorOf(req).organizationId, planId) });
+  });
+
+  router.get('/runs/:runId', requireMember('plans:read'), async (req, res) => {
+    const { planId, runId } = runParamsSchema.parse(req.params);
+    res.json(await getRun(db, actorOf(req).organizationId, planId, runId));
+  });
+
+  router.post('/runs/:runId/cancel', requireMember('plans:write'), async (req, res) => {
+    const { planId, runId } = runParamsSchema.parse(req.params);
+    const actor = actorOf(req);
+    await getRunRow(db, actor.organizationId, planId, runId);
+    // The worker solving it notices the cancelled status and stops.
+    res.json(await markCancelled(db, actor, planId, runId));
+  });
+
+  async function finishedResult(req: Parameters<Parameters<typeof router.get>[1]>[0]) {
+    const { planId, runId } = runParamsSchema.parse(req.params);
+    const row = await getRunRow(db, actorOf(req).organizationId, planId, runId);
+    if (!row.result) throw new ConflictError(`The run has no result (it is ${row.status}).`);
+    return { row, result: row.result };
+  }
+
+  router.get('/runs/:runId/export/bottlenecks.csv', requireMember('plans:read'), async (req, res) => {
+    const { row, result } = await finishedResult(req);
+    res.attachment(`run-${row.id.slice(0, 8)}-bottlenecks.csv`).type('text/csv').send(bottlenecksCsv(result));
+  });
+
+  router.get('/runs/:runId/export/curve.csv', requireMember('plans:read'), async (req, res) => {
+    const { row, result } = await finishedResult(req);
+    res.attachment(`run-${row.id.slice(0, 8)}-curve.csv`).type('text/csv').send(curveCsv(result));
+  });
+
+  router.get('/runs/:runId/export/arcs.geojson', requireMember('plans:read'), async (req, res) => {
+    const { row, result } = await finishedResult(req);
+    res.attachment(`run-${row.id.slice(0, 8)}-arcs.geojson`).type('application/geo+json').send(JSON.stringify(await arcsGeoJson(db, row.roadLayerId, result)));
+  });
+
+  return router;
+}

@@ -1,0 +1,39 @@
+// Runs in a worker thread: one evacuation problem in, progress messages and the engine's result
+// out. Keeping the solver off the main thread keeps the server answering while it works.
+import { parentPort, workerData } from 'node:worker_threads';
+import { FlowInputError, solveEvacuation, type EvacuationProblem, type EvacuationResult, type SolveEvacuationOptions } from '../../shared/flow';
+
+export type SolveRequest = { problem: EvacuationProblem; options: Pick<SolveEvacuationOptions, 'algorithm'> };
+export type SolveMessage =
+  | { type: 'progress'; phase: string; fraction: number }
+  | { type: 'done'; result: EvacuationResult; solveMs: number; peakMemoryBytes: number }
+  | { type: 'error'; message: string; input: boolean };
+
+const { problem, options } = workerData as SolveRequest;
+const post = (m: SolveMessage) => parentPort!.postMessage(m);
+let lastProgressAt = 0;
+let peak = process.memoryUsage().rss;
+
+try {
+  const started = performance.now();
+  const result = solveEvacuation(problem, {
+    ...options,
+    // Every result is checked (capacity bounds, conservation, cut = flow) before it is stored.
+    verify: true,
+    now: () => performance.now(),
+    onProgress: (phase: string, fraction: number) => {
+      peak = Math.max(peak, process.memoryUsage().rss);
+      const now = performance.now();
+      // At most ten messages a second: the main thread writes each one to the database.
+      if (now - lastProgressAt > 100 || fraction >= 1) {
+        lastProgressAt = now;
+        post({ type: 'progress', phase, fraction });
+      }
+    },
+  });
+  peak = Math.max(peak, process.memoryUsage().rss);
+  post({ type: 'done', result, solveMs: performance.now() - started, peakMemoryBytes: peak });
+} catch (e) {
+  const input = e instanceof FlowInputError;
+  post({ type: 'error', message: e instanceof Error ? e.message : String(e), input });
+}

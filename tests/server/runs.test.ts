@@ -1,0 +1,140 @@
+// Runs end to end on the real database: queued in pg-boss, solved by a worker in a worker
+// thread, result stored and served. The demo town's static minimum cut is its four bridges,
+// 2,000 + 2,000 + 850 + 750 = 5,600 veh/h with the default capacity table (HCM-derived values
+// of shared/model/capacity-defaults.ts; the bridges' classes are set in server/seed/demo-town).
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
+import { defaultRunParameters, runWithResultSchema, type RunWithResult } from '../../shared/api/runs';
+
+let ctx: TestContext;
+let planner: SignedInAgent;
+let viewer: SignedInAgent;
+let planId: string;
+
+async function waitForRun(runId: string, timeoutMs = 60_000): Promise<RunWithResult> {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const res = await viewer.agent.get(`/api/plans/${planId}/runs/${runId}`).expect(200);
+    const run = runWithResultSchema.parse(res.body);
+    if (!['queued', 'running'].includes(run.status)) return run;
+    if (Date.now() > until) throw new Error(`run ${runId} still ${run.status} (${run.phase})`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+function start(parameters: object, agent = planner) {
+  return agent.agent.post(`/api/plans/${planId}/runs`).set('x-csrf-token', agent.csrf).send({ parameters });
+}
+
+beforeAll(async () => {
+  ctx = await createTestContext({}, { withRunWorker: true });
+  planner = await signInAs(ctx.app, 'planner');
+  viewer = await signInAs(ctx.app, 'viewer');
+  planId = (await viewer.agent.get('/api/plans').expect(200)).body.plans[0].id;
+});
+afterAll(async () => {
+  expect(ctx.errors).toEqual([]);
+  await ctx.drop();
+});
+
+describe('a run of the demo plan', () => {
+  let run: RunWithResult;
+
+  it('is accepted at once and solved in the background', async () => {
+    const res = await start({ ...defaultRunParameters, horizonMinutes: 240, timeStepSeconds: 60 }).expect(202);
+    expect(['queued', 'running']).toContain(res.body.status);
+    run = await waitForRun(res.body.id);
+    expect(run.status, run.failureReason ?? '').toBe('succeeded');
+  });
+
+  it('reports the four bridges as the static choke points, 5,600 veh/h', () => {
+    const result = run.result!;
+    expect(result.headline.steadyStateVehiclesPerHour).toBeCloseTo(5600, 6);
+    const staticCut = result.arcs.filter((a) => a.inStaticCut);
+    expect(staticCut.reduce((sum, a) => sum + a.capacityVehiclesPerHour, 0)).toBeCloseTo(5600, 6);
+    // Max-flow/min-cut: the cut arcs run full.
+    for (const a of staticCut) expect(a.flowVehiclesPerHour).toBeCloseTo(a.capacityVehiclesPerHour, 6);
+    expect(result.bottlenecks.length).toBeGreaterThan(0);
+    expect(result.stats.verified).toBe(true);
+  });
+
+  it('keeps the figures consistent with each other', () => {
+    const { headline, curve, zones, shelters } = run.result!;
+    expect(headline.demandVehicles).toBe(zones.reduce((s, z) => s + z.demandVehicles, 0));
+    expect(curve.deliveredVehicles.at(-1)).toBe(headline.deliveredVehicles);
+    for (let i = 1; i < curve.deliveredVehicles.length; i++) expect(curve.deliveredVehicles[i]).toBeGreaterThanOrEqual(curve.deliveredVehicles[i - 1]!);
+    expect(shelters.reduce((s, x) => s + x.arrivedVehicles, 0)).toBe(zones.reduce((s, z) => s + z.deliveredVehicles, 0));
+    // Integrality: integral capacities give integral flows.
+    expect(curve.deliveredVehicles.every(Number.isInteger)).toBe(true);
+    if (headline.clearanceMinutes !== null) {
+      expect(headline.p50Minutes!).toBeLessThanOrEqual(headline.p90Minutes!);
+      expect(headline.p95Minutes!).toBeLessThanOrEqual(headline.clearanceMinutes);
+    }
+  });
+
+  it('is listed, and exports CSV and GeoJSON', async () => {
+    const list = (await viewer.agent.get(`/api/plans/${planId}/runs`).expect(200)).body.runs;
+    expect(list[0].id).toBe(run.id);
+    expect(list[0].result).toBeUndefined();
+    const csv = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/bottlenecks.csv`).expect(200);
+    expect(csv.headers['content-type']).toMatch(/text\/csv/);
+    expect(csv.text.split('\r\n')[0]).toMatch(/^rank,segment_id,direction/);
+    const curve = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/curve.csv`).expect(200);
+    expect(curve.text.trim().split('\r\n')).toHaveLength(run.result!.curve.deliveredVehicles.length + 1);
+    const geo = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/arcs.geojson`).buffer(true).parse((res, cb) => {
+      let data = '';
+      res.on('data', (c: Buffer) => (data += c));
+      res.on('end', () => cb(null, JSON.parse(data)));
+    }).expect(200);
+    expect(geo.body.features).toHaveLength(run.result!.arcs.length);
+    expect(geo.body.features[0].geometry.coordinates.length).toBeGreaterThanOrEqual(2);
+  });
+
+  it('reuses the stored result for identical inputs', async () => {
+    const res = await start({ ...defaultRunParameters, horizonMinutes: 240, timeStepSeconds: 60 }).expect(202);
+    expect(res.body.status).toBe('succeeded');
+    expect(res.body.phase).toContain(run.id);
+    const again = await waitForRun(res.body.id);
+    expect(again.result).toEqual(run.result);
+  });
+});
+
+describe('refusals', () => {
+  it('bad parameters: 400 naming the field, no run written', async () => {
+    const before = await countRows(ctx, 'runs');
+    const res = await start({ ...defaultRunParameters, timeStepSeconds: 1 }).expect(400);
+    expect(res.body.error.fields[0].path).toBe('parameters.timeStepSeconds');
+    expect(await countRows(ctx, 'runs')).toBe(before);
+  });
+
+  it('viewers cannot start runs', async () => {
+    await start(defaultRunParameters, viewer).expect(403);
+  });
+
+  it('a problem larger than the budget is refused before it is queued', async () => {
+    const small = await createTestContext({ RUN_MAX_EXPANDED_ARCS: '1000' });
+    try {
+      const p = await signInAs(small.app, 'planner');
+      const id = (await p.agent.get('/api/plans').expect(200)).body.plans[0].id;
+      const res = await p.agent.post(`/api/plans/${id}/runs`).set('x-csrf-token', p.csrf).send({ parameters: defaultRunParameters }).expect(400);
+      expect(res.body.error.message).toMatch(/million time-expanded arcs/);
+      expect(await countRows(small, 'runs')).toBe(0);
+    } finally {
+      await small.drop();
+    }
+  });
+});
+
+describe('cancelling', () => {
+  it('stops a run and keeps it cancelled', async () => {
+    // A long horizon at a short step keeps the solver busy long enough to cancel.
+    const res = await start({ ...defaultRunParameters, horizonMinutes: 12 * 60, timeStepSeconds: 10, capacityFactor: 0.5 }).expect(202);
+    const cancelled = await planner.agent.post(`/api/plans/${planId}/runs/${res.body.id}/cancel`).set('x-csrf-token', planner.csrf).expect(200);
+    expect(cancelled.body.status).toBe('cancelled');
+    await new Promise((r) => setTimeout(r, 1500));
+    const after = await waitForRun(res.body.id);
+    expect(after.status).toBe('cancelled');
+    expect(after.result).toBeNull();
+    await planner.agent.post(`/api/plans/${planId}/runs/${res.body.id}/cancel`).set('x-csrf-token', planner.csrf).expect(409);
+  });
+});
