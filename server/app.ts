@@ -25,6 +25,8 @@ import { createSettings } from './services/settings';
 import { runsRouter } from './routes/runs';
 import type { RunEnqueuer } from './routes/runs';
 import { healthRouter } from './routes/health';
+import { scenariosRouter } from './routes/scenarios';
+import { briefingsRouter } from './routes/briefings';
 
 export type AppDeps = {
   config: Config;
@@ -89,10 +91,12 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
   app.use('/api/plans', plansRouter(db));
   app.use('/api/plans/:planId', roadLayersRouter(db, config));
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
+  app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api/settings', settingsRouter(settings));
+  app.use('/api/briefings', briefingsRouter(db, config));
   app.use('/api', apiNotFound);
 
   if (fs.existsSync(path.join(clientDir, 'index.html'))) {

@@ -4,11 +4,14 @@ import { createDatabase } from './db/client';
 import { createApp } from './app';
 import { demoAccounts } from './seed/demo-accounts';
 import { startRunQueue } from './queue/run-queue';
+import { startDevOutbox } from './services/briefings/outbox';
 
 const config = loadConfig();
 const { db, pool } = createDatabase(config.DATABASE_URL);
 const runQueue = await startRunQueue(config);
-const app = createApp({ config, db, pool, runQueue });
+// Development outbox: briefing e-mail goes to a loopback SMTP server that keeps it (admins read it on /outbox).
+const outbox = await startDevOutbox(db, config);
+const app = createApp({ config: outbox ? { ...config, SMTP_URL: outbox.url } : config, db, pool, runQueue });
 
 const server = app.listen(config.PORT, config.HOST, () => {
   const url = `http://${config.HOST === '0.0.0.0' ? 'localhost' : config.HOST}:${config.PORT}/`;
@@ -19,6 +22,7 @@ const server = app.listen(config.PORT, config.HOST, () => {
     'Demo sign-ins (an invented organization; change these before real use):',
     ...demoAccounts.map((a) => `  ${a.role.padEnd(9)} ${a.email.padEnd(32)} password: ${a.password}`),
     '',
+    ...(outbox ? [`E-mail is kept in the development outbox (${outbox.url}, admins: ${url}outbox), never delivered.`, ''] : []),
     'Stop with Ctrl+C.',
   ];
   console.log(lines.join('\n'));
@@ -26,8 +30,7 @@ const server = app.listen(config.PORT, config.HOST, () => {
 
 function shutdown() {
   server.close(() => {
-    runQueue
-      .stop()
+    Promise.all([runQueue.stop(), outbox?.close()])
       .then(() => pool.end())
       .finally(() => process.exit(0));
   });

@@ -10,10 +10,11 @@ import { ConflictError } from '../errors';
 import { actorOf, requireMember } from '../middleware/require-member';
 
 import { arcsGeoJson } from '../services/run-exports';
+import { getScenario } from '../services/scenarios';
 import { createRun, getRun, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
 
 const runParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.'), runId: z.string().uuid('Not a valid identifier.') });
-const startRunSchema = z.object({ parameters: runParametersSchema });
+const startRunSchema = z.object({ parameters: runParametersSchema, scenarioId: z.string().uuid('Not a valid identifier.').nullable().default(null) });
 
 export type RunEnqueuer = { enqueue: (runId: string) => Promise<void> };
 
@@ -22,10 +23,11 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Ro
 
   router.post('/runs', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    const { parameters } = startRunSchema.parse(req.body);
+    const { parameters, scenarioId } = startRunSchema.parse(req.body);
     const actor = actorOf(req);
-    const prepared = await prepareRun(db, actor.organizationId, planId, parameters, config.RUN_MAX_EXPANDED_ARCS);
-    const { row, reused } = await createRun(db, actor, planId, parameters, prepared);
+    const scenario = scenarioId ? await getScenario(db, actor.organizationId, planId, scenarioId) : null;
+    const prepared = await prepareRun(db, actor.organizationId, planId, parameters, config.RUN_MAX_EXPANDED_ARCS, scenario);
+    const { row, reused } = await createRun(db, actor, planId, parameters, prepared, scenarioId);
     if (!reused) await queue.enqueue(row.id);
     res.status(202).json(toRun(row));
   });

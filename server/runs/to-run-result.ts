@@ -20,19 +20,26 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     return { segmentId: segment.id, direction: origin.direction, name: segment.name, roadClass: segment.roadClass };
   };
 
+  // The steady state reflects the roads as they are at the start: a road closed then carries nothing.
+  const closedAtStart = (road: (typeof roads)[number]) =>
+    (road.closures ?? []).some((c) => c.fromSeconds <= 0 && (c.untilSeconds === null || c.untilSeconds > 0));
+  const steadyCapacity = roads.map((road) => (closedAtStart(road) ? 0 : road.capacityVehPerHour));
+
   const personsPerVehicle = input.zones.map((z) => (z.vehicles > 0 ? z.persons / z.vehicles : 0));
   const staticCut = new Set(r.steadyState.cutRoads);
   const laneGain = new Map<number, number>();
   for (const f of r.fixes) if (f.kind === 'add-lane') laneGain.set(f.road, f.gainVehPerHour);
 
-  const arcs: ArcFlow[] = roads.map((road, i) => {
+  const arcs: ArcFlow[] = roads.map((_road, i) => {
     const flow = r.steadyState.roadFlowVehPerHour[i] ?? 0;
+    const capacity = steadyCapacity[i]!;
     return {
       ...roadRef(i),
-      capacityVehiclesPerHour: road.capacityVehPerHour,
+      capacityVehiclesPerHour: capacity,
       flowVehiclesPerHour: flow,
-      utilisation: road.capacityVehPerHour > 0 ? flow / road.capacityVehPerHour : 0,
-      inStaticCut: staticCut.has(i),
+      utilisation: capacity > 0 ? flow / capacity : 0,
+      // A closed road crosses the cut with nothing on it: a candidate to reopen, not a choke point.
+      inStaticCut: staticCut.has(i) && capacity > 0,
     };
   });
 
@@ -46,12 +53,12 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
       capacityVehiclesPerHour: roads[b.road]!.capacityVehPerHour,
       shareOfCut: b.share,
       cutWindows: b.stepRanges.map(([first, last]) => [first * minutesPerStep, (last + 1) * minutesPerStep] as [number, number]),
-      inStaticCut: staticCut.has(b.road),
+      inStaticCut: staticCut.has(b.road) && steadyCapacity[b.road]! > 0,
       gainPerExtraLaneVehiclesPerHour: laneGain.get(b.road) ?? 0,
     };
   });
   for (const road of r.steadyState.cutRoads) {
-    if (listed.has(road)) continue;
+    if (listed.has(road) || steadyCapacity[road] === 0) continue;
     bottlenecks.push({
       ...roadRef(road),
       capacityVehiclesPerHour: roads[road]!.capacityVehPerHour,

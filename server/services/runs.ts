@@ -8,7 +8,9 @@ import type { Run, RunParameters, RunWithResult } from '../../shared/api/runs';
 import { buildEvacuationProblem, ModelInputError, type BuiltEvacuationProblem } from '../../shared/model/build-evacuation-problem';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { ENGINE_VERSION } from '../runs/engine-version';
-import { attachAll, loadPlanModel, modelSegments } from './plan-model';
+import { attachAll, loadPlanModel, modelSegments, type PlanModel } from './plan-model';
+import type { Scenario } from '../../shared/api/scenarios';
+import { applyScenarioToProblem, scenarioSegmentOverrides } from '../../shared/model/apply-scenario';
 import type { RunInput } from '../runs/run-input';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization } from './plan-access';
@@ -39,9 +41,36 @@ export function horizonSteps(parameters: RunParameters): number {
   return Math.max(1, Math.round((parameters.horizonMinutes * 60) / parameters.timeStepSeconds));
 }
 
+/** The scenario's shelter changes on the plan's shelters; added ones get negative ids. */
+function withScenarioShelters(model: PlanModel, scenario: Scenario): PlanModel {
+  const known = new Set(model.shelters.map((s) => s.id));
+  const unknown = scenario.overlay.removedShelterIds.filter((id) => !known.has(id));
+  if (unknown.length > 0) throw new BadRequestError(`The scenario removes shelter ${unknown.join(', ')}, which is not in the plan.`);
+  const removed = new Set(scenario.overlay.removedShelterIds);
+  return {
+    ...model,
+    shelters: [
+      ...model.shelters.filter((s) => !removed.has(s.id)),
+      ...scenario.overlay.addedShelters.map((s, i) => ({ ...s, id: -(i + 1) })),
+    ],
+  };
+}
+
 /** The plan snapshot and the engine problem for these parameters; 400 with the reason if it cannot be built. */
-export async function prepareRun(db: Database, organizationId: string, planId: string, parameters: RunParameters, maxExpandedArcs: number): Promise<PreparedRun> {
-  const model = await loadPlanModel(db, organizationId, planId);
+export async function prepareRun(
+  db: Database,
+  organizationId: string,
+  planId: string,
+  parameters: RunParameters,
+  maxExpandedArcs: number,
+  scenario: Scenario | null = null,
+): Promise<PreparedRun> {
+  const base = await loadPlanModel(db, organizationId, planId);
+  const model = scenario ? withScenarioShelters(base, scenario) : base;
+  const lookup = {
+    indexOf: new Map(model.segments.map((seg, i) => [seg.id, i])),
+    roadClassOf: (i: number) => model.segments[i]!.roadClass,
+  };
   if (model.zones.length === 0) throw new BadRequestError('Add at least one evacuation zone before running.');
   if (model.shelters.length === 0) throw new BadRequestError('Add at least one shelter or exit before running.');
   const attached = attachAll(model);
@@ -50,11 +79,12 @@ export async function prepareRun(db: Database, organizationId: string, planId: s
     built = buildEvacuationProblem(
       { nodeCount: model.nodes.length, segments: modelSegments(model) },
       model.capacityTable,
-      [],
+      scenario ? scenarioSegmentOverrides(scenario.overlay, lookup) : [],
       model.zones.map((z, i) => ({ id: String(z.id), attributes: z, entryNodes: attached.zones[i]!.entryNodes })),
       model.shelters.map((s, i) => ({ id: String(s.id), attributes: s, node: attached.shelters[i]!.node })),
       { timeStepSeconds: parameters.timeStepSeconds, horizonSteps: horizonSteps(parameters), capacityFactor: model.capacityTable.capacityFactor * parameters.capacityFactor },
     );
+    if (scenario) applyScenarioToProblem(built, scenario.overlay, lookup);
   } catch (e) {
     if (e instanceof ModelInputError) throw new BadRequestError(`The plan's data cannot be analysed: ${e.message}.`);
     throw e;
@@ -88,6 +118,7 @@ export async function createRun(
   planId: string,
   parameters: RunParameters,
   prepared: PreparedRun,
+  scenarioId: string | null = null,
 ): Promise<{ row: RunRow; reused: boolean }> {
   return db.transaction(async (tx) => {
     const [same] = await tx
@@ -103,6 +134,7 @@ export async function createRun(
       dataVersion: prepared.dataVersion,
       roadLayerId: prepared.layerId,
       inputHash: prepared.inputHash,
+      scenarioId,
       createdBy: actor.userId,
     };
     const [row] = await tx

@@ -6,3 +6,4 @@ export * from './network';
 export * from './runs';
 export * from './settings';
 export * from './briefings';
+export * from './scenarios';
