@@ -26,6 +26,7 @@ import { runsRouter } from './routes/runs';
 import type { RunEnqueuer } from './routes/runs';
 import { healthRouter } from './routes/health';
 import { scenariosRouter } from './routes/scenarios';
+import { batchesRouter } from './routes/batches';
 import { briefingsRouter } from './routes/briefings';
 
 export type AppDeps = {
@@ -93,6 +94,7 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue));
+  app.use('/api/plans/:planId', batchesRouter(db, config, runQueue));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api/settings', settingsRouter(settings));

@@ -64,8 +64,11 @@ export async function prepareRun(
   parameters: RunParameters,
   maxExpandedArcs: number,
   scenario: Scenario | null = null,
+  // A batch sweeping participation sets every zone's rate.
+  participationRate: number | null = null,
 ): Promise<PreparedRun> {
-  const base = await loadPlanModel(db, organizationId, planId);
+  const loaded = await loadPlanModel(db, organizationId, planId);
+  const base = participationRate === null ? loaded : { ...loaded, zones: loaded.zones.map((z) => ({ ...z, participationRate })) };
   const model = scenario ? withScenarioShelters(base, scenario) : base;
   const lookup = {
     indexOf: new Map(model.segments.map((seg, i) => [seg.id, i])),
@@ -119,6 +122,7 @@ export async function createRun(
   parameters: RunParameters,
   prepared: PreparedRun,
   scenarioId: string | null = null,
+  batch: { batchId: string; sweepValue: number } | null = null,
 ): Promise<{ row: RunRow; reused: boolean }> {
   return db.transaction(async (tx) => {
     const [same] = await tx
@@ -135,6 +139,7 @@ export async function createRun(
       roadLayerId: prepared.layerId,
       inputHash: prepared.inputHash,
       scenarioId,
+      ...(batch ?? {}),
       createdBy: actor.userId,
     };
     const [row] = await tx

@@ -2,6 +2,7 @@
 import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
 import type { RunInput } from '../../runs/run-input';
+import type { SweepParameter } from '../../../shared/api/batches';
 import { plans } from './plans';
 import { users } from './organizations';
 import { roadLayers } from './network';
@@ -16,6 +17,8 @@ export const runs = pgTable(
       .notNull()
       .references(() => plans.id, { onDelete: 'cascade' }),
     scenarioId: uuid(),
+    batchId: uuid(),
+    sweepValue: real(),
     status: runStatusEnum().notNull().default('queued'),
     phase: text().notNull().default('queued'),
     progress: real().notNull().default(0),
@@ -41,4 +44,18 @@ export const runInputs = pgTable('run_inputs', {
     .primaryKey()
     .references(() => runs.id, { onDelete: 'cascade' }),
   input: jsonb().$type<RunInput>().notNull(),
+});
+
+// A sweep of one parameter over a scenario: its runs carry batchId and their sweep value.
+export const batches = pgTable('batches', {
+  id: uuid().primaryKey().defaultRandom(),
+  planId: uuid()
+    .notNull()
+    .references(() => plans.id, { onDelete: 'cascade' }),
+  name: text().notNull(),
+  scenarioId: uuid(),
+  parameter: text().$type<SweepParameter>().notNull(),
+  values: jsonb().$type<number[]>().notNull(),
+  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
 });

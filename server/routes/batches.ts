@@ -1,0 +1,31 @@
+// /api/plans/:planId/batches: sweeps of one parameter, queued as many runs.
+import { Router } from 'express';
+import { z } from 'zod';
+import { batchCreateSchema } from '../../shared/api/batches';
+import { planParamsSchema } from '../../shared/api/road-layers';
+import type { Config } from '../config';
+import type { Database } from '../db/client';
+import { actorOf, requireMember } from '../middleware/require-member';
+import { createBatch, getBatch, listBatches } from '../services/batches';
+import type { RunEnqueuer } from './runs';
+
+const batchParamsSchema = z.object({ planId: z.string().uuid(), batchId: z.string().uuid('Not a valid identifier.') });
+
+export function batchesRouter(db: Database, config: Config, queue: RunEnqueuer): Router {
+  const router = Router({ mergeParams: true });
+  router.post('/batches', requireMember('plans:write'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const input = batchCreateSchema.parse(req.body);
+    const id = await createBatch(db, actorOf(req), planId, input, config.RUN_MAX_EXPANDED_ARCS, queue.enqueue);
+    res.status(202).json(await getBatch(db, actorOf(req).organizationId, planId, id));
+  });
+  router.get('/batches', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    res.json({ batches: await listBatches(db, actorOf(req).organizationId, planId) });
+  });
+  router.get('/batches/:batchId', requireMember('plans:read'), async (req, res) => {
+    const { planId, batchId } = batchParamsSchema.parse(req.params);
+    res.json(await getBatch(db, actorOf(req).organizationId, planId, batchId));
+  });
+  return router;
+}
