@@ -6,13 +6,14 @@ import type { Bottleneck } from '@shared/api/runs';
 import { L } from '@/map/leaflet';
 import { travelDirection } from '@/map/compass';
 import { chokePointCasing, chokePointLine, chokePointSelected } from '@/map/utilisation-scale';
-import { bottleneckKey, chokePointPopupHtml } from '@/format/run-result';
+import { bottleneckKey, chokePointPopupHtml, type ChokePointContext } from '@/format/run-result';
 import type { WorkspaceMap } from './use-leaflet-map';
 
 type Coordinates = [number, number][];
 
 export type ChokePointsLayerOptions = {
   bottlenecks: Ref<readonly Bottleneck[]>;
+  context: Ref<ChokePointContext>;
   geometryOf: (segmentId: number) => Coordinates | undefined;
   /** Moves when more geometry became known. */
   geometryVersion: Ref<number>;
@@ -43,7 +44,7 @@ export function useChokePointsLayer(handle: ShallowRef<WorkspaceMap | null>, opt
         pane: h.chokeRenderer.options.pane,
         className: 'cutline-choke-point',
       });
-      line.bindPopup(chokePointPopupHtml(b, travelDirection(coordinates, b.direction)), { maxWidth: 320, className: 'cutline-choke-popup' });
+      line.bindPopup(chokePointPopupHtml(b, travelDirection(coordinates, b.direction), options.context.value), { maxWidth: 320, className: 'cutline-choke-popup' });
       line.on('click', () => options.onSelect(key));
       group.addLayer(casing);
       group.addLayer(line);
@@ -57,7 +58,7 @@ export function useChokePointsLayer(handle: ShallowRef<WorkspaceMap | null>, opt
     if (entry) entry.line.openPopup();
   }
 
-  watch([handle, options.bottlenecks, options.geometryVersion, options.selectedKey], draw, { immediate: true });
+  watch([handle, options.bottlenecks, options.context, options.geometryVersion, options.selectedKey], draw, { immediate: true });
 
   return { openPopup, drawnCount: () => drawn.size };
 }

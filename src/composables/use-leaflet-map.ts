@@ -55,9 +55,9 @@ export function useLeafletMap() {
     map.on('resize', () => {
       const fit = lastFit;
       if (!fit?.view) return;
-      const c = map.getCenter();
-      const unmoved = map.getZoom() === fit.view.zoom && Math.abs(c.lat - fit.view.lat) < 1e-6 && Math.abs(c.lng - fit.view.lng) < 1e-6;
-      if (unmoved) fitBbox(fit.bbox, fit.maxZoom);
+      // Keeping the centre through a resize moves it by a pixel or so: compare in pixels.
+      const moved = map.latLngToContainerPoint(map.getCenter()).distanceTo(map.latLngToContainerPoint([fit.view.lat, fit.view.lng]));
+      if (map.getZoom() === fit.view.zoom && moved < 4) fitBbox(fit.bbox, fit.maxZoom);
     });
   }
 

@@ -191,6 +191,16 @@ export function useRoadSegmentsLayer(handle: ShallowRef<WorkspaceMap | null>, op
     error,
     geometryVersion,
     geometryOf: (segmentId: number) => geometry.get(segmentId),
+    /** Adds geometry learnt elsewhere (a run's export) for roads not loaded yet. */
+    remember: (more: Map<number, Coordinates>) => {
+      let added = false;
+      for (const [id, coordinates] of more) {
+        if (geometry.has(id)) continue;
+        geometry.set(id, coordinates);
+        added = true;
+      }
+      if (added) geometryVersion.value++;
+    },
     propertiesOf: (segmentId: number) => properties.get(segmentId),
   };
 }

@@ -11,11 +11,13 @@ export function formatPerHour(n: number, unit: 'veh' | 'persons' = 'veh'): strin
   return `${formatCount(n)} ${unit === 'veh' ? 'veh/h' : 'persons/h'}`;
 }
 
-/** 0.357 → "36 %"; small shares keep a decimal so that they do not read as zero. */
+/** 0.357 → "36 %"; small shares keep a decimal so that they do not read as zero, and shares
+ *  just short of all are cut (not rounded) to a decimal, so that 99.7 % never reads as 100 %. */
 export function formatShare(share: number): string {
   if (!Number.isFinite(share)) return '–';
   const pct = share * 100;
   if (pct > 0 && pct < 10) return `${oneDecimal.format(pct)} %`;
+  if (pct > 99 && pct < 100) return `${oneDecimal.format(Math.floor(pct * 10) / 10)} %`;
   return `${whole.format(pct)} %`;
 }
 

@@ -2,7 +2,7 @@
 // bottlenecks in order of impact, utilisation per road segment for the map, the curve series,
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
 import type { ArcFlow, Bottleneck, RunResult, RunStatus } from '@shared/api/runs';
-import { formatCount, formatDuration, formatPerHour, formatShare, formatTimeWithin, formatWindows } from './numbers';
+import { formatCount, formatDuration, formatPerHour, formatShare, formatWindows } from './numbers';
 
 export const runStatusLabels: Record<RunStatus, string> = {
   queued: 'Waiting to start',
@@ -14,7 +14,14 @@ export const runStatusLabels: Record<RunStatus, string> = {
 
 export const runIsActive = (status: RunStatus) => status === 'queued' || status === 'running';
 
-export type HeadlineTile = { key: string; label: string; value: string; detail: string };
+export type HeadlineTile = {
+  key: string;
+  label: string;
+  value: string;
+  detail: string;
+  /** Labelled values shown as rows instead of one figure (the 50/90/95 % times). */
+  rows?: { label: string; value: string }[];
+};
 
 export function headlineTiles(result: RunResult): HeadlineTile[] {
   const h = result.headline;
@@ -35,22 +42,51 @@ export function headlineTiles(result: RunResult): HeadlineTile[] {
     {
       key: 'clearance',
       label: 'Clearance time',
-      value: formatTimeWithin(h.clearanceMinutes, h.horizonMinutes),
-      detail: h.clearanceMinutes === null ? 'Some people are still on the way when the horizon ends.' : 'until the last vehicle reaches safety',
+      value: h.clearanceMinutes === null ? `Over ${formatDuration(h.horizonMinutes)}` : formatDuration(h.clearanceMinutes),
+      detail:
+        h.clearanceMinutes === null
+          ? `Not everyone is safe within the ${formatDuration(h.horizonMinutes)} horizon.`
+          : 'until the last vehicle reaches safety',
     },
     {
       key: 'percentiles',
-      label: '50 / 90 / 95 % safe after',
+      label: 'Share safe after',
       value: [h.p50Minutes, h.p90Minutes, h.p95Minutes].map((m) => (m === null ? '–' : formatDuration(m))).join(' · '),
-      detail: '– : not within the horizon',
+      detail: '',
+      rows: (
+        [
+          ['50 %', h.p50Minutes],
+          ['90 %', h.p90Minutes],
+          ['95 %', h.p95Minutes],
+        ] as const
+      ).map(([label, m]) => ({ label, value: m === null ? 'not within' : formatDuration(m) })),
     },
   ];
 }
 
-/** Largest share of the cut first; equal shares by what one more lane would gain. */
-export function bottlenecksByImpact(bottlenecks: readonly Bottleneck[]): Bottleneck[] {
+/**
+ * A choke point's share of what limits the evacuation. The server gives the share in the
+ * time-expanded cut; a road only in the steady-state cut comes with 0 there, and its share of
+ * that cut is its capacity over the steady-state throughput (the cut's capacity equals the
+ * maximum flow, max-flow min-cut theorem).
+ */
+export function cutShare(b: Bottleneck, steadyStateVehiclesPerHour: number): number {
+  if (b.shareOfCut > 0) return b.shareOfCut;
+  if (b.inStaticCut && steadyStateVehiclesPerHour > 0) return Math.min(1, b.capacityVehiclesPerHour / steadyStateVehiclesPerHour);
+  return 0;
+}
+
+/** When a choke point limits the evacuation, in words. */
+export function cutWindowsText(b: Bottleneck): string {
+  if (b.cutWindows.length > 0) return formatWindows(b.cutWindows);
+  return b.inStaticCut ? 'once traffic is steady' : 'none';
+}
+
+/** Largest share of the cut first; equal shares by what one more lane gains. */
+export function bottlenecksByImpact(bottlenecks: readonly Bottleneck[], steadyStateVehiclesPerHour = 0): Bottleneck[] {
+  const share = (b: Bottleneck) => cutShare(b, steadyStateVehiclesPerHour);
   return [...bottlenecks].sort(
-    (a, b) => b.shareOfCut - a.shareOfCut || b.gainPerExtraLaneVehiclesPerHour - a.gainPerExtraLaneVehiclesPerHour || a.segmentId - b.segmentId,
+    (a, b) => share(b) - share(a) || b.gainPerExtraLaneVehiclesPerHour - a.gainPerExtraLaneVehiclesPerHour || a.segmentId - b.segmentId,
   );
 }
 
@@ -85,13 +121,27 @@ export function roadTitle(b: Pick<Bottleneck, 'name' | 'roadClass' | 'segmentId'
   return b.name.trim() || `Unnamed ${b.roadClass.replaceAll('_', ' ')} (segment ${b.segmentId})`;
 }
 
+/** What one more lane would add, or why nothing is shown. */
+export function laneGainText(b: Bottleneck, gainsComputed: boolean): string {
+  if (b.gainPerExtraLaneVehiclesPerHour > 0) return `+${formatPerHour(b.gainPerExtraLaneVehiclesPerHour)}`;
+  return gainsComputed ? 'nothing (another road limits next)' : 'not worked out in this run';
+}
+
+export type ChokePointContext = { steadyStateVehiclesPerHour: number; gainsComputed: boolean };
+
+/** The context of a result the choke-point wording needs. */
+export const chokePointContext = (result: RunResult): ChokePointContext => ({
+  steadyStateVehiclesPerHour: result.headline.steadyStateVehiclesPerHour,
+  gainsComputed: result.fixes.length > 0,
+});
+
 /** The popup of a choke point; every value from the data is escaped. */
-export function chokePointPopupHtml(b: Bottleneck, heading: string | null): string {
+export function chokePointPopupHtml(b: Bottleneck, heading: string | null, context: ChokePointContext): string {
   const rows: [string, string][] = [
     ['Capacity', formatPerHour(b.capacityVehiclesPerHour)],
-    ['Share of the limiting capacity', formatShare(b.shareOfCut)],
-    ['Limiting during (h:mm after the order)', formatWindows(b.cutWindows)],
-    ['One more lane would add', b.gainPerExtraLaneVehiclesPerHour > 0 ? formatPerHour(b.gainPerExtraLaneVehiclesPerHour) : 'nothing (another road limits next)'],
+    ['Share of the limiting capacity', formatShare(cutShare(b, context.steadyStateVehiclesPerHour))],
+    ['Limiting during (h:mm after the order)', cutWindowsText(b)],
+    ['One more lane would add', laneGainText(b, context.gainsComputed)],
   ];
   const direction = heading ? `heading ${heading}` : b.direction === 'forward' ? 'as drawn' : 'against the drawing direction';
   return [

@@ -57,15 +57,19 @@ export const useWorkspaceStore = defineStore('workspace', () => {
     drawMode.value = null;
     focus.value = null;
     segmentTableOpen.value = false;
+    let loaded: Plan;
     try {
-      plan.value = await getPlan(id);
+      loaded = await getPlan(id);
     } catch (e) {
       error.value = e instanceof ApiError && e.status === 404 ? 'This plan does not exist or belongs to another organization.' : messageOf(e);
       return;
     }
     await Promise.all([roadLayer.load(id), zonesShelters.load(id), runs.load(id)]);
-    // Land where the work is: findings if there are some, else the first missing step.
+    if (planId.value !== id) return;
+    // Land where the work is: findings if there are some, else the first missing step. The
+    // panel shows only now, so nothing the planner clicks is overruled.
     tab.value = runs.result ? 'findings' : (missingSteps.value[0]?.tab ?? 'assumptions');
+    plan.value = loaded;
     if (roadLayer.layer?.bbox) focusOn(roadLayer.layer.bbox);
   }
 

@@ -14,6 +14,9 @@ describe('number formats', () => {
     expect(formatShare(0.042)).toBe('4.2 %');
     expect(formatShare(0)).toBe('0 %');
     expect(formatShare(Number.NaN)).toBe('–');
+    expect(formatShare(23135 / 23205)).toBe('99.6 %');
+    expect(formatShare(0.9999)).toBe('99.9 %');
+    expect(formatShare(1)).toBe('100 %');
   });
 
   it('writes durations in hours and minutes', () => {
