@@ -1,0 +1,132 @@
+// The main path in Chromium: the demo planner opens the demo plan, uploads a road file, draws an
+// evacuation zone and places a shelter on the map, analyses, and sees evacuees per hour and the
+// choke points on the map. Screenshots before and after the run at 1366×768 and 1920×1080.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { launchChromium, screenshotDir } from './support/chromium';
+import { startLiveServer, type LiveServer } from './support/live-server';
+
+let server: LiveServer;
+let browser: { context: BrowserContext; close: () => Promise<void> };
+const sizes = [
+  { width: 1366, height: 768 },
+  { width: 1920, height: 1080 },
+];
+
+beforeAll(async () => {
+  server = await startLiveServer();
+  browser = await launchChromium(sizes[0]);
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+async function shoot(page: Page, name: string) {
+  for (const size of sizes) {
+    await page.setViewportSize(size);
+    // Leaflet redraws on resize; give the canvas a moment.
+    await page.waitForTimeout(700);
+    await page.screenshot({ path: path.join(screenshotDir, `${name}-${size.width}x${size.height}.png`) });
+  }
+  await page.setViewportSize(sizes[0]!);
+  await page.waitForTimeout(500);
+}
+
+/** A point on the map at a share of its width and height. */
+async function mapPoint(page: Page, x: number, y: number) {
+  const box = (await page.locator('.leaflet-container').boundingBox())!;
+  return { x: box.x + box.width * x, y: box.y + box.height * y };
+}
+
+it('goes from the plans list to choke points on the map', async () => {
+  const page = await browser.context.newPage();
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByLabel('E-mail address').fill('planner@cutline.example');
+  await page.getByLabel('Password').fill('planner-demo-2026');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/plans$/);
+  await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
+  await page.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
+  await page.locator('[data-test="side-panel"]').waitFor();
+  expect(await page.locator('[data-test="page-title"]').innerText()).toBe('Veltmoor river crossings');
+
+  // Upload a road file (the town's roads under a new name): the report replaces the old one.
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cutline-roads-'));
+  const roadFile = path.join(dir, 'veltmoor-roads-upload.geojson');
+  fs.copyFileSync(path.resolve(import.meta.dirname, '../../server/seed/demo-town/roads.geojson'), roadFile);
+  await page.locator('[data-test="tab-roads-button"]').click();
+  await page.locator('[data-test="road-file"]').setInputFiles(roadFile);
+  await page.locator('[data-test="tab-roads"] h2', { hasText: 'veltmoor-roads-upload.geojson' }).waitFor();
+  expect(await page.locator('[data-test="import-report"]').innerText()).toMatch(/[\d,]+ segments and [\d,]+ junctions/);
+  await page.locator('[data-test="map-status"]', { hasText: 'road segments loaded' }).waitFor();
+
+  // Draw a zone on the west bank: four corners, then the first again to close it.
+  await page.locator('[data-test="draw-zone"]').click();
+  await page.locator('[data-test="drawing-hint"]').waitFor();
+  const corners = [
+    [0.2, 0.36],
+    [0.3, 0.36],
+    [0.3, 0.5],
+    [0.2, 0.5],
+    [0.2, 0.36],
+  ] as const;
+  for (const [x, y] of corners) {
+    const p = await mapPoint(page, x, y);
+    await page.mouse.click(p.x, p.y);
+    await page.waitForTimeout(150);
+  }
+  await page.locator('[data-test="zone-form"]').waitFor();
+  await page.locator('[data-test="zone-name"] input').fill('Drawn zone');
+  await page.locator('[data-test="zone-population"] input').fill('2400');
+  expect(await page.locator('[data-test="zone-vehicles"]').innerText()).toMatch(/About [\d,]+ vehicles/);
+  await page.locator('[data-test="zone-save"]').click();
+  await page.locator('[data-test="zone-item"]', { hasText: 'Drawn zone' }).waitFor();
+
+  // Place a shelter on the east bank.
+  await page.locator('[data-test="place-shelter"]').click();
+  const at = await mapPoint(page, 0.62, 0.42);
+  await page.mouse.click(at.x, at.y);
+  await page.locator('[data-test="shelter-form"]').waitFor();
+  await page.locator('[data-test="shelter-name"] input').fill('Drawn shelter');
+  await page.locator('[data-test="shelter-capacity"] input').fill('4000');
+  await page.locator('[data-test="shelter-save"]').click();
+  await page.locator('[data-test="shelter-item"]', { hasText: 'Drawn shelter' }).waitFor();
+  await page.locator('[data-test="shelter-item"]', { hasText: 'Drawn shelter' }).getByText(/Reached from junction/).waitFor();
+
+  await page.locator('[data-test="tab-assumptions-button"]').click();
+  await shoot(page, 'workspace-before-run');
+
+  // Analyse, follow the progress, read the findings.
+  await page.locator('[data-test="analyse"]').click();
+  await page.locator('[data-test="headline-throughput"]').waitFor({ timeout: 90_000 });
+  const throughput = Number((await page.locator('[data-test="headline-throughput"] [data-test="headline-value"]').innerText()).replaceAll(',', ''));
+  expect(throughput).toBeGreaterThan(0);
+  expect(await page.locator('[data-test="caution"]').innerText()).toContain("emergency operations plan");
+  expect(await page.locator('[data-test="bottleneck-row"]').count()).toBeGreaterThan(0);
+  // Choke points are drawn on their own SVG pane, over the canvas roads (a straight bridge is a
+  // path with no height, which Playwright calls hidden: wait for it to be there, then check it).
+  const chokePaths = page.locator('.leaflet-cutline-choke-points-pane path.cutline-choke-point');
+  await chokePaths.first().waitFor({ state: 'attached' });
+  expect(await chokePaths.count()).toBeGreaterThan(0);
+  expect(await chokePaths.first().getAttribute('stroke')).toBe('#4a1d7a');
+  expect(await chokePaths.first().getAttribute('d')).toMatch(/^M-?\d+ -?\d+L/);
+  await shoot(page, 'workspace-after-run');
+
+  // The first choke point in the table: the map zooms to it and opens its figures.
+  await page.locator('[data-test="bottleneck-row"]').first().click();
+  const popup = page.locator('.cutline-choke-popup');
+  await popup.waitFor();
+  expect(await popup.innerText()).toContain('Share of the limiting capacity');
+  // Let the popup finish fading in.
+  await page.waitForTimeout(400);
+  await page.screenshot({ path: path.join(screenshotDir, 'workspace-choke-point-1366x768.png') });
+
+  expect(errors).toEqual([]);
+});
