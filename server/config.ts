@@ -21,6 +21,8 @@ const configSchema = z.object({
   RUN_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(6144),
   // How often the queue looks for jobs of dead workers to retry.
   QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
+  // A job still active this long after its time budget belongs to a dead worker and is retried.
+  RUN_EXPIRY_SLACK_SECONDS: z.coerce.number().int().min(1).default(30),
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
   // Briefing e-mail. Empty SMTP_URL with the development outbox on: the server starts its own

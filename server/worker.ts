@@ -10,7 +10,11 @@ const config = loadConfig();
 const { db, pool } = createDatabase(config.DATABASE_URL);
 const queue = await startRunQueue(config);
 const executor = createRunExecutor(db, config, (e) => console.error('[worker]', e));
-await queue.work(config.WORKER_CONCURRENCY, ({ runId }) => executor.execute(runId));
+await queue.work(config.WORKER_CONCURRENCY, async ({ runId }) => {
+  console.log(`[worker] pid ${process.pid} took run ${runId}`);
+  await executor.execute(runId);
+  console.log(`[worker] pid ${process.pid} finished run ${runId}`);
+});
 console.log(`[worker] ${hostname()} pid ${process.pid}: taking runs from the queue (${config.WORKER_CONCURRENCY} at a time)`);
 
 let stopping = false;

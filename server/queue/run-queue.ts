@@ -7,7 +7,7 @@ import type { Config } from '../config';
 export const RUN_QUEUE = 'runs';
 export type RunJob = { runId: string };
 
-export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_TIME_BUDGET_SECONDS' | 'QUEUE_MAINTENANCE_SECONDS'>) {
+export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_TIME_BUDGET_SECONDS' | 'QUEUE_MAINTENANCE_SECONDS' | 'RUN_EXPIRY_SLACK_SECONDS'>) {
   const boss = new PgBoss({
     connectionString: config.DATABASE_URL,
     schema: 'pgboss',
@@ -31,7 +31,7 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
         retryLimit: 3,
         retryDelay: 1,
         // A job still active after the budget (plus slack) belongs to a dead worker: retry it.
-        expireInSeconds: Math.ceil(config.RUN_TIME_BUDGET_SECONDS + 30),
+        expireInSeconds: Math.ceil(config.RUN_TIME_BUDGET_SECONDS + config.RUN_EXPIRY_SLACK_SECONDS),
       });
       if (id === null) throw new Error(`run ${runId} could not be queued`);
     },

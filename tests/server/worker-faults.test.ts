@@ -1,0 +1,124 @@
+// Real worker processes sharing the queue on the real database: a worker killed mid-run
+// (SIGKILL) leaves the run to another, which finishes it once; a worker stopped with SIGTERM
+// loses nothing; two workers never take the same run twice.
+import { spawn, type ChildProcess } from 'node:child_process';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startRunQueue, type RunQueue } from '../../server/queue/run-queue';
+import { createApp } from '../../server/app';
+import { createTestContext, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
+import { defaultRunParameters, runWithResultSchema, type RunWithResult } from '../../shared/api/runs';
+
+const root = path.resolve(import.meta.dirname, '../..');
+const workerEnv = { RUN_TIME_BUDGET_SECONDS: '40', RUN_EXPIRY_SLACK_SECONDS: '2', QUEUE_MAINTENANCE_SECONDS: '1' };
+
+type Worker = { proc: ChildProcess; took: string[]; finished: string[] };
+const workers: Worker[] = [];
+
+function startWorker(databaseUrl: string): Promise<Worker> {
+  const proc = spawn(process.execPath, ['--import', 'tsx', 'server/worker.ts'], {
+    cwd: root,
+    env: { ...process.env, ...workerEnv, DATABASE_URL: databaseUrl, NODE_ENV: 'test' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  const w: Worker = { proc, took: [], finished: [] };
+  workers.push(w);
+  return new Promise((resolve, reject) => {
+    proc.stdout!.on('data', (chunk: Buffer) => {
+      for (const line of chunk.toString().split('\n')) {
+        const took = /took run (\S+)/.exec(line);
+        const done = /finished run (\S+)/.exec(line);
+        if (took) w.took.push(took[1]!);
+        if (done) w.finished.push(done[1]!);
+        if (/taking runs from the queue/.test(line)) resolve(w);
+      }
+    });
+    proc.on('exit', (code) => reject(new Error(`worker exited early (${code})`)));
+  });
+}
+
+let ctx: TestContext;
+let queue: RunQueue;
+let app: ReturnType<typeof createApp>;
+let planner: SignedInAgent;
+let planId: string;
+
+async function until<T>(what: string, timeoutMs: number, probe: () => Promise<T | undefined>): Promise<T> {
+  const end = Date.now() + timeoutMs;
+  for (;;) {
+    const v = await probe();
+    if (v !== undefined) return v;
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+async function getRun(id: string): Promise<RunWithResult> {
+  return runWithResultSchema.parse((await planner.agent.get(`/api/plans/${planId}/runs/${id}`).expect(200)).body);
+}
+
+async function startRun(parameters: object): Promise<string> {
+  return (await planner.agent.post(`/api/plans/${planId}/runs`).set('x-csrf-token', planner.csrf).send({ parameters }).expect(202)).body.id;
+}
+
+beforeAll(async () => {
+  ctx = await createTestContext(workerEnv);
+  queue = await startRunQueue(ctx.config);
+  app = createApp({ config: ctx.config, db: ctx.db, pool: ctx.pool, clientDir: '/nonexistent', runQueue: queue, log: (e) => ctx.errors.push(e) });
+  planner = await signInAs(app, 'planner');
+  planId = (await planner.agent.get('/api/plans').expect(200)).body.plans[0].id;
+  await Promise.all([startWorker(ctx.url), startWorker(ctx.url)]);
+}, 60_000);
+
+afterAll(async () => {
+  for (const w of workers) w.proc.kill('SIGKILL');
+  await queue?.stop();
+  await ctx?.drop();
+});
+
+describe('worker faults', () => {
+  it('a run whose worker is killed mid-run finishes on the other worker, stored once', async () => {
+    // Long enough to be caught mid-solve: 4 hours in 10-second steps at half capacity.
+    const id = await startRun({ ...defaultRunParameters, horizonMinutes: 4 * 60, timeStepSeconds: 10, capacityFactor: 0.5 });
+    const victim = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id)));
+    await until('the solve to be under way', 20_000, async () => ((await getRun(id)).status === 'running' ? true : undefined));
+    victim.proc.kill('SIGKILL');
+    const survivor = workers.find((w) => w !== victim)!;
+    const done = await until('the run to finish elsewhere', 90_000, async () => {
+      const r = await getRun(id);
+      return r.status === 'succeeded' || r.status === 'failed' ? r : undefined;
+    });
+    expect(done.status, done.failureReason ?? '').toBe('succeeded');
+    expect(survivor.finished).toContain(id);
+    expect(victim.finished).not.toContain(id);
+    const stored = await ctx.pool.query("SELECT count(*)::int AS n FROM runs WHERE id = $1 AND status = 'succeeded' AND result IS NOT NULL", [id]);
+    expect(stored.rows[0].n).toBe(1);
+  }, 150_000);
+
+  it('several runs shared by the workers are each taken once', async () => {
+    await startWorker(ctx.url);
+    const ids = [];
+    for (const step of [60, 90, 120, 180]) ids.push(await startRun({ ...defaultRunParameters, horizonMinutes: 180, timeStepSeconds: step }));
+    await until('all runs to finish', 90_000, async () => {
+      const runs = await Promise.all(ids.map(getRun));
+      return runs.every((r) => r.status === 'succeeded') ? true : undefined;
+    });
+    const alive = workers.filter((w) => w.proc.exitCode === null && w.proc.signalCode === null);
+    for (const id of ids) {
+      const takers = alive.flatMap((w) => w.took.filter((t) => t === id));
+      expect(takers).toHaveLength(1);
+    }
+  }, 120_000);
+
+  it('a worker stopped with SIGTERM mid-run loses nothing', async () => {
+    const id = await startRun({ ...defaultRunParameters, horizonMinutes: 4 * 60, timeStepSeconds: 10, capacityFactor: 0.45 });
+    const taker = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id) && w.proc.exitCode === null));
+    taker.proc.kill('SIGTERM');
+    const done = await until('the run to finish', 90_000, async () => {
+      const r = await getRun(id);
+      return r.status === 'succeeded' || r.status === 'failed' ? r : undefined;
+    });
+    expect(done.status, done.failureReason ?? '').toBe('succeeded');
+    expect(done.result!.headline.steadyStateVehiclesPerHour).toBeGreaterThan(0);
+  }, 150_000);
+});
