@@ -170,7 +170,12 @@ export const verificationSchema = z.object({
   onRecord: z.enum(['signed-copy', 'draft', 'none']),
   /** The content SHA-256 in the file equals the one recorded for that briefing. */
   contentMatchesRecord: z.boolean().nullable(),
-  certificate: z.object({ subject: z.string().nullable(), fingerprintSha256: z.string().nullable() }),
+  certificate: z.object({
+    subject: z.string().nullable(),
+    fingerprintSha256: z.string().nullable(),
+    // 'generated': the organisation's own self-signed certificate, which other PDF readers call untrusted.
+    source: z.enum(['generated', 'configured']).nullable(),
+  }),
   /** Title and plan, for a signed-in member of the briefing's organisation. */
   title: z.string().nullable(),
   planName: z.string().nullable(),

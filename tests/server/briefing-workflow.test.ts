@@ -238,6 +238,7 @@ describe('from draft to signed, distributed and verified', () => {
       problems: [],
     });
     expect(ok.fileSha256).toBe(briefing.files.signed!.sha256);
+    expect(ok.certificate).toMatchObject({ source: 'generated', subject: expect.stringContaining('Veltmoor Emergency Management - briefing signing') });
 
     const altered = await verify('viewer', alterOneByte(signedPdf));
     expect(altered).toMatchObject({ valid: false, unaltered: false, onRecord: 'none' });

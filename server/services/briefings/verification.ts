@@ -14,7 +14,14 @@ const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 export async function verifyUpload(db: Database, pdf: Buffer, viewerOrganizationId: string | null): Promise<Verification> {
   // Retired keys too: briefings they signed must still verify.
   const keys = await db
-    .select({ id: organizationSigningKeys.id, pem: organizationSigningKeys.certificatePem, fingerprint: organizationSigningKeys.fingerprintSha256, organizationId: organizationSigningKeys.organizationId, organizationName: organizations.name })
+    .select({
+      id: organizationSigningKeys.id,
+      pem: organizationSigningKeys.certificatePem,
+      fingerprint: organizationSigningKeys.fingerprintSha256,
+      organizationId: organizationSigningKeys.organizationId,
+      source: organizationSigningKeys.source,
+      organizationName: organizations.name,
+    })
     .from(organizationSigningKeys)
     .innerJoin(organizations, eq(organizations.id, organizationSigningKeys.organizationId));
   const v = verifyPdf(pdf, keys.map((k) => k.pem));
@@ -30,7 +37,15 @@ export async function verifyUpload(db: Database, pdf: Buffer, viewerOrganization
   const recordId = file?.briefingId ?? claimedId;
   const [record] = recordId
     ? await db
-        .select({ id: briefings.id, organizationId: briefings.organizationId, status: briefings.status, contentSha256: briefings.contentSha256, signingKeyId: briefings.signingKeyId, title: briefings.title, planName: plans.name })
+        .select({
+          id: briefings.id,
+          organizationId: briefings.organizationId,
+          status: briefings.status,
+          contentSha256: briefings.contentSha256,
+          signingKeyId: briefings.signingKeyId,
+          title: briefings.title,
+          planName: plans.name,
+        })
         .from(briefings)
         .innerJoin(plans, eq(plans.id, briefings.planId))
         .where(eq(briefings.id, recordId))
@@ -67,7 +82,7 @@ export async function verifyUpload(db: Database, pdf: Buffer, viewerOrganization
     version: v.briefing.version,
     onRecord,
     contentMatchesRecord,
-    certificate: { subject: v.signer.certificateSubject, fingerprintSha256: v.signer.certificateFingerprintSha256 },
+    certificate: { subject: v.signer.certificateSubject, fingerprintSha256: v.signer.certificateFingerprintSha256, source: key?.source ?? null },
     title: member ? record.title : null,
     planName: member ? record.planName : null,
     problems: [...new Set(problems)],
