@@ -28,6 +28,17 @@ export const router = createRouter({
       props: true,
       meta: { title: 'Plan', fullBleed: true },
     },
+    { path: '/briefings', name: 'briefings', component: () => import('@/views/BriefingListView.vue'), meta: { title: 'Briefings' } },
+    {
+      path: '/briefings/:id/review',
+      name: 'briefing',
+      component: () => import('@/views/BriefingReviewView.vue'),
+      props: true,
+      meta: { title: 'Briefing', fullBleed: true },
+    },
+    // Open to anyone holding a briefing PDF, signed in or not.
+    { path: '/verify', name: 'verify', component: () => import('@/views/BriefingVerifyView.vue'), meta: { public: true, title: 'Check a briefing' } },
+    { path: '/outbox', name: 'outbox', component: () => import('@/views/OutboxView.vue'), meta: { permission: 'users:manage', title: 'Outbox' } },
     {
       path: '/admin/map',
       name: 'map-settings',
