@@ -25,6 +25,8 @@ export type RoadSegmentsLayerOptions = {
   /** Utilisation per segment from the shown result, or null before any run. */
   loads: Ref<Map<number, SegmentLoad> | null>;
   selectedId: Ref<number | null>;
+  /** The road layer's extent, [w, s, e, n], when known. */
+  extent: Ref<[number, number, number, number] | null>;
   onSelect: (segmentId: number) => void;
 };
 
@@ -73,23 +75,25 @@ export function useRoadSegmentsLayer(handle: ShallowRef<WorkspaceMap | null>, op
     const h = handle.value;
     if (!h) return;
     if (!group) group = L.layerGroup().addTo(h.map);
-    // Another zoom means other simplification: replace every line; a pan keeps what stays.
-    if (zoom !== loadedZoom) {
-      group.clearLayers();
-      lines.clear();
-      loadedZoom = zoom;
-    }
+    // Another zoom means other simplification, but most lines keep their vertices: only a line
+    // whose vertex count changed gets new ones, so zooming does not rebuild the whole layer.
+    const rezoomed = zoom !== loadedZoom;
+    loadedZoom = zoom;
     const keep = new Set<number>();
     let added = false;
     for (const feature of result.features) {
       const p = feature.properties;
       keep.add(p.id);
       const coordinates = feature.geometry.coordinates as Coordinates;
-      if (!geometry.has(p.id)) added = true;
+      const known = geometry.get(p.id);
+      if (!known) added = true;
       geometry.set(p.id, coordinates);
       const before = properties.get(p.id);
       properties.set(p.id, p);
       const existing = lines.get(p.id);
+      if (existing && rezoomed && known?.length !== coordinates.length) {
+        existing.setLatLngs(coordinates.map(([lon, lat]) => [lat, lon] as [number, number]));
+      }
       if (existing) {
         // An edit came back: restyle only the lines whose attributes changed.
         if (before && !sameLook(before, p)) existing.setStyle(styleOf(p));
@@ -126,6 +130,7 @@ export function useRoadSegmentsLayer(handle: ShallowRef<WorkspaceMap | null>, op
       busy.value = b;
     },
     isComplete: (result) => !result.truncated,
+    extent: () => options.extent.value,
     delayMs: 180,
   });
 

@@ -1,8 +1,9 @@
 // Loads what a map view needs, at most one request in flight: a view change waits `delayMs`
 // for the map to settle (moveend fires repeatedly while a user pans), a newer view aborts the
 // older request, and an answer arrives only if it is still the latest one asked for. A view
-// inside the last padded load at the same zoom is not fetched again, unless the last answer
-// was cut short (truncated) or `reload()` is called after an edit.
+// inside the last padded load at the same zoom is not fetched again (nor any view, once a load
+// held the data's whole extent), unless the last answer was cut short (truncated) or
+// `reload()` is called after an edit.
 import { bboxContains, paddedBbox, type Bbox, type BoundsLike } from './viewport';
 
 export type ViewRequest = { view: BoundsLike; zoom: number };
@@ -16,6 +17,8 @@ export type ViewportLoaderOptions<T> = {
   isComplete?: (result: T) => boolean;
   delayMs?: number;
   padShare?: number;
+  /** Where the data lies, if known: a complete load that holds all of it covers every view. */
+  extent?: () => Bbox | null;
 };
 
 export type ViewportLoader = {
@@ -38,7 +41,10 @@ export function createViewportLoader<T>(options: ViewportLoaderOptions<T>): View
   let disposed = false;
 
   function covered(req: ViewRequest): boolean {
-    return loaded !== null && loaded.complete && loaded.zoom === req.zoom && bboxContains(loaded.bbox, req.view);
+    if (loaded === null || !loaded.complete || loaded.zoom !== req.zoom) return false;
+    if (bboxContains(loaded.bbox, req.view)) return true;
+    const extent = options.extent?.();
+    return extent !== null && extent !== undefined && bboxContains(loaded.bbox, { west: extent[0], south: extent[1], east: extent[2], north: extent[3] });
   }
 
   async function load(req: ViewRequest) {

@@ -6,7 +6,7 @@ import type { Bbox } from '../../src/map/viewport';
 
 type Call = { bbox: Bbox; zoom: number; signal: AbortSignal; resolve: (v: { truncated: boolean; id: number }) => void; reject: (e: unknown) => void };
 
-function setup(delayMs = 200, honourAbort = true) {
+function setup(delayMs = 200, honourAbort = true, extent: Bbox | null = null) {
   const calls: Call[] = [];
   const loaded: number[] = [];
   const errors: unknown[] = [];
@@ -21,6 +21,7 @@ function setup(delayMs = 200, honourAbort = true) {
     onError: (e) => errors.push(e),
     onBusy: (b) => busy.push(b),
     isComplete: (r) => !r.truncated,
+    extent: () => extent,
     delayMs,
   });
   return { loader, calls, loaded, errors, busy };
@@ -85,6 +86,17 @@ describe('viewport loader', () => {
     loader.request(view(10.01), 15);
     vi.advanceTimersByTime(200);
     expect(calls).toHaveLength(2);
+  });
+
+  it('fetches nothing more at that zoom once a complete load held the whole extent', async () => {
+    const { loader, calls } = setup(200, true, [10.02, 50.02, 10.08, 50.08]);
+    loader.request(view(10), 14);
+    vi.advanceTimersByTime(200);
+    calls[0]!.resolve({ truncated: false, id: 1 });
+    await vi.runAllTimersAsync();
+    loader.request(view(12), 14);
+    vi.advanceTimersByTime(500);
+    expect(calls).toHaveLength(1);
   });
 
   it('asks again for a covered view when the last answer was cut short', async () => {
