@@ -97,7 +97,7 @@ describe('worker faults', () => {
 
   it('several runs shared by the workers are each taken once', async () => {
     await startWorker(ctx.url);
-    const ids = [];
+    const ids: string[] = [];
     for (const step of [60, 90, 120, 180]) ids.push(await startRun({ ...defaultRunParameters, horizonMinutes: 180, timeStepSeconds: step }));
     await until('all runs to finish', 90_000, async () => {
       const runs = await Promise.all(ids.map(getRun));
