@@ -395,6 +395,37 @@ describe('returning a briefing with a comment', () => {
   });
 });
 
+describe('a run under a scenario', () => {
+  it('names the scenario and states its changes; a scenario changed since the run is refused', async () => {
+    const { rows: bridge } = await ctx.pool.query("SELECT id FROM road_segments WHERE name = 'Mill Bridge' ORDER BY id LIMIT 1");
+    const { rows: zone } = await ctx.pool.query("SELECT id FROM zones WHERE plan_id = $1 AND name = 'Riverside'", [planId]);
+    const overlay = {
+      closures: [{ segmentId: Number(bridge[0].id), fromMinutes: 180, untilMinutes: null }],
+      laneChanges: [],
+      contraflow: [],
+      classFactors: [{ roadClass: 'tertiary', factor: 0.8 }],
+      removedShelterIds: [],
+      addedShelters: [],
+      departureDelays: [{ zoneId: zone[0].id, delayMinutes: 30 }],
+    };
+    const { rows } = await ctx.pool.query(
+      "INSERT INTO scenarios (plan_id, name, description, overlay, updated_at) VALUES ($1, 'Flooded mill', 'Mill Bridge under water from hour 3', $2, now() - interval '1 minute') RETURNING id",
+      [planId, JSON.stringify(overlay)],
+    );
+    const { runId: scenarioRun } = await insertDemoRun(ctx.db, planId, null, {}, rows[0].id);
+    const res = await post('planner', '/api/briefings', { runId: scenarioRun, title: 'Flooded mill' });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const t = squeeze(pdfToText((await getPdf('planner', res.body.briefing.id)).body)).replace(/\s+/g, ' ');
+    expect(t).toContain('Scenario: Flooded mill');
+    expect(t).toContain('scenario “Flooded mill” — closed: Mill Bridge from 3 h; capacity × 0.8 on tertiary; later departures: Riverside +30 min');
+
+    await ctx.pool.query('UPDATE scenarios SET updated_at = now() WHERE id = $1', [rows[0].id]);
+    const stale = await post('planner', '/api/briefings', { runId: scenarioRun, title: 'Flooded mill again' });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.message).toMatch(/scenario “Flooded mill” changed after this analysis/);
+  });
+});
+
 describe('what a briefing can be made from', () => {
   it('refuses a run that has not finished, one whose plan changed since, one of another organisation, and bad input', async () => {
     const { runId: stale } = await insertDemoRun(ctx.db, planId, null);

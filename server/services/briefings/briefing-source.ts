@@ -4,7 +4,7 @@
 // that stored content, never from the live plan, so the signed figures are the reviewed ones.
 import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Database, Tx } from '../../db/client';
-import { organizations, plans, roadLayers, runs, shelters, users, zones } from '../../db/schema';
+import { organizations, plans, roadLayers, runs, scenarios, shelters, users, zones } from '../../db/schema';
 import type { Run } from '../../../shared/api/runs';
 import { roleLabels, type Role } from '../../../shared/api/roles';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
@@ -14,6 +14,7 @@ import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
 import { ConflictError, NotFoundError } from '../../errors';
 import { getCapacityTable } from '../capacity-table';
 import { departureCurvesDescription } from './departure-words';
+import { scenarioChanges } from './scenario-words';
 
 type RunRow = typeof runs.$inferSelect;
 
@@ -60,10 +61,24 @@ export async function finishedRun(db: Database | Tx, organizationId: string, run
   return row.run;
 }
 
-async function mapSegments(db: Database | Tx, layerId: number): Promise<MapSegment[]> {
-  const rows = await db.execute<{ id: string; road_class: string; g: string }>(sql`
-    SELECT id, road_class, ST_AsGeoJSON(geom, 7) AS g FROM road_segments WHERE layer_id = ${layerId} ORDER BY id`);
-  return rows.rows.map((r) => ({ id: Number(r.id), roadClass: r.road_class, coordinates: (JSON.parse(r.g) as { coordinates: LonLat[] }).coordinates }));
+async function mapSegments(db: Database | Tx, layerId: number): Promise<{ segments: MapSegment[]; names: Map<number, string> }> {
+  const rows = await db.execute<{ id: string; road_class: string; name: string | null; g: string }>(sql`
+    SELECT id, road_class, name, ST_AsGeoJSON(geom, 7) AS g FROM road_segments WHERE layer_id = ${layerId} ORDER BY id`);
+  return {
+    segments: rows.rows.map((r) => ({ id: Number(r.id), roadClass: r.road_class, coordinates: (JSON.parse(r.g) as { coordinates: LonLat[] }).coordinates })),
+    names: new Map(rows.rows.map((r) => [Number(r.id), r.name ?? `segment ${r.id}`])),
+  };
+}
+
+/** The run's scenario, refused if it changed after the run: the briefing would describe other changes than the figures rest on. */
+async function scenarioOfRun(db: Database | Tx, run: RunRow) {
+  if (!run.scenarioId) return null;
+  const [scenario] = await db.select().from(scenarios).where(and(eq(scenarios.id, run.scenarioId), eq(scenarios.planId, run.planId)));
+  if (!scenario) throw new ConflictError('The scenario of this analysis no longer exists, so its changes cannot be stated.');
+  if (scenario.updatedAt > run.createdAt) {
+    throw new ConflictError(`The scenario “${scenario.name}” changed after this analysis. Analyse it again and brief the new run.`);
+  }
+  return scenario;
 }
 
 /**
@@ -91,7 +106,21 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
   const zoneRows = await db.select().from(zones).where(eq(zones.planId, run.planId)).orderBy(asc(zones.id));
   const shelterRows = await db.select().from(shelters).where(eq(shelters.planId, run.planId)).orderBy(asc(shelters.id));
   const table = await getCapacityTable(db, organizationId, run.planId);
-  const segments = await mapSegments(db, layer.id);
+  const { segments, names } = await mapSegments(db, layer.id);
+  const scenario = await scenarioOfRun(db, run);
+  const changes = scenario
+    ? scenarioChanges(scenario.overlay, {
+        segment: (id) => names.get(id) ?? `segment ${id}`,
+        zone: (id) => zoneRows.find((z) => z.id === id)?.name ?? `zone ${id}`,
+        shelter: (id) => shelterRows.find((sh) => sh.id === id)?.name ?? `shelter ${id}`,
+      })
+    : [];
+  const removed = new Set(scenario?.overlay.removedShelterIds ?? []);
+  // Added shelters have no row of their own; negative ids keep them apart from the plan's.
+  const mapShelters = [
+    ...shelterRows.filter((sh) => !removed.has(sh.id)).map((sh) => ({ id: sh.id, name: sh.name, location: [sh.lon, sh.lat] as LonLat })),
+    ...(scenario?.overlay.addedShelters ?? []).map((sh, i) => ({ id: -(i + 1), name: sh.name, location: [sh.lon, sh.lat] as LonLat })),
+  ];
 
   const tableFactor = table.capacityFactor === 1 ? '' : `the plan's capacity table adds × ${formatDecimal(table.capacityFactor)}`;
   const factorNote = [tableFactor, table.capacityFactorNote].filter(Boolean).join('; ');
@@ -102,8 +131,7 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
     version: o.version,
     organizationName: plan.organizationName,
     planName: plan.name,
-    // Scenarios are not stored yet; a scenario run is named by its identifier until they are.
-    scenarioName: run.scenarioId ? `scenario ${run.scenarioId.slice(0, 8)}` : null,
+    scenarioName: scenario?.name ?? null,
     createdAt: o.createdAt,
     preparedBy: { name: preparer?.name ?? 'unknown', role: roleLabels[o.preparer.role] },
     status: 'draft',
@@ -112,7 +140,8 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
     assumptions: {
       dataDescription:
         `road layer “${layer.name}” imported ${formatDate(layer.createdAt, o.timeZone)} from ${layer.sourceFileName} ` +
-        `(${formatCount(layer.segmentCount)} segments), ${zoneRows.length} evacuation zones, ${shelterRows.length} shelters and exits`,
+        `(${formatCount(layer.segmentCount)} segments), ${zoneRows.length} evacuation zones, ${shelterRows.length} shelters and exits` +
+        (scenario ? `; scenario “${scenario.name}”${changes.length ? ` — ${changes.join('; ')}` : ', no changes'}${scenario.description ? ` (${scenario.description})` : ''}` : ''),
       capacityTable: table.rows.map((r) => ({ ...r })),
       capacityFactorNote: factorNote,
       personsPerVehicle: meanPersonsPerVehicle(zoneRows),
@@ -125,7 +154,7 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
     map: {
       segments,
       zones: mapZones,
-      shelters: shelterRows.map((s) => ({ id: s.id, name: s.name, location: [s.lon, s.lat] as LonLat })),
+      shelters: mapShelters,
     },
     verificationUrl: o.verificationUrl,
     timeZone: o.timeZone,

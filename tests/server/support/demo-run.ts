@@ -37,7 +37,13 @@ function firstAt(curve: number[], stepMinutes: number, target: number): number |
   return i < 0 ? null : i * stepMinutes;
 }
 
-export async function insertDemoRun(db: Database, planId: string, createdBy: string | null, parameters: Partial<RunParameters> = {}): Promise<{ runId: string; result: RunResult }> {
+export async function insertDemoRun(
+  db: Database,
+  planId: string,
+  createdBy: string | null,
+  parameters: Partial<RunParameters> = {},
+  scenarioId: string | null = null,
+): Promise<{ runId: string; result: RunResult }> {
   const p: RunParameters = { horizonMinutes: 720, timeStepSeconds: 300, capacityFactor: 1, algorithm: 'auto', ...parameters };
   const [plan] = await db.select({ dataVersion: plans.dataVersion }).from(plans).where(eq(plans.id, planId));
   const [layer] = await db.select({ id: roadLayers.id }).from(roadLayers).where(and(eq(roadLayers.planId, planId), eq(roadLayers.active, true)));
@@ -140,6 +146,7 @@ export async function insertDemoRun(db: Database, planId: string, createdBy: str
     .insert(runs)
     .values({
       planId,
+      scenarioId,
       status: 'succeeded',
       phase: 'done',
       progress: 1,
