@@ -130,3 +130,38 @@ it('goes from the plans list to choke points on the map', async () => {
 
   expect(errors).toEqual([]);
 });
+
+it('shows no basemap by default, and the tile layer with its attribution once an admin sets one', async () => {
+  await browser.context.clearCookies();
+  const page = await browser.context.newPage();
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByLabel('E-mail address').fill('admin@cutline.example');
+  await page.getByLabel('Password').fill('admin-demo-2026');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/plans$/);
+
+  await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
+  await page.locator('[data-test="map-status"]', { hasText: 'road segments loaded' }).waitFor();
+  expect(await page.locator('.leaflet-tile-pane img').count()).toBe(0);
+  expect(await page.locator('.leaflet-control-scale').count()).toBe(1);
+
+  // Tiles from a port nothing listens on: the layer and attribution appear, the images fail.
+  await page.goto(`${server.url}/admin/map`);
+  await page.locator('[data-test="map-settings-form"]').waitFor();
+  await page.locator('[data-test="tile-url"] input').fill('http://127.0.0.1:9/{z}/{x}/{y}.png');
+  await page.getByLabel('Attribution').fill('Test tiles');
+  await page.getByRole('button', { name: 'Save' }).click();
+  await page.getByText('Saved.').waitFor();
+  await page.goto(`${server.url}/plans`);
+  await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
+  await page.locator('.leaflet-tile-pane img').first().waitFor({ state: 'attached' });
+  expect(await page.locator('.leaflet-control-attribution').innerText()).toContain('Test tiles');
+
+  await page.goto(`${server.url}/admin/map`);
+  await page.locator('[data-test="map-settings-form"]').waitFor();
+  expect(await page.locator('[data-test="tile-url"] input').inputValue()).toBe('http://127.0.0.1:9/{z}/{x}/{y}.png');
+  await page.locator('[data-test="tile-url"] input').fill('');
+  await page.getByLabel('Attribution').fill('');
+  await page.getByRole('button', { name: 'Save' }).click();
+  await page.getByText('Saved. Maps opened from now on use no basemap.').waitFor();
+});
