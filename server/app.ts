@@ -25,6 +25,9 @@ import { createSettings } from './services/settings';
 import { runsRouter } from './routes/runs';
 import type { RunEnqueuer } from './routes/runs';
 import { healthRouter } from './routes/health';
+import { randomUUID } from 'node:crypto';
+import { pinoHttp } from 'pino-http';
+import { createLogger } from './logger';
 import { scenariosRouter } from './routes/scenarios';
 import { batchesRouter } from './routes/batches';
 import { briefingsRouter } from './routes/briefings';
@@ -42,7 +45,9 @@ export type AppDeps = {
 
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-export function createApp({ config, db, pool, log = console.error, clientDir = defaultClientDir, runQueue }: AppDeps) {
+export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue }: AppDeps) {
+  const logger = createLogger(config);
+  const log = givenLog ?? ((err: unknown) => logger.error({ err }, 'unhandled error'));
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -57,6 +62,18 @@ export function createApp({ config, db, pool, log = console.error, clientDir = d
           'img-src': ["'self'", 'data:', 'blob:', () => settings.tileOrigin() ?? "'self'"],
         },
       },
+    }),
+  );
+  // One JSON line per request with a request id (also sent back as x-request-id).
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const id = (req.headers['x-request-id'] as string | undefined)?.slice(0, 100) || randomUUID();
+        res.setHeader('x-request-id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === '/healthz' },
     }),
   );
   // Health checks come before sessions: probes carry no cookie and must not create sessions.

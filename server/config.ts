@@ -15,6 +15,7 @@ const configSchema = z.object({
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // Per-run budget: a larger problem is refused before it starts; a longer or hungrier solve is stopped.
   RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(30_000_000),
   RUN_TIME_BUDGET_SECONDS: z.coerce.number().positive().default(900),
