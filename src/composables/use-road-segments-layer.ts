@@ -25,8 +25,9 @@ export type RoadSegmentsLayerOptions = {
   /** Utilisation per segment from the shown result, or null before any run. */
   loads: Ref<Map<number, SegmentLoad> | null>;
   selectedId: Ref<number | null>;
-  /** The road layer's extent, [w, s, e, n], when known. */
-  extent: Ref<[number, number, number, number] | null>;
+  /** The road layer's extent, [w, s, e, n], when known: once all of it is loaded, pans at the
+   *  same zoom need no request. */
+  extent?: Ref<[number, number, number, number] | null>;
   onSelect: (segmentId: number) => void;
 };
 
@@ -130,7 +131,7 @@ export function useRoadSegmentsLayer(handle: ShallowRef<WorkspaceMap | null>, op
       busy.value = b;
     },
     isComplete: (result) => !result.truncated,
-    extent: () => options.extent.value,
+    extent: () => options.extent?.value ?? null,
     delayMs: 180,
   });
 
