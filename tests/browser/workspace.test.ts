@@ -119,6 +119,14 @@ it('goes from the plans list to choke points on the map', async () => {
   expect(await chokePaths.first().getAttribute('d')).toMatch(/^M-?\d+ -?\d+L/);
   await shoot(page, 'workspace-after-run');
 
+  // The downloads answer with the run's arcs, choke points and curve.
+  for (const [label, type] of [['Roads with flows', 'geo+json'], ['Choke points', 'text/csv'], ['Curve', 'text/csv']] as const) {
+    const href = await page.locator('[data-test="exports"] a', { hasText: label }).getAttribute('href');
+    const answer = await page.request.get(`${server.url}${href}`);
+    expect(answer.status()).toBe(200);
+    expect(answer.headers()['content-type']).toContain(type);
+  }
+
   // The first choke point in the table: the map zooms to it and opens its figures.
   await page.locator('[data-test="bottleneck-row"]').first().click();
   const popup = page.locator('.cutline-choke-popup');
