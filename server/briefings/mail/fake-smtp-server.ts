@@ -83,7 +83,9 @@ export async function startFakeSmtpServer(options: FakeSmtpOptions = {}): Promis
           raw,
           parsed: parseMessage(raw),
         };
-        Promise.resolve(options.onMessage?.(message)).then(
+        Promise.resolve()
+          .then(() => options.onMessage?.(message))
+          .then(
           () => {
             kept.push(message);
             if (kept.length > keep) kept.splice(0, kept.length - keep);

@@ -11,6 +11,11 @@ export function templateDatabase(): string {
   return name;
 }
 
+/** Creation time and a random tail, so stale leftovers can be told from live databases. */
+export function testDatabaseStamp(): string {
+  return `${Math.floor(Date.now() / 1000)}_${randomBytes(5).toString('hex')}`;
+}
+
 export function baseUrl(): string {
   return process.env.CUTLINE_TEST_DATABASE_BASE_URL ?? `postgres://postgres@127.0.0.1:${process.env.CUTLINE_PG_PORT ?? 54329}/`;
 }
@@ -32,7 +37,7 @@ export async function withAdminClient<T>(fn: (client: pg.Client) => Promise<T>):
 export type TestDatabase = { name: string; url: string; db: Database; pool: pg.Pool; drop: () => Promise<void> };
 
 export async function createTestDatabase(): Promise<TestDatabase> {
-  const name = `cutline_test_${randomBytes(5).toString('hex')}`;
+  const name = `cutline_test_${testDatabaseStamp()}`;
   await withAdminClient((c) => c.query(`CREATE DATABASE "${name}" TEMPLATE "${templateDatabase()}"`));
   const url = databaseUrl(name);
   const { db, pool } = createDatabase(url);
