@@ -132,11 +132,17 @@ it('a planner makes a briefing, the official signs it, and the verification page
 
   // A copy with one byte changed is not.
   const altered = Buffer.from(signedPdf);
-  const at = altered.indexOf('stream\n', 2000) + 40;
+  // The last digit of the first page's width: still a readable PDF, but not the bytes that were signed.
+  const box = /\/MediaBox \[[\d. ]*?(\d) /.exec(altered.toString('latin1'))!;
+  const at = box.index + box[0].length - 2;
   altered[at] = altered[at]! ^ 0x01;
-  fs.writeFileSync(file, altered);
-  await page.locator('[data-test="verify-file"] input[type="file"]').setInputFiles(file);
+  const alteredFile = path.join(dir, 'altered-briefing.pdf');
+  fs.writeFileSync(alteredFile, altered);
+  await page.locator('[data-test="verify-file"] input[type="file"]').setInputFiles(alteredFile);
+  // Check only once the file field shows the new file.
+  await page.locator('[data-test="verify-file"]', { hasText: 'altered-briefing.pdf' }).waitFor();
   await page.locator('[data-test="verify-submit"]').click();
+  await page.locator('[data-test="verify-verdict"]', { hasText: 'Not valid' }).waitFor();
   await page.locator('[data-test="verify-problems"]').waitFor();
   expect(await page.locator('[data-test="verify-verdict"]').innerText()).toBe('Not valid');
   await shot(page, '7-verify-altered');
