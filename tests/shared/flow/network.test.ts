@@ -119,4 +119,13 @@ describe('maxFlow', () => {
       expect(() => maxFlow(network, 0, 1, { algorithm, shouldAbort: () => true })).toThrow(FlowAbortedError);
     }
   });
+
+  it('regression: a child reached by two parallel arcs is repaired once (incremental-bfs hung)', () => {
+    const arcs = [[4, 3, 5], [5, 4, 1], [0, 5, 8], [0, 1, 4], [2, 0, 9], [2, 3, 0], [4, 2, 1], [0, 4, 5], [3, 5, 7], [2, 5, 7], [0, 5, 9], [2, 0, 3], [4, 5, 9], [3, 0, 8], [5, 2, 1], [0, 4, 5], [2, 4, 4]].map(([from, to, capacity]) => ({ from: from!, to: to!, capacity: capacity! }));
+    const network = buildNetwork(6, arcs);
+    const reference = maxFlow(network, 0, 5, { algorithm: 'edmonds-karp' }).value;
+    const result = maxFlow(network, 0, 5, { algorithm: 'incremental-bfs' });
+    expect(result.value).toBe(reference);
+    expect(verify(network, result).ok).toBe(true);
+  });
 });

@@ -13,9 +13,10 @@ import {
   netOutflow,
   verify,
   arcFlows,
+  emptyStats,
   type FlowNetwork,
 } from '../../../shared/flow';
-import { emptyStats } from '../../../shared/flow/solve-context';
+
 import { randomGraph } from './support/random-graphs';
 
 const factories = {
