@@ -28,6 +28,16 @@ export const router = createRouter({
       props: true,
       meta: { title: 'Plan', fullBleed: true },
     },
+    { path: '/plans/:planId/scenarios', name: 'scenarios', component: () => import('@/views/ScenarioListView.vue'), props: true, meta: { title: 'Scenarios' } },
+    {
+      path: '/plans/:planId/scenarios/:scenarioId',
+      name: 'scenario',
+      component: () => import('@/views/ScenarioEditorView.vue'),
+      props: true,
+      meta: { title: 'Scenario', fullBleed: true },
+    },
+    { path: '/plans/:planId/compare', name: 'run-comparison', component: () => import('@/views/RunComparisonView.vue'), props: true, meta: { title: 'Compare runs' } },
+    { path: '/plans/:planId/batches/:batchId', name: 'batch', component: () => import('@/views/BatchView.vue'), props: true, meta: { title: 'Sweep' } },
     { path: '/briefings', name: 'briefings', component: () => import('@/views/BriefingListView.vue'), meta: { title: 'Briefings' } },
     {
       path: '/briefings/:id/review',
