@@ -1,0 +1,97 @@
+// One measurement in its own process, so that peak memory belongs to it alone. Prints one JSON
+// line. Modes:
+//   --instance NAME --write-dimacs FILE             write the instance's s–t network
+//   --instance NAME --algorithm A [--repeat N] [--budget-ms B]   one max flow, N times
+//   --instance NAME --evacuation                    solveEvacuation with per-phase timings
+import { closeSync, openSync, writeSync } from 'node:fs';
+import { parseArgs } from 'node:util';
+import {
+  FlowAbortedError,
+  createFlowState,
+  dimacsMaxFlowChunks,
+  maxFlow,
+  networkToDimacs,
+  solveEvacuation,
+  verify,
+  type MaxFlowAlgorithmChoice,
+} from '../../../shared/flow';
+import { findInstance, networkOf, problemOf } from './instances';
+
+const { values } = parseArgs({
+  options: {
+    instance: { type: 'string' },
+    algorithm: { type: 'string' },
+    repeat: { type: 'string', default: '1' },
+    'budget-ms': { type: 'string' },
+    'write-dimacs': { type: 'string' },
+    evacuation: { type: 'boolean', default: false },
+  },
+});
+const instance = findInstance(values.instance ?? '');
+const peakRssMb = (): number => Math.round(process.resourceUsage().maxRSS / 1024);
+const problem = problemOf(instance);
+const print = (o: object): void => void process.stdout.write(`${JSON.stringify(o)}\n`);
+
+if (values.evacuation) {
+  const started = performance.now();
+  const result = solveEvacuation(problem, { now: () => performance.now() });
+  print({
+    instance: instance.name,
+    totalMs: Math.round(performance.now() - started),
+    timingsMs: Object.fromEntries(Object.entries(result.stats.timingsMs ?? {}).map(([k, v]) => [k, Math.round(v)])),
+    nodes: result.stats.timeExpandedNetwork.nodes,
+    arcs: result.stats.timeExpandedNetwork.arcs,
+    demand: result.demandVehicles,
+    deliveredByHorizon: result.curve.deliveredVehiclesByStep[problem.horizonSteps],
+    clearanceStep: result.curve.clearanceStep,
+    steadyStateVehPerHour: result.steadyState.throughputVehPerHour,
+    algorithm: result.stats.algorithm,
+    peakRssMb: peakRssMb(),
+  });
+} else {
+  const { network, source, sink } = networkOf(instance, problem);
+  if (values['write-dimacs']) {
+    const fd = openSync(values['write-dimacs'], 'w');
+    for (const chunk of dimacsMaxFlowChunks(networkToDimacs(network, source, sink), [`bench instance ${instance.name}: ${instance.description}`])) writeSync(fd, chunk);
+    closeSync(fd);
+    print({ instance: instance.name, nodes: network.nodeCount, arcs: network.arcCount });
+  } else {
+    const algorithm = (values.algorithm ?? 'auto') as MaxFlowAlgorithmChoice;
+    const budget = values['budget-ms'] === undefined ? undefined : Number(values['budget-ms']);
+    const times: number[] = [];
+    let value = 0;
+    let used = '';
+    let verified = true;
+    let aborted = false;
+    for (let k = 0; k < Number(values.repeat); k++) {
+      const started = performance.now();
+      const shouldAbort = budget === undefined ? undefined : () => performance.now() - started > budget;
+      try {
+        const result = maxFlow(network, source, sink, { algorithm, state: createFlowState(network), now: () => performance.now(), shouldAbort });
+        times.push(result.stats.elapsedMs!);
+        value = result.value;
+        used = result.algorithm;
+        if (k === 0) verified = verify(network, result).ok;
+      } catch (e) {
+        if (!(e instanceof FlowAbortedError)) throw e;
+        aborted = true;
+        times.push(performance.now() - started);
+        break;
+      }
+    }
+    times.sort((a, b) => a - b);
+    print({
+      instance: instance.name,
+      algorithm: used || algorithm,
+      nodes: network.nodeCount,
+      arcs: network.arcCount,
+      value: aborted ? null : value,
+      aborted,
+      runs: times.length,
+      solveMs: Math.round(times[Math.floor((times.length - 1) / 2)]! * 10) / 10,
+      bestMs: Math.round(times[0]! * 10) / 10,
+      verified: aborted ? null : verified,
+      peakRssMb: peakRssMb(),
+    });
+  }
+}
