@@ -186,6 +186,7 @@ for (const name of ['static-250k', 'expanded-5m']) {
   const ek = get(name, 'ours: edmonds-karp');
   if (fast && ek) check(`faster algorithm at least 10× Edmonds–Karp on ${name}`, ek.solveMs! >= 10 * fast.solveMs!, `${ek.aborted ? 'more than ' : ''}${(ek.solveMs! / fast.solveMs!).toFixed(0)}× (${ek.aborted ? '> ' : ''}${fmt(ek.solveMs)} ms vs ${fmt(fast.solveMs)} ms)`);
 }
+lines.push('', `Load average at the end: ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}.`);
 lines.push('', 'Targets of issue 3:', '', ...targets);
 const table = lines.join('\n');
 process.stdout.write(`${table}\n`);
