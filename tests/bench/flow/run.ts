@@ -143,7 +143,7 @@ const fmt = (n: number | null | undefined): string => (n === null || n === undef
 const lines: string[] = [];
 lines.push(`Measured ${machine.date} on ${machine.cpu}, ${machine.memoryGiB} GiB, Node ${machine.node}, Boost ${machine.boost}; load average at start ${machine.loadAverageAtStart}.`);
 lines.push('');
-lines.push('| instance | N | M | solver | value | solve ms | × faster Boost | peak RSS MB | notes |');
+lines.push('| instance | N | M | solver | value | solve ms | time ÷ faster Boost | peak RSS MB | notes |');
 lines.push('|---|---:|---:|---|---:|---:|---:|---:|---|');
 for (const instance of INSTANCES) {
   const mine = rows.filter((r) => r.instance === instance.name);
