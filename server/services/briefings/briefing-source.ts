@@ -5,7 +5,6 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Database, Tx } from '../../db/client';
 import { organizations, plans, roadLayers, runs, scenarios, shelters, users, zones } from '../../db/schema';
-import type { Run } from '../../../shared/api/runs';
 import { roleLabels, type Role } from '../../../shared/api/roles';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
 import type { BriefingInput, LonLat, MapSegment, MapZone } from '../../briefings/briefing-input';
@@ -13,28 +12,11 @@ import { formatCount, formatDate, formatDecimal } from '../../briefings/format';
 import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
 import { ConflictError, NotFoundError } from '../../errors';
 import { getCapacityTable } from '../capacity-table';
-import { departureCurvesDescription } from './departure-words';
-import { scenarioChanges } from './scenario-words';
+import { toRun } from '../runs';
 
 type RunRow = typeof runs.$inferSelect;
-
-function toRun(row: RunRow): Run {
-  return {
-    id: row.id,
-    planId: row.planId,
-    scenarioId: row.scenarioId,
-    status: row.status,
-    phase: row.phase,
-    progress: row.progress,
-    parameters: row.parameters,
-    dataVersion: row.dataVersion,
-    failureReason: row.failureReason,
-    createdBy: row.createdBy,
-    createdAt: row.createdAt.toISOString(),
-    startedAt: row.startedAt?.toISOString() ?? null,
-    finishedAt: row.finishedAt?.toISOString() ?? null,
-  };
-}
+import { departureCurvesDescription } from './departure-words';
+import { scenarioChanges } from './scenario-words';
 
 function zoneRings(geometry: ZoneGeometry): LonLat[][] {
   return geometry.type === 'Polygon' ? geometry.coordinates : geometry.coordinates.flat();
