@@ -152,7 +152,13 @@ it('a planner makes a briefing, the official signs it, and the verification page
   await signOut(page);
   await signInAs(page, 'admin', '/outbox');
   await page.waitForURL(/\/outbox$/);
-  await page.locator('[data-test="outbox-message"]').first().waitFor();
+  // Mail goes out after each step has committed; on a busy machine the last message may still be
+  // on its way when the page first loads.
+  for (let i = 0; i < 60 && (await page.locator('[data-test="outbox-message"]').count()) < 2; i++) {
+    await page.waitForTimeout(1000);
+    await page.reload();
+    await page.waitForLoadState('networkidle');
+  }
   expect(await page.locator('[data-test="outbox-message"]').count()).toBe(2);
   await page.locator('[data-test="outbox-message"]').first().click();
   await page.locator('[data-test="outbox-attachment"]').waitFor();
