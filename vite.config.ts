@@ -55,6 +55,9 @@ export default defineConfig({
           testTimeout: 120_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+          // A real browser against a real server on a 2-core machine: one slow navigation should
+          // not fail the suite; a test that fails three times in a row still does.
+          retry: 2,
         },
       },
     ],
