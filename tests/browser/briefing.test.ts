@@ -154,12 +154,13 @@ it('a planner makes a briefing, the official signs it, and the verification page
   await page.waitForURL(/\/outbox$/);
   // Mail goes out after each step has committed; on a busy machine the last message may still be
   // on its way when the page first loads.
+  // (At least two: a retried attempt finds the first attempt's messages too.)
   for (let i = 0; i < 60 && (await page.locator('[data-test="outbox-message"]').count()) < 2; i++) {
     await page.waitForTimeout(1000);
     await page.reload();
     await page.waitForLoadState('networkidle');
   }
-  expect(await page.locator('[data-test="outbox-message"]').count()).toBe(2);
+  expect(await page.locator('[data-test="outbox-message"]').count()).toBeGreaterThanOrEqual(2);
   await page.locator('[data-test="outbox-message"]').first().click();
   await page.locator('[data-test="outbox-attachment"]').waitFor();
   await shot(page, '8-outbox');
