@@ -92,7 +92,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
       cookie: { httpOnly: true, sameSite: 'lax', secure: config.COOKIE_SECURE, maxAge: 8 * 3600_000 },
     }),
   );
-  const passport = configurePassport(db);
+  const passport = configurePassport(db, config);
   app.use(passport.initialize());
   app.use(passport.session());
 

@@ -3,16 +3,29 @@ import { z } from 'zod';
 
 const defaultPort = process.env.CUTLINE_PG_PORT ?? '54329';
 
+// Public defaults so development needs no setup; refused in production (below).
+const developmentSecrets = {
+  SESSION_SECRET: 'cutline-development-session-secret',
+  SIGNING_KEY_PASSPHRASE: 'cutline-development-signing-key',
+} as const;
+
 const configSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   HOST: z.string().default('127.0.0.1'),
   DATABASE_URL: z.string().url().default(`postgres://postgres@127.0.0.1:${defaultPort}/cutline`),
-  SESSION_SECRET: z.string().min(16).default('cutline-development-session-secret'),
+  SESSION_SECRET: z.string().min(16).default(developmentSecrets.SESSION_SECRET),
   // Secure cookies need HTTPS in front of the server; off by default so loopback use works.
   COOKIE_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
   SIGN_IN_ATTEMPTS_PER_WINDOW: z.coerce.number().int().positive().default(10),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+  // Failed sign-ins in a row (from any address) that lock an account, and for how long.
+  SIGN_IN_LOCKOUT_FAILURES: z.coerce.number().int().min(1).default(10),
+  SIGN_IN_LOCKOUT_MINUTES: z.coerce.number().positive().default(15),
+  // Runs (single or in a sweep) one person may start per minute, and runs an organization may
+  // have waiting or running at once: the queue must not become a way to starve other offices.
+  RUN_STARTS_PER_MINUTE: z.coerce.number().int().min(1).default(30),
+  RUNS_IN_FLIGHT_PER_ORGANIZATION: z.coerce.number().int().min(1).default(40),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -34,7 +47,7 @@ const configSchema = z.object({
   PUBLIC_BASE_URL: z.string().url().optional(),
   // Encrypts the organisations' generated signing keys in the database. The default is for
   // development only: set your own before real use, and keep it (a changed one cannot open the stored keys).
-  SIGNING_KEY_PASSPHRASE: z.string().min(8).default('cutline-development-signing-key'),
+  SIGNING_KEY_PASSPHRASE: z.string().min(8).default(developmentSecrets.SIGNING_KEY_PASSPHRASE),
   // A real certificate (PKCS#12) to sign briefings with instead of the generated self-signed one.
   SIGNING_P12_PATH: z.string().optional(),
   SIGNING_P12_PASSPHRASE: z.string().default(''),
@@ -53,8 +66,19 @@ const configSchema = z.object({
 
 export type Config = z.infer<typeof configSchema>;
 
+// In production the published development secrets would let anyone forge sessions or open the
+// stored signing keys, so they are refused.
+const productionSchema = configSchema.superRefine((c, ctx) => {
+  if (c.NODE_ENV !== 'production') return;
+  for (const [name, value] of Object.entries(developmentSecrets)) {
+    if (c[name as keyof typeof developmentSecrets] === value) {
+      ctx.addIssue({ code: 'custom', path: [name], message: 'set a secret of your own in production (the development default is public)' });
+    }
+  }
+});
+
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const parsed = configSchema.safeParse(env);
+  const parsed = productionSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Invalid environment:\n${lines.join('\n')}`);

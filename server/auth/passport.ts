@@ -3,17 +3,30 @@
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { Database } from '../db/client';
+import type { Config } from '../config';
 import { findUserForSignIn, loadAuthUser } from '../services/users';
+import { recordFailedSignIn, clearFailedSignIns } from '../services/sign-in-lockout';
 import { unknownUserHash, verifyPassword } from './password';
 
-export function configurePassport(db: Database): passport.PassportStatic {
+/** Why a sign-in was refused, for the route's message: locked accounts say until when. */
+export type SignInRefusal = { message: 'locked' | 'refused'; lockedUntil?: Date };
+
+export function configurePassport(db: Database, config: Pick<Config, 'SIGN_IN_LOCKOUT_FAILURES' | 'SIGN_IN_LOCKOUT_MINUTES'>): passport.PassportStatic {
   const instance = new passport.Passport();
   instance.use(
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
+      const refuse = (refusal: SignInRefusal) => done(null, false, refusal);
       (async () => {
         const row = await findUserForSignIn(db, email);
+        // The hash is checked even for a locked or unknown account, so timing tells nothing.
         const ok = await verifyPassword(password, row?.passwordHash ?? unknownUserHash);
-        if (!row || !ok || row.disabled) return done(null, false);
+        if (row?.lockedUntil && row.lockedUntil > new Date()) return refuse({ message: 'locked', lockedUntil: row.lockedUntil });
+        if (!row || row.disabled) return refuse({ message: 'refused' });
+        if (!ok) {
+          const lockedUntil = await recordFailedSignIn(db, row.id, config);
+          return refuse(lockedUntil ? { message: 'locked', lockedUntil } : { message: 'refused' });
+        }
+        await clearFailedSignIns(db, row.id);
         return done(null, (await loadAuthUser(db, row.id)) ?? false);
       })().catch(done);
     }),

@@ -7,6 +7,7 @@ import type { Config } from '../config';
 import { HttpError, UnauthenticatedError, ForbiddenError } from '../errors';
 import { currentMembership } from '../middleware/require-member';
 import { recordAudit } from '../services/audit';
+import type { SignInRefusal } from '../auth/passport';
 import type { Database } from '../db/client';
 
 export type AuthRouterDeps = {
@@ -32,6 +33,15 @@ function sessionBody(req: Request, csrfToken: string): SessionResponse {
   };
 }
 
+function lockedError(until: Date): HttpError {
+  const minutes = Math.max(1, Math.ceil((until.getTime() - Date.now()) / 60_000));
+  return new HttpError(
+    423,
+    'account_locked',
+    `This account is locked after repeated failed sign-ins. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or ask an administrator of your organization to unlock it.`,
+  );
+}
+
 export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps): Router {
   const router = Router();
 
@@ -54,8 +64,9 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
   router.post('/sign-in', signInLimiter, (req, res, next) => {
     const input = signInRequestSchema.parse(req.body);
     req.body = input;
-    passport.authenticate('local', (err: unknown, user: Express.User | false) => {
+    passport.authenticate('local', (err: unknown, user: Express.User | false, refusal?: SignInRefusal) => {
       if (err) return next(err);
+      if (refusal?.lockedUntil) return next(lockedError(refusal.lockedUntil));
       if (!user) return next(new HttpError(401, 'unauthenticated', 'Wrong e-mail address or password.'));
       // req.login regenerates the session (passport ≥ 0.6), so a fresh CSRF token follows.
       req.login(user, (loginError) => {

@@ -5,6 +5,7 @@ import type { Database } from '../db/client';
 import type { Config } from '../config';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createMember, listMembers, removeMember, updateMemberRole } from '../services/users';
+import { unlockMember } from '../services/sign-in-lockout';
 
 export function membersRouter(db: Database, config: Config): Router {
   const router = Router();
@@ -23,6 +24,14 @@ export function membersRouter(db: Database, config: Config): Router {
     const { userId } = userIdParamsSchema.parse(req.params);
     const { role } = memberUpdateSchema.parse(req.body);
     res.json(await updateMemberRole(db, actorOf(req), userId, role));
+  });
+
+  // Lifts a sign-in lockout (server/services/sign-in-lockout.ts) before it runs out.
+  router.post('/:userId/unlock', async (req, res) => {
+    const { userId } = userIdParamsSchema.parse(req.params);
+    await unlockMember(db, actorOf(req), userId);
+    const member = (await listMembers(db, actorOf(req).organizationId)).find((m) => m.userId === userId);
+    res.json(member);
   });
 
   router.delete('/:userId', async (req, res) => {

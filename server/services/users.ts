@@ -25,8 +25,9 @@ export async function loadAuthUser(db: Database, userId: string): Promise<Expres
   return { id: user.id, email: user.email, displayName: user.displayName, memberships: rows };
 }
 
-function toMember(row: { userId: string; email: string; displayName: string; role: Role; joinedAt: Date }): Member {
-  return { ...row, joinedAt: row.joinedAt.toISOString() };
+function toMember(row: { userId: string; email: string; displayName: string; role: Role; joinedAt: Date; lockedUntil: Date | null }): Member {
+  const locked = row.lockedUntil && row.lockedUntil > new Date() ? row.lockedUntil.toISOString() : null;
+  return { ...row, joinedAt: row.joinedAt.toISOString(), lockedUntil: locked };
 }
 
 const memberColumns = {
@@ -35,6 +36,7 @@ const memberColumns = {
   displayName: users.displayName,
   role: memberships.role,
   joinedAt: memberships.joinedAt,
+  lockedUntil: users.lockedUntil,
 };
 
 export async function listMembers(db: Database, organizationId: string): Promise<Member[]> {
@@ -61,7 +63,7 @@ export async function createMember(db: Database, actor: Actor, input: MemberCrea
       .values({ userId: user!.id, organizationId: actor.organizationId, role: input.role })
       .returning();
     await recordAudit(tx, actor, 'member.create', 'user', user!.id, { email: input.email, role: input.role });
-    return toMember({ userId: user!.id, email: user!.email, displayName: user!.displayName, role: membership!.role, joinedAt: membership!.joinedAt });
+    return toMember({ userId: user!.id, email: user!.email, displayName: user!.displayName, role: membership!.role, joinedAt: membership!.joinedAt, lockedUntil: null });
   });
 }
 

@@ -10,6 +10,7 @@ export const errorCodeSchema = z.enum([
   'conflict',
   'csrf',
   'rate_limited',
+  'account_locked',
   'payload_too_large',
   'internal',
 ]);

@@ -25,6 +25,8 @@ export const memberSchema = z.object({
   displayName: z.string(),
   role: roleSchema,
   joinedAt: z.string(),
+  // Set while repeated failed sign-ins keep the account locked.
+  lockedUntil: z.string().nullable(),
 });
 export type Member = z.infer<typeof memberSchema>;
 

@@ -1,5 +1,5 @@
 // Organizations (a city or county office), their users, and each user's role there.
-import { index, pgEnum, pgTable, primaryKey, text, timestamp, uuid, boolean } from 'drizzle-orm/pg-core';
+import { index, pgEnum, pgTable, primaryKey, text, timestamp, uuid, boolean, integer } from 'drizzle-orm/pg-core';
 import { timestamps } from './columns';
 
 export const roleEnum = pgEnum('role', ['admin', 'planner', 'official', 'viewer']);
@@ -18,6 +18,9 @@ export const users = pgTable('users', {
   displayName: text().notNull(),
   passwordHash: text().notNull(),
   disabled: boolean().notNull().default(false),
+  // Failed sign-ins in a row, from any address; enough of them lock the account for a while.
+  failedSignIns: integer().notNull().default(0),
+  lockedUntil: timestamp({ withTimezone: true, mode: 'date' }),
   ...timestamps,
 });
 
