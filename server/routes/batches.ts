@@ -6,6 +6,7 @@ import { planParamsSchema } from '../../shared/api/road-layers';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
+import { assertRunQuota } from '../services/run-quota';
 import { createBatch, getBatch, listBatches } from '../services/batches';
 import type { RunEnqueuer } from './runs';
 
@@ -16,6 +17,7 @@ export function batchesRouter(db: Database, config: Config, queue: RunEnqueuer):
   router.post('/batches', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     const input = batchCreateSchema.parse(req.body);
+    await assertRunQuota(db, actorOf(req), input.sweep.values.length, config);
     const id = await createBatch(db, actorOf(req), planId, input, config.RUN_MAX_EXPANDED_ARCS, queue.enqueue);
     res.status(202).json(await getBatch(db, actorOf(req).organizationId, planId, id));
   });

@@ -8,8 +8,8 @@ import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { ConflictError } from '../errors';
 import { actorOf, requireMember } from '../middleware/require-member';
-
 import { arcsGeoJson } from '../services/run-exports';
+import { assertRunQuota } from '../services/run-quota';
 import { getScenario } from '../services/scenarios';
 import { createRun, getRun, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
 
@@ -25,6 +25,7 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Ro
     const { planId } = planParamsSchema.parse(req.params);
     const { parameters, scenarioId } = startRunSchema.parse(req.body);
     const actor = actorOf(req);
+    await assertRunQuota(db, actor, 1, config);
     const scenario = scenarioId ? await getScenario(db, actor.organizationId, planId, scenarioId) : null;
     const prepared = await prepareRun(db, actor.organizationId, planId, parameters, config.RUN_MAX_EXPANDED_ARCS, scenario);
     const { row, reused } = await createRun(db, actor, planId, parameters, prepared, scenarioId);
