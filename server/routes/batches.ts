@@ -9,6 +9,8 @@ import { actorOf, requireMember } from '../middleware/require-member';
 import { assertRunQuota } from '../services/run-quota';
 import { createBatch, getBatch, listBatches } from '../services/batches';
 import type { RunEnqueuer } from './runs';
+import { listCaps } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 
 const batchParamsSchema = z.object({ planId: z.string().uuid(), batchId: z.string().uuid('Not a valid identifier.') });
 
@@ -23,7 +25,8 @@ export function batchesRouter(db: Database, config: Config, queue: RunEnqueuer):
   });
   router.get('/batches', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    res.json({ batches: await listBatches(db, actorOf(req).organizationId, planId) });
+    const page = pageOf(req, listCaps.batches);
+    sendPage(res, 'batches', await listBatches(db, actorOf(req).organizationId, planId, page), page);
   });
   router.get('/batches/:batchId', requireMember('plans:read'), async (req, res) => {
     const { planId, batchId } = batchParamsSchema.parse(req.params);

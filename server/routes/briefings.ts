@@ -21,6 +21,8 @@ import { singleFileUpload } from '../middleware/upload';
 import { briefingDetail, createBriefingService, listBriefings } from '../services/briefings';
 import { getOutboxMessage, listOutbox, outboxAttachment, outboxEnabled } from '../services/briefings/outbox';
 import { verifyUpload } from '../services/briefings/verification';
+import { listCaps, nextOffsetHeader } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 
 /** A PDF for the review page's frame (inline) or as a download; never cached by shared caches. */
 function sendPdf(res: Response, pdf: Buffer, filename: string, download: boolean, sha256?: string) {
@@ -43,12 +45,16 @@ export function briefingsRouter(db: Database, config: Config): Router {
   });
 
   router.get('/officials', requireMember('plans:write'), async (req, res) => {
-    res.json({ officials: await service.officials(actorOf(req)) });
+    const page = pageOf(req, listCaps.officials);
+    sendPage(res, 'officials', await service.officials(actorOf(req), page), page);
   });
 
   router.get('/outbox', requireMember('users:manage'), async (req, res) => {
     const enabled = outboxEnabled(config);
-    res.json({ enabled, messages: enabled ? await listOutbox(db, actorOf(req).organizationId) : [] });
+    const page = pageOf(req, listCaps.outbox);
+    const messages = enabled ? await listOutbox(db, actorOf(req).organizationId, page) : [];
+    if (messages.length > page.limit) res.setHeader(nextOffsetHeader, String(page.offset + page.limit));
+    res.json({ enabled, messages: messages.slice(0, page.limit) });
   });
   router.get('/outbox/:messageId', requireMember('users:manage'), async (req, res) => {
     if (!outboxEnabled(config)) throw new NotFoundError('message');
@@ -66,7 +72,8 @@ export function briefingsRouter(db: Database, config: Config): Router {
 
   router.get('/', requireMember('plans:read'), async (req, res) => {
     const { planId } = briefingListQuerySchema.parse(req.query);
-    res.json({ briefings: await listBriefings(db, actorOf(req), planId) });
+    const page = pageOf(req, listCaps.briefings);
+    sendPage(res, 'briefings', await listBriefings(db, actorOf(req), page, planId), page);
   });
   router.post('/', requireMember('plans:write'), async (req, res) => {
     res.status(201).json(await service.create(actorOf(req), briefingCreateSchema.parse(req.body)));

@@ -3,8 +3,10 @@ import { Router } from 'express';
 import { memberCreateSchema, memberUpdateSchema, userIdParamsSchema } from '../../shared/api/users';
 import type { Database } from '../db/client';
 import type { Config } from '../config';
+import { listCaps } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { createMember, listMembers, removeMember, updateMemberRole } from '../services/users';
+import { createMember, getMember, listMembers, removeMember, updateMemberRole } from '../services/users';
 import { unlockMember } from '../services/sign-in-lockout';
 
 export function membersRouter(db: Database, config: Config): Router {
@@ -12,7 +14,8 @@ export function membersRouter(db: Database, config: Config): Router {
   router.use(requireMember('users:manage'));
 
   router.get('/', async (req, res) => {
-    res.json({ members: await listMembers(db, actorOf(req).organizationId) });
+    const page = pageOf(req, listCaps.members);
+    sendPage(res, 'members', await listMembers(db, actorOf(req).organizationId, page), page);
   });
 
   router.post('/', async (req, res) => {
@@ -30,8 +33,7 @@ export function membersRouter(db: Database, config: Config): Router {
   router.post('/:userId/unlock', async (req, res) => {
     const { userId } = userIdParamsSchema.parse(req.params);
     await unlockMember(db, actorOf(req), userId);
-    const member = (await listMembers(db, actorOf(req).organizationId)).find((m) => m.userId === userId);
-    res.json(member);
+    res.json(await getMember(db, actorOf(req).organizationId, userId));
   });
 
   router.delete('/:userId', async (req, res) => {

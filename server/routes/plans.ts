@@ -4,12 +4,15 @@ import { idParamsSchema, planCreateSchema, planUpdateSchema } from '../../shared
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createPlan, deletePlan, getPlan, listPlans, updatePlan } from '../services/plans';
+import { listCaps } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 
 export function plansRouter(db: Database): Router {
   const router = Router();
 
   router.get('/', requireMember('plans:read'), async (req, res) => {
-    res.json({ plans: await listPlans(db, actorOf(req).organizationId) });
+    const page = pageOf(req, listCaps.plans);
+    sendPage(res, 'plans', await listPlans(db, actorOf(req).organizationId, page), page);
   });
 
   router.post('/', requireMember('plans:write'), async (req, res) => {

@@ -12,6 +12,8 @@ import { arcsGeoJson } from '../services/run-exports';
 import { assertRunQuota } from '../services/run-quota';
 import { getScenario } from '../services/scenarios';
 import { createRun, getRun, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
+import { listCaps } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 
 const runParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.'), runId: z.string().uuid('Not a valid identifier.') });
 const startRunSchema = z.object({ parameters: runParametersSchema, scenarioId: z.string().uuid('Not a valid identifier.').nullable().default(null) });
@@ -35,7 +37,8 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Ro
 
   router.get('/runs', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    res.json({ runs: await listRuns(db, actorOf(req).organizationId, planId) });
+    const page = pageOf(req, listCaps.runs);
+    sendPage(res, 'runs', await listRuns(db, actorOf(req).organizationId, planId, page), page);
   });
 
   router.get('/runs/:runId', requireMember('plans:read'), async (req, res) => {

@@ -5,12 +5,15 @@ import { scenarioCreateSchema, scenarioParamsSchema, scenarioUpdateSchema } from
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createScenario, deleteScenario, getScenario, listScenarios, updateScenario } from '../services/scenarios';
+import { listCaps } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 
 export function scenariosRouter(db: Database): Router {
   const router = Router({ mergeParams: true });
   router.get('/scenarios', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    res.json({ scenarios: await listScenarios(db, actorOf(req).organizationId, planId) });
+    const page = pageOf(req, listCaps.scenarios);
+    sendPage(res, 'scenarios', await listScenarios(db, actorOf(req).organizationId, planId, page), page);
   });
   router.post('/scenarios', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);

@@ -23,6 +23,8 @@ import { singleFileUpload } from '../middleware/upload';
 import { getCapacityTable, putCapacityTable } from '../services/capacity-table';
 import { assertPlanInOrganization } from '../services/plan-access';
 import { describeAttachments, loadPlanModel } from '../services/plan-model';
+import { listCaps } from '../../shared/api/pagination';
+import { pageOf, sendPage } from './list-page';
 import {
   createShelters,
   createZones,
@@ -49,7 +51,8 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
 
   router.get('/zones', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    res.json({ zones: await listZones(db, actorOf(req).organizationId, planId) });
+    const page = pageOf(req, listCaps.zones);
+    sendPage(res, 'zones', await listZones(db, actorOf(req).organizationId, planId, page), page);
   });
   router.post('/zones', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
@@ -76,7 +79,8 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
 
   router.get('/shelters', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    res.json({ shelters: await listShelters(db, actorOf(req).organizationId, planId) });
+    const page = pageOf(req, listCaps.shelters);
+    sendPage(res, 'shelters', await listShelters(db, actorOf(req).organizationId, planId, page), page);
   });
   router.post('/shelters', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);

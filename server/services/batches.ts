@@ -9,6 +9,7 @@ import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization } from './plan-access';
 import { createRun, prepareRun, toRun } from './runs';
 import { getScenario } from './scenarios';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 export async function createBatch(
   db: Database,
@@ -60,8 +61,14 @@ export async function getBatch(db: Database, organizationId: string, planId: str
   };
 }
 
-export async function listBatches(db: Database, organizationId: string, planId: string) {
+export async function listBatches(db: Database, organizationId: string, planId: string, page: Page) {
   await assertPlanInOrganization(db, organizationId, planId);
-  const rows = await db.select().from(batches).where(eq(batches.planId, planId)).orderBy(desc(batches.createdAt)).limit(100);
+  const rows = await db
+    .select()
+    .from(batches)
+    .where(eq(batches.planId, planId))
+    .orderBy(desc(batches.createdAt), asc(batches.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
   return rows.map((b) => ({ id: b.id, planId: b.planId, name: b.name, scenarioId: b.scenarioId, parameter: b.parameter, values: b.values, createdAt: b.createdAt.toISOString() }));
 }

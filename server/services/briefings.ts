@@ -7,8 +7,9 @@
 // briefing pointing back at the previous one. The signed copy is then mailed to the
 // briefing's recipients and each delivery is recorded.
 import { randomUUID } from 'node:crypto';
-import { and, eq, max, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, max, ne, sql } from 'drizzle-orm';
 import type { Config } from '../config';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 import type { Database, Tx } from '../db/client';
 import { briefingDistributions, briefingFiles, briefingReviews, briefingStatusChanges, briefings, memberships, users } from '../db/schema';
 import type { BriefingCreate, BriefingStepResponse, BriefingUpdate, BriefingVersionCreate, MailReport, Official, Recipient, SignOffRequest } from '../../shared/api/briefings';
@@ -152,13 +153,23 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
   }
 
   /** Officials of the actor's organisation, for the sign-off request form. */
-  async function officials(actor: BriefingActor): Promise<Official[]> {
+  function officialsQuery(actor: BriefingActor, onlyIds?: string[]) {
     return db
       .select({ id: users.id, displayName: users.displayName, email: users.email })
       .from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
-      .where(and(eq(memberships.organizationId, actor.organizationId), eq(memberships.role, 'official'), eq(users.disabled, false)))
-      .orderBy(users.displayName);
+      .where(
+        and(
+          eq(memberships.organizationId, actor.organizationId),
+          eq(memberships.role, 'official'),
+          eq(users.disabled, false),
+          onlyIds ? inArray(users.id, onlyIds) : undefined,
+        ),
+      )
+      .orderBy(users.displayName, users.id);
+  }
+  async function officials(actor: BriefingActor, page: Page): Promise<Official[]> {
+    return officialsQuery(actor).limit(limitPlusOne(page)).offset(page.offset);
   }
 
   return {
@@ -209,7 +220,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
     officials,
 
     async requestSignOff(actor: BriefingActor, id: string, request: SignOffRequest): Promise<BriefingStepResponse> {
-      const candidates = await officials(actor);
+      const candidates: Official[] = await officialsQuery(actor, request.reviewerIds);
       const reviewers = request.reviewerIds.map((rid) => candidates.find((o) => o.id === rid));
       const unknown = request.reviewerIds.filter((_, i) => !reviewers[i]);
       if (unknown.length) throw new BadRequestError('Sign-off can be asked of officials of your organisation only.', unknown.map(() => ({ path: 'reviewerIds', message: 'Not an official of your organisation.' })));

@@ -14,7 +14,7 @@ import { RoadImportError } from '../../shared/geo/road-import-error';
 import { BadRequestError } from '../errors';
 import { getCapacityTable } from './capacity-table';
 import { activeLayerId, loadNetwork } from './road-layers';
-import { listShelters, listZones } from './zones-shelters';
+import { zonesAndSheltersOfPlan } from './zones-shelters';
 import { assertPlanInOrganization } from './plan-access';
 
 export type PlanModel = {
@@ -39,11 +39,8 @@ export async function loadPlanModel(db: Database, organizationId: string, planId
       if (layerId === null) throw new BadRequestError('This plan has no road layer yet: upload one first.');
       const { nodes, segments } = await loadNetwork(tx, layerId);
       const txDb = tx as unknown as Database;
-      const [capacityTable, zones, shelters] = [
-        await getCapacityTable(txDb, organizationId, planId),
-        await listZones(txDb, organizationId, planId),
-        await listShelters(txDb, organizationId, planId),
-      ];
+      const capacityTable = await getCapacityTable(txDb, organizationId, planId);
+      const { zones, shelters } = await zonesAndSheltersOfPlan(txDb, planId);
       return { planId, dataVersion: plan!.dataVersion, layerId, nodes, segments, capacityTable, zones, shelters };
     },
     { isolationLevel: 'repeatable read', accessMode: 'read only' },

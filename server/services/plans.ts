@@ -1,11 +1,12 @@
 // Plans of one organization. Every query filters by the actor's organization, so a plan of
 // another organization is simply not found.
-import { and, desc, eq } from 'drizzle-orm';
+import { asc, and, desc, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { plans } from '../db/schema';
 import type { Plan, PlanCreate, PlanUpdate } from '../../shared/api/plans';
 import { NotFoundError } from '../errors';
 import { recordAudit, type Actor } from './audit';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 type PlanRow = typeof plans.$inferSelect;
 
@@ -13,8 +14,14 @@ function toPlan(row: PlanRow): Plan {
   return { ...row, createdAt: row.createdAt.toISOString(), updatedAt: row.updatedAt.toISOString() };
 }
 
-export async function listPlans(db: Database, organizationId: string): Promise<Plan[]> {
-  const rows = await db.select().from(plans).where(eq(plans.organizationId, organizationId)).orderBy(desc(plans.updatedAt));
+export async function listPlans(db: Database, organizationId: string, page: Page): Promise<Plan[]> {
+  const rows = await db
+    .select()
+    .from(plans)
+    .where(eq(plans.organizationId, organizationId))
+    .orderBy(desc(plans.updatedAt), asc(plans.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
   return rows.map(toPlan);
 }
 

@@ -1,7 +1,7 @@
 // Runs: build the engine problem from a plan snapshot, queue it, solve it off the main thread,
 // store the result. Identical inputs (same problem, algorithm and engine) reuse a stored result.
 import { createHash } from 'node:crypto';
-import { and, desc, eq, getTableColumns, inArray } from 'drizzle-orm';
+import { asc, and, desc, eq, getTableColumns, inArray } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { runInputs, runs } from '../db/schema';
 import type { Run, RunParameters, RunWithResult } from '../../shared/api/runs';
@@ -14,6 +14,7 @@ import { applyScenarioToProblem, scenarioSegmentOverrides } from '../../shared/m
 import type { RunInput } from '../runs/run-input';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization } from './plan-access';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 type RunRow = typeof runs.$inferSelect;
 
@@ -156,14 +157,15 @@ export async function createRun(
   });
 }
 
-export async function listRuns(db: Database, organizationId: string, planId: string): Promise<Run[]> {
+export async function listRuns(db: Database, organizationId: string, planId: string, page: Page): Promise<Run[]> {
   await assertPlanInOrganization(db, organizationId, planId);
   const rows = await db
     .select(runColumnsWithoutResult)
     .from(runs)
     .where(eq(runs.planId, planId))
-    .orderBy(desc(runs.createdAt))
-    .limit(200);
+    .orderBy(desc(runs.createdAt), asc(runs.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
   return rows.map((r) => toRun({ ...r, result: null } as RunRow));
 }
 

@@ -8,15 +8,23 @@ import type { z } from 'zod';
 import { NotFoundError } from '../errors';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization } from './plan-access';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 type Row = typeof scenarios.$inferSelect;
 function toScenario(r: Row): Scenario {
   return { id: r.id, planId: r.planId, name: r.name, description: r.description, overlay: r.overlay, createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString() };
 }
 
-export async function listScenarios(db: Database, organizationId: string, planId: string): Promise<Scenario[]> {
+export async function listScenarios(db: Database, organizationId: string, planId: string, page: Page): Promise<Scenario[]> {
   await assertPlanInOrganization(db, organizationId, planId);
-  return (await db.select().from(scenarios).where(eq(scenarios.planId, planId)).orderBy(asc(scenarios.createdAt))).map(toScenario);
+  const rows = await db
+    .select()
+    .from(scenarios)
+    .where(eq(scenarios.planId, planId))
+    .orderBy(asc(scenarios.createdAt), asc(scenarios.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
+  return rows.map(toScenario);
 }
 
 export async function getScenario(db: Database, organizationId: string, planId: string, scenarioId: string): Promise<Scenario> {

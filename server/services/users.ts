@@ -7,6 +7,7 @@ import type { Role } from '../../shared/api/roles';
 import { ConflictError, NotFoundError } from '../errors';
 import { hashPassword } from '../auth/password';
 import { recordAudit, type Actor } from './audit';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 export async function findUserForSignIn(db: Database, email: string) {
   const [row] = await db.select().from(users).where(eq(users.email, email.toLowerCase()));
@@ -39,14 +40,26 @@ const memberColumns = {
   lockedUntil: users.lockedUntil,
 };
 
-export async function listMembers(db: Database, organizationId: string): Promise<Member[]> {
+export async function listMembers(db: Database, organizationId: string, page: Page): Promise<Member[]> {
   const rows = await db
     .select(memberColumns)
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.organizationId, organizationId))
-    .orderBy(asc(users.displayName));
+    .orderBy(asc(users.displayName), asc(users.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
   return rows.map(toMember);
+}
+
+export async function getMember(db: Database, organizationId: string, userId: string): Promise<Member> {
+  const [row] = await db
+    .select(memberColumns)
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.organizationId, organizationId), eq(memberships.userId, userId)));
+  if (!row) throw new NotFoundError('member');
+  return toMember(row);
 }
 
 export async function createMember(db: Database, actor: Actor, input: MemberCreate, rounds: number): Promise<Member> {

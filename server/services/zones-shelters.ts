@@ -7,6 +7,7 @@ import type { Shelter, ShelterCreate, ShelterUpdate, Zone, ZoneCreate, ZoneUpdat
 import { NotFoundError } from '../errors';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization, bumpDataVersion } from './plan-access';
+import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 type ZoneRow = typeof zones.$inferSelect;
 type ShelterRow = typeof shelters.$inferSelect;
@@ -20,14 +21,23 @@ function toShelter(r: ShelterRow): Shelter {
   return shelter;
 }
 
-export async function listZones(db: Database, organizationId: string, planId: string): Promise<Zone[]> {
-  await assertPlanInOrganization(db, organizationId, planId);
-  return (await db.select().from(zones).where(eq(zones.planId, planId)).orderBy(asc(zones.id))).map(toZone);
+/** Every zone and shelter of a plan, unpaged: what a model is built from. */
+export async function zonesAndSheltersOfPlan(db: Database, planId: string): Promise<{ zones: Zone[]; shelters: Shelter[] }> {
+  const zoneRows = await db.select().from(zones).where(eq(zones.planId, planId)).orderBy(asc(zones.id));
+  const shelterRows = await db.select().from(shelters).where(eq(shelters.planId, planId)).orderBy(asc(shelters.id));
+  return { zones: zoneRows.map(toZone), shelters: shelterRows.map(toShelter) };
 }
 
-export async function listShelters(db: Database, organizationId: string, planId: string): Promise<Shelter[]> {
+export async function listZones(db: Database, organizationId: string, planId: string, page: Page): Promise<Zone[]> {
   await assertPlanInOrganization(db, organizationId, planId);
-  return (await db.select().from(shelters).where(eq(shelters.planId, planId)).orderBy(asc(shelters.id))).map(toShelter);
+  const rows = await db.select().from(zones).where(eq(zones.planId, planId)).orderBy(asc(zones.id)).limit(limitPlusOne(page)).offset(page.offset);
+  return rows.map(toZone);
+}
+
+export async function listShelters(db: Database, organizationId: string, planId: string, page: Page): Promise<Shelter[]> {
+  await assertPlanInOrganization(db, organizationId, planId);
+  const rows = await db.select().from(shelters).where(eq(shelters.planId, planId)).orderBy(asc(shelters.id)).limit(limitPlusOne(page)).offset(page.offset);
+  return rows.map(toShelter);
 }
 
 export async function createZones(db: Database, actor: Actor, planId: string, input: ZoneCreate[], source: string): Promise<Zone[]> {

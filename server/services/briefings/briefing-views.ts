@@ -7,6 +7,7 @@ import type { BriefingDetail, BriefingDistribution, BriefingSummary } from '../.
 import type { RunResult } from '../../../shared/api/runs';
 import { can, type Role } from '../../../shared/api/roles';
 import { ForbiddenError, NotFoundError } from '../../errors';
+import { limitPlusOne, type Page } from '../../../shared/api/pagination';
 
 export type BriefingActor = { userId: string; organizationId: string; role: Role };
 export type BriefingRow = typeof briefings.$inferSelect;
@@ -27,14 +28,16 @@ export async function visibleBriefing(db: Database | Tx, actor: BriefingActor, i
   return row;
 }
 
-async function summaries(db: Database, where: SQL | undefined): Promise<BriefingSummary[]> {
+async function summaries(db: Database, where: SQL | undefined, page: Page): Promise<BriefingSummary[]> {
   const rows = await db
     .select({ b: briefings, planName: plans.name, createdByName: creators.displayName })
     .from(briefings)
     .innerJoin(plans, eq(plans.id, briefings.planId))
     .leftJoin(creators, eq(creators.id, briefings.createdBy))
     .where(where)
-    .orderBy(desc(briefings.createdAt), desc(briefings.version));
+    .orderBy(desc(briefings.createdAt), desc(briefings.version), asc(briefings.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
   const ids = rows.map((r) => r.b.id);
   const pending = ids.length
     ? await db
@@ -62,11 +65,11 @@ async function summaries(db: Database, where: SQL | undefined): Promise<Briefing
   }));
 }
 
-export async function listBriefings(db: Database, actor: BriefingActor, planId?: string): Promise<BriefingSummary[]> {
+export async function listBriefings(db: Database, actor: BriefingActor, page: Page, planId?: string): Promise<BriefingSummary[]> {
   const filters: SQL[] = [eq(briefings.organizationId, actor.organizationId)];
   if (planId) filters.push(eq(briefings.planId, planId));
   if (!can(actor.role, 'briefings:read-drafts')) filters.push(eq(briefings.status, 'signed'));
-  return summaries(db, and(...filters));
+  return summaries(db, and(...filters), page);
 }
 
 function distributionState(r: typeof briefingDistributions.$inferSelect): BriefingDistribution {
@@ -76,7 +79,7 @@ function distributionState(r: typeof briefingDistributions.$inferSelect): Briefi
 
 export async function briefingDetail(db: Database, actor: BriefingActor, id: string): Promise<BriefingDetail> {
   const row = await visibleBriefing(db, actor, id);
-  const [summary] = await summaries(db, eq(briefings.id, row.id));
+  const [summary] = await summaries(db, eq(briefings.id, row.id), { limit: 1, offset: 0 });
   const reviews = await db.select().from(briefingReviews).where(eq(briefingReviews.briefingId, id)).orderBy(asc(briefingReviews.requestedAt), asc(briefingReviews.reviewerName));
   const history = await db
     .select({ c: briefingStatusChanges, actorName: users.displayName })

@@ -10,6 +10,7 @@ import { BRIEFING_HEADER, KIND_HEADER } from '../../briefings/mail/mailer';
 import { parseMessage } from '../../briefings/mail/parse-message';
 import type { OutboxMessage, OutboxMessageSummary } from '../../../shared/api/briefings';
 import { NotFoundError } from '../../errors';
+import { limitPlusOne, type Page } from '../../../shared/api/pagination';
 
 /** DEV_OUTBOX, defaulting to on everywhere but production. */
 export function outboxEnabled(config: Config): boolean {
@@ -76,8 +77,14 @@ const summaryColumns = {
   attachments: mailMessages.attachments,
 };
 
-export async function listOutbox(db: Database, organizationId: string, limit = 200): Promise<OutboxMessageSummary[]> {
-  const rows = await db.select(summaryColumns).from(mailMessages).where(eq(mailMessages.organizationId, organizationId)).orderBy(desc(mailMessages.id)).limit(limit);
+export async function listOutbox(db: Database, organizationId: string, page: Page): Promise<OutboxMessageSummary[]> {
+  const rows = await db
+    .select(summaryColumns)
+    .from(mailMessages)
+    .where(eq(mailMessages.organizationId, organizationId))
+    .orderBy(desc(mailMessages.id))
+    .limit(limitPlusOne(page))
+    .offset(page.offset);
   return rows.map(summary);
 }
 
