@@ -41,11 +41,13 @@ export type AppDeps = {
   clientDir?: string;
   // Where new runs are queued; worker processes take them from there (server/worker.ts).
   runQueue: RunEnqueuer;
+  // True once the process is shutting down: /readyz then answers 503.
+  isStopping?: () => boolean;
 };
 
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue }: AppDeps) {
+export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, isStopping }: AppDeps) {
   const logger = createLogger(config);
   const log = givenLog ?? ((err: unknown) => logger.error({ err }, 'unhandled error'));
   const app = express();
@@ -77,7 +79,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
     }),
   );
   // Health checks come before sessions: probes carry no cookie and must not create sessions.
-  app.use(healthRouter(pool));
+  app.use(healthRouter(pool, log, isStopping));
   app.use(express.json({ limit: '1mb' }));
 
   const PgStore = connectPgSimple(session);

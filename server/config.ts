@@ -38,6 +38,11 @@ const configSchema = z.object({
   // A job still active this long after its time budget belongs to a dead worker and is retried.
   RUN_EXPIRY_SLACK_SECONDS: z.coerce.number().int().min(1).default(30),
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
+  // On SIGTERM a worker takes no new runs and waits this long for the runs in hand; what is
+  // still running then goes back to the queue for another worker. The API server waits this
+  // long for requests in progress.
+  WORKER_SHUTDOWN_GRACE_SECONDS: z.coerce.number().min(0).default(20),
+  SHUTDOWN_GRACE_SECONDS: z.coerce.number().min(0).default(10),
   UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
   // Briefing e-mail. Empty SMTP_URL with the development outbox on: the server starts its own
   // fake SMTP server on loopback and keeps every message (server/services/briefings/outbox.ts).

@@ -18,14 +18,23 @@ await queue.work(config.WORKER_CONCURRENCY, async ({ runId }) => {
 console.log(`[worker] ${hostname()} pid ${process.pid}: taking runs from the queue (${config.WORKER_CONCURRENCY} at a time)`);
 
 let stopping = false;
-async function shutdown() {
+// Graceful: take no new runs, let the runs in hand finish within the grace period, and put
+// what is still running back in the queue (run row "queued", job failed so it is retried at
+// once elsewhere) rather than leave it to expire.
+async function shutdown(signal: string) {
   if (stopping) return;
   stopping = true;
-  // Graceful: the queue waits for the runs in hand to finish (up to its timeout); one that
-  // does not finish stays active in the queue and is retried elsewhere after it expires.
+  const grace = config.WORKER_SHUTDOWN_GRACE_SECONDS;
+  console.log(`[worker] pid ${process.pid} ${signal}: taking no new runs; ${executor.activeCount()} in hand, waiting up to ${grace} s`);
+  await queue.stopTaking();
+  if (!(await executor.drain(grace * 1000))) {
+    for (const runId of executor.interruptAll()) console.log(`[worker] pid ${process.pid} returned run ${runId} to the queue`);
+    await executor.drain(10_000);
+  }
   await queue.stop();
   await pool.end();
+  console.log(`[worker] pid ${process.pid} stopped`);
   process.exit(0);
 }
-process.on('SIGINT', shutdown);
-process.on('SIGTERM', shutdown);
+process.on('SIGINT', () => void shutdown('SIGINT'));
+process.on('SIGTERM', () => void shutdown('SIGTERM'));

@@ -28,7 +28,8 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
     async enqueue(runId: string): Promise<void> {
       const id = await boss.send(RUN_QUEUE, { runId } satisfies RunJob, {
         singletonKey: runId,
-        retryLimit: 3,
+        // Retries follow a worker's death or shutdown, never a solve's own failure (that is final).
+        retryLimit: 5,
         retryDelay: 1,
         // A job still active after the budget (plus slack) belongs to a dead worker: retry it.
         expireInSeconds: Math.ceil(config.RUN_TIME_BUDGET_SECONDS + config.RUN_EXPIRY_SLACK_SECONDS),
@@ -41,6 +42,10 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
           if (job) await handler(job.data);
         });
       }
+    },
+    /** Stops fetching new jobs; the handlers in progress go on. */
+    async stopTaking(): Promise<void> {
+      await boss.offWork(RUN_QUEUE);
     },
     async stop(): Promise<void> {
       await boss.stop({ graceful: true, wait: true, timeout: 10_000 });

@@ -11,7 +11,7 @@ import { toRunResult } from './to-run-result';
 const cancelPollMs = 1000;
 
 export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_BUDGET_SECONDS' | 'RUN_MEMORY_BUDGET_MEGABYTES'>, log: (err: unknown) => void) {
-  const active = new Map<string, () => void>();
+  const active = new Map<string, { cancel: () => void; interrupt: () => void }>();
 
   /** Updates the run only while it is still queued or running; false when it is not (cancelled, finished). */
   async function setState(runId: string, values: Partial<typeof runs.$inferInsert>): Promise<boolean> {
@@ -38,7 +38,7 @@ export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_B
         setState(runId, { phase, progress: Math.min(1, Math.max(0, fraction)) }).catch(log);
       },
     );
-    active.set(runId, job.cancel);
+    active.set(runId, job);
     // A planner's cancel may reach another process: notice it in the database.
     const watch = setInterval(() => {
       db.select({ status: runs.status })
@@ -51,6 +51,11 @@ export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_B
       await setState(runId, { status: 'succeeded', phase: 'done', progress: 1, result: toRunResult(row.input, done), finishedAt: new Date() });
     } catch (e) {
       if (e instanceof SolveFailure && e.kind === 'cancelled') return;
+      if (e instanceof SolveFailure && e.kind === 'interrupted') {
+        await setState(runId, { status: 'queued', phase: 'back in the queue: its worker stopped', progress: 0, startedAt: null });
+        // Failing the job makes the queue hand it to another worker at once.
+        throw e;
+      }
       if (!(e instanceof SolveFailure)) log(e);
       await setState(runId, { status: 'failed', phase: 'failed', failureReason: e instanceof Error ? e.message : String(e), finishedAt: new Date() });
     } finally {
@@ -60,9 +65,23 @@ export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_B
   }
 
   function cancel(runId: string): void {
-    active.get(runId)?.();
+    active.get(runId)?.cancel();
   }
 
-  return { execute, cancel, activeCount: () => active.size };
+  /** Resolves true once no run is in hand, false if some still are after `ms`. */
+  async function drain(ms: number): Promise<boolean> {
+    const end = Date.now() + ms;
+    while (active.size > 0 && Date.now() < end) await new Promise((r) => setTimeout(r, 100));
+    return active.size === 0;
+  }
+
+  /** Stops every solve in hand and puts its run back in the queue; returns their ids. */
+  function interruptAll(): string[] {
+    const ids = [...active.keys()];
+    for (const job of active.values()) job.interrupt();
+    return ids;
+  }
+
+  return { execute, cancel, drain, interruptAll, activeCount: () => active.size };
 }
 export type RunExecutor = ReturnType<typeof createRunExecutor>;

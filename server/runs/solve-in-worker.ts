@@ -6,7 +6,7 @@ import type { SolveMessage, SolveRequest } from './solve-worker';
 export class SolveFailure extends Error {
   constructor(
     message: string,
-    readonly kind: 'input' | 'budget' | 'cancelled' | 'crash',
+    readonly kind: 'input' | 'budget' | 'cancelled' | 'interrupted' | 'crash',
   ) {
     super(message);
   }
@@ -19,7 +19,7 @@ export function solveInWorker(
   request: SolveRequest,
   budget: SolveBudget,
   onProgress: (phase: string, fraction: number) => void,
-): { done: Promise<Done>; cancel: () => void } {
+): { done: Promise<Done>; cancel: () => void; interrupt: () => void } {
   const worker = new Worker(new URL('./solve-worker-entry.mjs', import.meta.url), {
     workerData: request,
     resourceLimits: { maxOldGenerationSizeMb: budget.memoryMegabytes },
@@ -57,6 +57,11 @@ export function solveInWorker(
     done,
     cancel: () => {
       cancelReason = new SolveFailure('Cancelled.', 'cancelled');
+      void worker.terminate();
+    },
+    // The process is stopping: the run is not over, another worker will solve it again.
+    interrupt: () => {
+      cancelReason = new SolveFailure('Interrupted: the worker is stopping.', 'interrupted');
       void worker.terminate();
     },
   };

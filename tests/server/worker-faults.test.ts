@@ -1,6 +1,7 @@
 // Real worker processes sharing the queue on the real database: a worker killed mid-run
 // (SIGKILL) leaves the run to another, which finishes it once; a worker stopped with SIGTERM
-// loses nothing; two workers never take the same run twice.
+// puts the run in hand back in the queue after its grace period and exits cleanly, and another
+// worker finishes it; two workers never take the same run twice.
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -10,9 +11,9 @@ import { createTestContext, signInAs, type SignedInAgent, type TestContext } fro
 import { defaultRunParameters, runWithResultSchema, type RunWithResult } from '../../shared/api/runs';
 
 const root = path.resolve(import.meta.dirname, '../..');
-const workerEnv = { RUN_TIME_BUDGET_SECONDS: '40', RUN_EXPIRY_SLACK_SECONDS: '2', QUEUE_MAINTENANCE_SECONDS: '1' };
+const workerEnv = { RUN_TIME_BUDGET_SECONDS: '40', RUN_EXPIRY_SLACK_SECONDS: '2', QUEUE_MAINTENANCE_SECONDS: '1', WORKER_SHUTDOWN_GRACE_SECONDS: '1' };
 
-type Worker = { proc: ChildProcess; took: string[]; finished: string[] };
+type Worker = { proc: ChildProcess; took: string[]; finished: string[]; returned: string[]; exited: Promise<number | null> };
 const workers: Worker[] = [];
 
 function startWorker(databaseUrl: string): Promise<Worker> {
@@ -21,13 +22,16 @@ function startWorker(databaseUrl: string): Promise<Worker> {
     env: { ...process.env, ...workerEnv, DATABASE_URL: databaseUrl, NODE_ENV: 'test' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
-  const w: Worker = { proc, took: [], finished: [] };
+  const exited = new Promise<number | null>((resolve) => proc.on('exit', (code) => resolve(code)));
+  const w: Worker = { proc, took: [], finished: [], returned: [], exited };
   workers.push(w);
   return new Promise((resolve, reject) => {
     proc.stdout!.on('data', (chunk: Buffer) => {
       for (const line of chunk.toString().split('\n')) {
         const took = /took run (\S+)/.exec(line);
         const done = /finished run (\S+)/.exec(line);
+        const returned = /returned run (\S+) to the queue/.exec(line);
+        if (returned) w.returned.push(returned[1]!);
         if (took) w.took.push(took[1]!);
         if (done) w.finished.push(done[1]!);
         if (/taking runs from the queue/.test(line)) resolve(w);
@@ -110,15 +114,21 @@ describe('worker faults', () => {
     }
   }, 120_000);
 
-  it('a worker stopped with SIGTERM mid-run loses nothing', async () => {
+  it('a worker stopped with SIGTERM mid-run returns the run to the queue, exits cleanly, and another finishes it', async () => {
     const id = await startRun({ ...defaultRunParameters, horizonMinutes: 4 * 60, timeStepSeconds: 10, capacityFactor: 0.45 });
     const taker = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id) && w.proc.exitCode === null));
+    await until('the solve to be under way', 20_000, async () => ((await getRun(id)).status === 'running' ? true : undefined));
     taker.proc.kill('SIGTERM');
+    // Grace of 1 s, then the run goes back: the process ends well before the job would expire (42 s).
+    expect(await taker.exited).toBe(0);
+    expect(taker.returned).toEqual([id]);
+    expect(taker.finished).not.toContain(id);
     const done = await until('the run to finish', 90_000, async () => {
       const r = await getRun(id);
       return r.status === 'succeeded' || r.status === 'failed' ? r : undefined;
     });
     expect(done.status, done.failureReason ?? '').toBe('succeeded');
     expect(done.result!.headline.steadyStateVehiclesPerHour).toBeGreaterThan(0);
+    expect(workers.filter((w) => w !== taker).some((w) => w.finished.includes(id))).toBe(true);
   }, 150_000);
 });
