@@ -9,6 +9,7 @@ import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
 import { csrfSync } from 'csrf-sync';
 import type pg from 'pg';
+import type { DestinationStream } from 'pino';
 import type { Config } from './config';
 import type { Database } from './db/client';
 import { configurePassport } from './auth/passport';
@@ -43,12 +44,14 @@ export type AppDeps = {
   runQueue: RunEnqueuer;
   // True once the process is shutting down: /readyz then answers 503.
   isStopping?: () => boolean;
+  // Where the JSON log lines go (standard output unless given).
+  logDestination?: DestinationStream;
 };
 
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, isStopping }: AppDeps) {
-  const logger = createLogger(config);
+export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, isStopping, logDestination }: AppDeps) {
+  const logger = createLogger(config, logDestination);
   const log = givenLog ?? ((err: unknown) => logger.error({ err }, 'unhandled error'));
   const app = express();
   app.disable('x-powered-by');

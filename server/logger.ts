@@ -2,13 +2,22 @@
 import pino from 'pino';
 import type { Config } from './config';
 
-export function createLogger(config: Pick<Config, 'LOG_LEVEL' | 'NODE_ENV'>) {
-  return pino({
-    level: config.NODE_ENV === 'test' ? 'silent' : config.LOG_LEVEL,
+// Tests are silent unless they give a destination to read the lines from.
+export function createLogger(config: Pick<Config, 'LOG_LEVEL' | 'NODE_ENV'>, destination?: pino.DestinationStream) {
+  const options: pino.LoggerOptions = {
+    level: config.NODE_ENV === 'test' && !destination ? 'silent' : config.LOG_LEVEL,
     redact: {
-      paths: ['req.headers.cookie', 'req.headers["x-csrf-token"]', 'res.headers["set-cookie"]', '*.password', '*.passwordHash'],
+      paths: [
+        'req.headers.cookie',
+        'req.headers.authorization',
+        'req.headers["x-csrf-token"]',
+        'res.headers["set-cookie"]',
+        '*.password',
+        '*.passwordHash',
+      ],
       censor: '[hidden]',
     },
-  });
+  };
+  return destination ? pino(options, destination) : pino(options);
 }
 export type Logger = ReturnType<typeof createLogger>;
