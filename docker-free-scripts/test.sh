@@ -7,6 +7,8 @@ docker-free-scripts/install-node-packages.sh
 docker-free-scripts/install-system-packages.sh --tests
 CUTLINE_PG_FAST=1 docker-free-scripts/pg-start.sh
 export CUTLINE_TEST_DATABASE_BASE_URL="$(database_url '')"
+say "auditing the shipped dependencies"
+docker-free-scripts/audit.sh
 say "type-checking"
 npx vue-tsc --build --force
 say "building the client"
