@@ -26,6 +26,8 @@ const configSchema = z.object({
   // have waiting or running at once: the queue must not become a way to starve other offices.
   RUN_STARTS_PER_MINUTE: z.coerce.number().int().min(1).default(30),
   RUNS_IN_FLIGHT_PER_ORGANIZATION: z.coerce.number().int().min(1).default(40),
+  // The public signature check reads whole PDFs for anyone: so many a minute per address.
+  VERIFY_PER_MINUTE: z.coerce.number().int().min(1).default(30),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),

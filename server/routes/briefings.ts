@@ -1,6 +1,7 @@
 // /api/briefings: drafting, sign-off, the PDFs, verification of an uploaded copy, and the
 // development outbox. Another organisation's briefing is a 404; a signed one a 409 to change.
 import { Router, type Response } from 'express';
+import rateLimit from 'express-rate-limit';
 import {
   briefingCreateSchema,
   briefingFileQuerySchema,
@@ -15,7 +16,7 @@ import {
 import { idParamsSchema } from '../../shared/api/plans';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
-import { NotFoundError } from '../errors';
+import { HttpError, NotFoundError } from '../errors';
 import { actorOf, currentMembership, requireMember } from '../middleware/require-member';
 import { singleFileUpload } from '../middleware/upload';
 import { briefingDetail, createBriefingService, listBriefings } from '../services/briefings';
@@ -39,7 +40,15 @@ export function briefingsRouter(db: Database, config: Config): Router {
   const upload = singleFileUpload(Math.min(config.UPLOAD_MAX_MEGABYTES, 32));
 
   // Open to anyone, signed in or not: a recipient outside the organisation checks a copy here.
-  router.post('/verify', upload, async (req, res) => {
+  // Rate-limited per address, before the upload is read, since no account stands behind it.
+  const verifyLimiter = rateLimit({
+    windowMs: 60_000,
+    limit: config.VERIFY_PER_MINUTE,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', 'Too many signature checks from this address. Wait a minute and try again.')),
+  });
+  router.post('/verify', verifyLimiter, upload, async (req, res) => {
     const viewerOrganization = req.isAuthenticated() ? (currentMembership(req)?.organizationId ?? null) : null;
     res.json(await verifyUpload(db, req.file!.buffer, viewerOrganization));
   });

@@ -1,9 +1,9 @@
-// The dependency audit's rule (docker-free-scripts/audit/audit-verdict.ts) on reports in the
+// The dependency audit's rule (server/cli/audit-verdict.ts) on reports in the
 // shape `npm audit --json` prints (auditReportVersion 2). The report below follows a recorded
 // npm audit output for maplibre-gl (advisory GHSA-jrc7-96c5-q579, critical) published in a
 // public repository's notes, plus a transitive chain where `via` names another package.
 import { describe, expect, it } from 'vitest';
-import { acceptedAdvisoriesSchema, auditReportSchema, auditVerdict } from '../../docker-free-scripts/audit/audit-verdict';
+import { acceptedAdvisoriesSchema, auditReportSchema, auditVerdict } from '../../server/cli/audit-verdict';
 
 const report = auditReportSchema.parse({
   auditReportVersion: 2,

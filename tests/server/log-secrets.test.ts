@@ -37,7 +37,8 @@ describe('the log', () => {
     await agent.post('/api/auth/sign-in').set('x-csrf-token', first.body.csrfToken).send({ email: admin.email, password: 'a-wrong-password-typed-7' }).expect(401);
     const signedIn = await agent.post('/api/auth/sign-in').set('x-csrf-token', first.body.csrfToken).send({ email: admin.email, password: admin.password }).expect(200);
     const csrf = signedIn.body.csrfToken as string;
-    const cookie = /cutline\.sid=([^;]+)/.exec(signedIn.headers['set-cookie']!.join(';'))![1]!;
+    const setCookie = signedIn.headers['set-cookie'] as unknown as string[];
+    const cookie = /cutline\.sid=([^;]+)/.exec(setCookie.join(';'))![1]!;
     seen.push(csrf, cookie, decodeURIComponent(cookie));
 
     const newPassword = 'member-initial-password-42';

@@ -1,11 +1,11 @@
 // Runs `npm audit --omit=dev --json` and applies the verdict (audit-verdict.ts). Exit 1 when an
-// unaccepted advisory at high severity or above is found; see README.md in this folder.
+// unaccepted advisory at high severity or above is found; see docker-free-scripts/audit/README.md.
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import { acceptedAdvisoriesSchema, auditReportSchema, auditVerdict } from './audit-verdict';
 
 const say = (line: string) => process.stderr.write(`[cutline] ${line}\n`);
-const accepted = acceptedAdvisoriesSchema.parse(JSON.parse(fs.readFileSync(new URL('./accepted-advisories.json', import.meta.url), 'utf8')));
+const accepted = acceptedAdvisoriesSchema.parse(JSON.parse(fs.readFileSync(new URL('../../docker-free-scripts/audit/accepted-advisories.json', import.meta.url), 'utf8')));
 const run = spawnSync('npm', ['audit', '--omit=dev', '--json'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
 let raw: unknown;
 try {

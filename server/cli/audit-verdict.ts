@@ -1,5 +1,5 @@
 // Decides what `npm audit --omit=dev --json` found: every advisory at or above the threshold
-// fails the run unless it was reviewed and accepted (accepted-advisories.json) and the
+// fails the run unless it was reviewed and accepted (docker-free-scripts/audit/accepted-advisories.json) and the
 // acceptance has not expired. Pure, so the rule is tested on recorded reports.
 import { z } from 'zod';
 
