@@ -11,7 +11,7 @@ import { unknownUserHash, verifyPassword } from './password';
 /** Why a sign-in was refused, for the route's message: locked accounts say until when. */
 export type SignInRefusal = { message: 'locked' | 'refused'; lockedUntil?: Date };
 
-export function configurePassport(db: Database, config: Pick<Config, 'SIGN_IN_LOCKOUT_FAILURES' | 'SIGN_IN_LOCKOUT_MINUTES'>): passport.PassportStatic {
+export function configurePassport(db: Database, config: Pick<Config, 'SIGN_IN_LOCKOUT_FAILURES' | 'SIGN_IN_LOCKOUT_MINUTES' | 'PASSWORD_HASH_ROUNDS'>): passport.PassportStatic {
   const instance = new passport.Passport();
   instance.use(
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
@@ -19,7 +19,7 @@ export function configurePassport(db: Database, config: Pick<Config, 'SIGN_IN_LO
       (async () => {
         const row = await findUserForSignIn(db, email);
         // The hash is checked even for a locked or unknown account, so timing tells nothing.
-        const ok = await verifyPassword(password, row?.passwordHash ?? unknownUserHash);
+        const ok = await verifyPassword(password, row?.passwordHash ?? unknownUserHash(config.PASSWORD_HASH_ROUNDS));
         if (row?.lockedUntil && row.lockedUntil > new Date()) return refuse({ message: 'locked', lockedUntil: row.lockedUntil });
         if (!row || row.disabled) return refuse({ message: 'refused' });
         if (!ok) {
