@@ -5,7 +5,6 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import express from 'express';
 import session from 'express-session';
-import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
 import { csrfSync } from 'csrf-sync';
 import type pg from 'pg';
@@ -13,6 +12,7 @@ import type { DestinationStream } from 'pino';
 import type { Config } from './config';
 import type { Database } from './db/client';
 import { configurePassport } from './auth/passport';
+import { createSessionStore } from './auth/session-store';
 import { errorHandler } from './middleware/error-handler';
 import { apiNotFound } from './middleware/not-found';
 import { authRouter } from './routes/auth';
@@ -57,14 +57,14 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
 
-  const settings = createSettings(db, config.TILE_URL);
+  const settings = createSettings(db, config.TILE_URL, log);
   // Warm the cache so the first page's policy already names a configured tile server.
-  void settings.getMapSettings().catch(log);
+  void settings.refreshOrigins().catch(log);
   app.use(
     helmet({
       contentSecurityPolicy: {
         directives: {
-          'img-src': ["'self'", 'data:', 'blob:', () => settings.tileOrigin() ?? "'self'"],
+          'img-src': ["'self'", 'data:', 'blob:', () => settings.tileOrigins().join(' ') || "'self'"],
         },
       },
     }),
@@ -85,11 +85,10 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use(healthRouter(pool, log, isStopping));
   app.use(express.json({ limit: '1mb' }));
 
-  const PgStore = connectPgSimple(session);
   app.use(
     session({
       name: 'cutline.sid',
-      store: new PgStore({ pool, tableName: 'sessions', createTableIfMissing: false }),
+      store: createSessionStore(pool),
       secret: config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,

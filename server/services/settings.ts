@@ -1,6 +1,8 @@
-// Map settings: the database value when an administrator set one, else the TILE_URL variable.
-// Cached briefly because the Content-Security-Policy reads it on every response.
-import { eq } from 'drizzle-orm';
+// Map settings, per organization: the database value when its administrator set one, else the
+// TILE_URL variable. The Content-Security-Policy is written before the session is read, so it
+// allows the tile origins of every organization; that set is cached briefly and refreshed
+// in the background, since the policy is on every response.
+import { and, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { appSettings } from '../db/schema';
 import { mapSettingsSchema, type MapSettings } from '../../shared/api/settings';
@@ -8,41 +10,58 @@ import { recordAudit, type Actor } from './audit';
 
 const cacheMs = 10_000;
 
-export function createSettings(db: Database, environmentTileUrl: string) {
-  let cached: { at: number; value: MapSettings } | null = null;
+function originOf(tileUrl: string): string | null {
+  if (!tileUrl) return null;
+  try {
+    return new URL(tileUrl.replaceAll(/\{[a-z]\}/g, 'a')).origin;
+  } catch {
+    return null;
+  }
+}
 
-  async function getMapSettings(): Promise<MapSettings> {
-    if (cached && Date.now() - cached.at < cacheMs) return cached.value;
-    const [row] = await db.select().from(appSettings).where(eq(appSettings.key, 'map'));
+export function createSettings(db: Database, environmentTileUrl: string, log: (err: unknown) => void = () => undefined) {
+  const fallback: MapSettings = { tileUrl: environmentTileUrl, attribution: '' };
+  let origins: { at: number; value: string[] } = { at: 0, value: [originOf(environmentTileUrl)].filter((o): o is string => o !== null) };
+  let refreshing = false;
+
+  async function getMapSettings(organizationId: string): Promise<MapSettings> {
+    const [row] = await db
+      .select()
+      .from(appSettings)
+      .where(and(eq(appSettings.organizationId, organizationId), eq(appSettings.key, 'map')));
     const parsed = row ? mapSettingsSchema.safeParse(row.value) : null;
-    const value = parsed?.success ? parsed.data : { tileUrl: environmentTileUrl, attribution: '' };
-    cached = { at: Date.now(), value };
-    return value;
+    return parsed?.success ? parsed.data : fallback;
   }
 
   async function putMapSettings(actor: Actor, value: MapSettings): Promise<MapSettings> {
     await db.transaction(async (tx) => {
       await tx
         .insert(appSettings)
-        .values({ key: 'map', value })
-        .onConflictDoUpdate({ target: appSettings.key, set: { value, updatedAt: new Date() } });
+        .values({ organizationId: actor.organizationId, key: 'map', value })
+        .onConflictDoUpdate({ target: [appSettings.organizationId, appSettings.key], set: { value, updatedAt: new Date() } });
       await recordAudit(tx, actor, 'settings.map', 'settings', 'map', value);
     });
-    cached = { at: Date.now(), value };
+    await refreshOrigins();
     return value;
   }
 
-  /** The origin the CSP must allow images from, or none. */
-  function tileOrigin(): string | null {
-    const url = cached?.value.tileUrl ?? environmentTileUrl;
-    if (!url) return null;
-    try {
-      return new URL(url.replaceAll(/\{[a-z]\}/g, 'a')).origin;
-    } catch {
-      return null;
-    }
+  async function refreshOrigins(): Promise<void> {
+    const rows = await db.select({ value: appSettings.value }).from(appSettings).where(eq(appSettings.key, 'map'));
+    const urls = [environmentTileUrl, ...rows.map((r) => mapSettingsSchema.safeParse(r.value)).flatMap((p) => (p.success ? [p.data.tileUrl] : []))];
+    origins = { at: Date.now(), value: [...new Set(urls.map(originOf).filter((o): o is string => o !== null))].sort() };
   }
 
-  return { getMapSettings, putMapSettings, tileOrigin };
+  /** The origins the CSP must allow images from (possibly none); never waits for the database. */
+  function tileOrigins(): string[] {
+    if (Date.now() - origins.at > cacheMs && !refreshing) {
+      refreshing = true;
+      refreshOrigins()
+        .catch(log)
+        .finally(() => (refreshing = false));
+    }
+    return origins.value;
+  }
+
+  return { getMapSettings, putMapSettings, refreshOrigins, tileOrigins };
 }
 export type Settings = ReturnType<typeof createSettings>;

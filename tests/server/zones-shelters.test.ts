@@ -1,6 +1,6 @@
 // Zones, shelters, attachments, the capacity table and map settings against the real database.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
+import { createTestContext, signIn, signInAs, countRows, otherAccounts, type SignedInAgent, type TestContext } from './support/test-app';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';
 
 let ctx: TestContext;
@@ -128,5 +128,17 @@ describe('map settings', () => {
     expect(res.body).toEqual(tiles);
     // The Content-Security-Policy now lets map tiles come from that server.
     expect(res.headers['content-security-policy']).toContain('https://tiles.cutline.example');
+  });
+
+  it('belongs to one organization: another one neither sees it nor can change it', async () => {
+    const otherAdmin = await signIn(ctx.app, otherAccounts[0]!.email, otherAccounts[0]!.password);
+    expect((await otherAdmin.agent.get('/api/settings/map').expect(200)).body).toEqual({ tileUrl: '', attribution: '' });
+    const theirs = { tileUrl: 'https://maps.other.example/{z}/{x}/{y}.png', attribution: 'Other County tiles' };
+    await otherAdmin.agent.put('/api/settings/map').set('x-csrf-token', otherAdmin.csrf).send(theirs).expect(200);
+    expect((await viewer.agent.get('/api/settings/map').expect(200)).body.attribution).toBe('Test tiles');
+    // One policy for every page (it is written before the session is read): both origins.
+    const csp = (await viewer.agent.get('/api/settings/map')).headers['content-security-policy'];
+    expect(csp).toContain('https://tiles.cutline.example');
+    expect(csp).toContain('https://maps.other.example');
   });
 });
