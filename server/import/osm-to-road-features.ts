@@ -37,14 +37,14 @@ export function osmToRoadFeatures(osm: unknown): OsmRoadFeatures {
   let otherWays = 0;
   for (const e of elements) {
     if (!e || !isWay(e)) continue;
-    const highway = e.tags?.['highway'];
-    if (highway === undefined || highway.trim() === '') {
+    const highway: unknown = e.tags?.['highway'];
+    if (typeof highway !== 'string' || highway.trim() === '') {
       otherWays += 1;
       continue;
     }
     const refs = Array.isArray(e.nodes) ? e.nodes : [];
     // Overpass `out geom` carries positions with the ids; use them for nodes not listed.
-    e.geometry?.forEach((g, i) => {
+    (Array.isArray(e.geometry) ? e.geometry : []).forEach((g, i) => {
       const id = refs[i];
       if (g && id !== undefined && !position.has(id)) position.set(id, { type: 'node', id, lat: g.lat, lon: g.lon });
     });

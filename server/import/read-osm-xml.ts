@@ -2,17 +2,24 @@
 // OSM JSON, read in chunks so that the text is never held whole. osmtogeojson reads XML only
 // through a DOM, which for a county-sized file would cost many times the file's size; this
 // reader keeps just the nodes and ways.
+import { preview } from '../../shared/geo/check-feature-collection';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { OsmElement, OsmJson } from './osm-json';
 
 const ENTITY: Record<string, string> = { amp: '&', lt: '<', gt: '>', quot: '"', apos: "'" };
 
+// XML's Char production (XML 1.0 §2.2): no NUL, no other C0 control but tab, LF and CR.
+function isXmlChar(code: number): boolean {
+  return code === 0x9 || code === 0xa || code === 0xd || (code >= 0x20 && code <= 0xd7ff) || (code >= 0xe000 && code <= 0xfffd) || (code >= 0x10000 && code <= 0x10ffff);
+}
+
 function decodeEntities(s: string): string {
   if (!s.includes('&')) return s;
   return s.replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-z]+);/g, (whole, name: string) => {
-    if (name.startsWith('#x')) return String.fromCodePoint(parseInt(name.slice(2), 16));
-    if (name.startsWith('#')) return String.fromCodePoint(parseInt(name.slice(1), 10));
-    return ENTITY[name] ?? whole;
+    if (!name.startsWith('#')) return ENTITY[name] ?? whole;
+    const code = name.startsWith('#x') ? parseInt(name.slice(2), 16) : parseInt(name.slice(1), 10);
+    if (!isXmlChar(code)) fail(`the character reference ${whole} is not a character XML allows`);
+    return String.fromCodePoint(code);
   });
 }
 
@@ -33,30 +40,46 @@ function fail(message: string): never {
 
 function number(value: string | undefined, what: string): number {
   const n = Number(value);
-  if (value === undefined || value.trim() === '' || !Number.isFinite(n)) fail(`${what} is not a number: ${JSON.stringify(value)}`);
+  if (value === undefined || value.trim() === '' || !Number.isFinite(n)) fail(`${what} is not a number: ${value === undefined ? 'missing' : preview(value)}`);
   return n;
 }
 
 /** Incremental reader: push() byte chunks as they come, then end() for the document. */
 export class OsmXmlReader {
-  private readonly decoder = new TextDecoder('utf-8');
+  // Fatal: OSM XML is UTF-8, and a Latin-1 or UTF-16 file read as UTF-8 would garble names.
+  private readonly decoder = new TextDecoder('utf-8', { fatal: true });
   private pending = '';
   private readonly elements: OsmElement[] = [];
   private current: { type: 'node' | 'way' | 'relation'; attrs: Record<string, string>; tags: Record<string, string>; nodes: number[] } | null = null;
   private sawRoot = false;
+  private sawRootEnd = false;
 
   push(chunk: Uint8Array): void {
-    this.pending += this.decoder.decode(chunk, { stream: true });
+    this.pending += this.decode(chunk, true);
     this.drain();
   }
 
   end(): OsmJson {
-    this.pending += this.decoder.decode();
+    this.pending += this.decode(new Uint8Array(0), false);
     this.drain();
     if (this.pending.includes('<')) fail('the file ends inside a tag');
     if (!this.sawRoot) fail('no <osm> element: this is not an OpenStreetMap XML file');
     if (this.current) fail(`the file ends inside <${this.current.type} id="${this.current.attrs['id'] ?? '?'}">`);
+    // Without the closing tag the file was cut short, maybe between two ways: refuse it
+    // rather than import part of the area.
+    if (!this.sawRootEnd) fail('the file ends before </osm>: it looks cut short');
     return { elements: this.elements };
+  }
+
+  private decode(chunk: Uint8Array, stream: boolean): string {
+    let text: string;
+    try {
+      text = this.decoder.decode(chunk, { stream });
+    } catch {
+      fail('the file is not UTF-8 text (OpenStreetMap XML is always UTF-8)');
+    }
+    if (text.includes('\u0000')) fail('the file contains NUL characters: it is not a text file');
+    return text;
   }
 
   private drain(): void {
@@ -109,11 +132,13 @@ export class OsmXmlReader {
     const name = inner.slice(0, nameEnd);
     if (closing) {
       if (this.current && name === this.current.type) this.finish();
+      if (name === 'osm') this.sawRootEnd = true;
       return;
     }
     if (name === 'osm' || name === 'osmChange') {
       if (name === 'osmChange') fail('this is a change file (osmChange), not a map extract');
       this.sawRoot = true;
+      if (selfClosing) this.sawRootEnd = true;
       return;
     }
     if (name === 'node' || name === 'way' || name === 'relation') {

@@ -98,6 +98,12 @@ export function buildRoadNetwork(
   const crossings = split ? splitAtCrossings(lines, store, cellMeters) : { joined: 0, onDifferentLayers: 0 };
   const snapped = [...joinedEnds, ...snapDanglingEnds(lines, store, tolerance, cellMeters)];
   const cut = cutIntoSegments(lines, store);
+  if (cut.segments.length === 0) {
+    throw new RoadImportError(
+      'noDrivableRoads',
+      `No drivable roads in ${reading.featureCount} features: every road collapsed to a point (zero length, or shorter than the ${tolerance} m snap tolerance).`,
+    );
+  }
   const { segmentComponent, components } = connectedComponents(cut.nodes, cut.segments);
 
   const segments: NetworkSegment[] = cut.segments.map((s, i) => {
