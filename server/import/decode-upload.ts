@@ -43,10 +43,24 @@ export function decodeUpload(input: Uint8Array, fileName = 'upload'): DecodedUpl
   );
 }
 
+// A \u0000 escape: after an even number of backslashes (an odd number escapes the last one).
+const NUL_ESCAPE = /(?<!\\)(?:\\\\)*\\u0000/;
+
 /** Parses JSON bytes; @throws RoadImportError `unreadableFile` with the parser's message. */
 export function parseJsonBytes(bytes: Uint8Array, fileName = 'upload'): unknown {
+  let text: string;
   try {
-    return JSON.parse(new TextDecoder('utf-8').decode(bytes));
+    // Fatal: JSON is UTF-8 (RFC 8259 §8.1); a Latin-1 or UTF-16 file read as UTF-8 would garble names.
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new RoadImportError('unreadableFile', `${fileName}: the file is not UTF-8 text; save it as UTF-8 and upload it again`);
+  }
+  // PostgreSQL text cannot hold NUL, and no name or attribute needs one.
+  if (text.includes('\\u0000') && NUL_ESCAPE.test(text)) {
+    throw new RoadImportError('unreadableFile', `${fileName}: the file contains a NUL character (\\u0000), which no name or attribute may hold`);
+  }
+  try {
+    return JSON.parse(text);
   } catch (error) {
     throw new RoadImportError('unreadableFile', `${fileName}: not valid JSON (${(error as Error).message})`);
   }

@@ -11,7 +11,9 @@ export function singleFileUpload(maxMegabytes: number): RequestHandler {
         if (err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'payload_too_large', `The file is larger than ${maxMegabytes} MB.`));
         return next(new BadRequestError(`The upload could not be read: ${err.message}.`));
       }
-      if (err) return next(err);
+      // Anything else comes from reading the form (no boundary, cut short, a malformed part):
+      // the request's fault, never the server's.
+      if (err) return next(new BadRequestError(`The upload is not a readable form: ${err instanceof Error ? err.message : String(err)}.`));
       if (!req.file) return next(new BadRequestError('Attach the file in a form field named "file".', [{ path: 'file', message: 'Required.' }]));
       next();
     });
