@@ -22,6 +22,29 @@ export interface RawFeature {
   properties: Record<string, unknown>;
 }
 
+const PREVIEW_CHARS = 80;
+
+/**
+ * A value as the file has it, for a message: JSON, cut to one line. A feature may hold anything
+ * (a million positions, nesting too deep to write out), and the message must stay readable.
+ */
+export function preview(value: unknown): string {
+  let text: string;
+  try {
+    text = JSON.stringify(value) ?? String(value);
+  } catch {
+    return Array.isArray(value) ? '[…nested too deep to show…]' : '{…nested too deep to show…}';
+  }
+  return text.length > PREVIEW_CHARS ? `${text.slice(0, PREVIEW_CHARS - 1)}…` : text;
+}
+
+/** What a message calls a geometry's type: the type as written, or that there is none. */
+export function geometryTypeName(geometry: unknown): string {
+  if (geometry === null || geometry === undefined) return 'empty';
+  const type = typeof geometry === 'object' ? (geometry as { type?: unknown }).type : undefined;
+  return type === undefined ? 'a geometry without a "type"' : preview(type);
+}
+
 function crsName(crs: unknown): string | undefined {
   if (crs === null || typeof crs !== 'object') return undefined;
   const props = (crs as { properties?: unknown }).properties;
@@ -51,7 +74,7 @@ export function readFeatureCollection(input: unknown, what: string, idProperty?:
     if (name === undefined || !WGS84_NAMES.has(name.toLowerCase())) {
       throw new RoadImportError(
         'wrongCrs',
-        `${what}: the file declares the coordinate reference system "${name ?? JSON.stringify(fc.crs)}"; ` +
+        `${what}: the file declares the coordinate reference system ${name === undefined ? preview(fc.crs) : preview(name)}; ` +
           'coordinates must be WGS84 longitude/latitude (EPSG:4326, as RFC 7946 requires). Reproject the file and upload it again.',
       );
     }

@@ -1,7 +1,7 @@
 // Uploaded road features → lines with resolved attributes, plus what was dropped and why.
 // Malformed geometry is collected per feature; the caller fails the whole import on it.
 import type { BadFeature, DropReason, LonLat, PropertyMapping, RoadClass, SegmentAttributes } from '../api/network';
-import { failOnBadFeatures, readFeatureCollection, readPosition } from './check-feature-collection';
+import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition } from './check-feature-collection';
 import { readMappedProperties, tagsOf } from './read-mapped-properties';
 import { readRoadTags, type RoadReading } from './read-road-tags';
 
@@ -37,7 +37,7 @@ function readLineParts(geometry: unknown): PartsOrProblem {
   if (g.type === 'Point' || g.type === 'MultiPoint' || g.type === 'Polygon' || g.type === 'MultiPolygon' || g.type === 'GeometryCollection') {
     return { drop: 'notALine' };
   }
-  if (g.type !== 'LineString' && g.type !== 'MultiLineString') return { problem: `unknown geometry type ${JSON.stringify(g.type)}`, outOfRange: false };
+  if (g.type !== 'LineString' && g.type !== 'MultiLineString') return { problem: `unknown geometry type ${geometryTypeName(g)}`, outOfRange: false };
   const rawParts = g.type === 'LineString' ? [g.coordinates] : g.coordinates;
   if (!Array.isArray(rawParts) || rawParts.length === 0) return { problem: `${g.type} has no coordinates`, outOfRange: false };
   const parts: LonLat[][] = [];
@@ -47,8 +47,8 @@ function readLineParts(geometry: unknown): PartsOrProblem {
     const line: LonLat[] = [];
     for (const [vi, p] of raw.entries()) {
       const pos = readPosition(p);
-      if (pos === 'notAPosition') return { problem: `${where}position ${vi} is not [longitude, latitude]: ${JSON.stringify(p)}`, outOfRange: false };
-      if (pos === 'outOfRange') return { problem: `${where}position ${vi} ${JSON.stringify(p)} is outside longitude/latitude range`, outOfRange: true };
+      if (pos === 'notAPosition') return { problem: `${where}position ${vi} is not [longitude, latitude]: ${preview(p)}`, outOfRange: false };
+      if (pos === 'outOfRange') return { problem: `${where}position ${vi} ${preview(p)} is outside longitude/latitude range`, outOfRange: true };
       const last = line[line.length - 1];
       if (!last || last[0] !== pos[0] || last[1] !== pos[1]) line.push(pos);
     }

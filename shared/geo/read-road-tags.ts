@@ -2,6 +2,7 @@
 // a property mapping is first turned into the same tag form (read-mapped-properties.ts), so
 // one set of rules decides for both.
 import { drivableRoadClasses, type DropReason, type RoadClass, type SegmentAttributes } from '../api/network';
+import { preview } from './check-feature-collection';
 import { parseFlag, parseLaneCount, parseLayer, parseOneway, parseSpeedKmh, parseText, type OnewayValue } from './parse-tag-values';
 
 export type Tags = Readonly<Record<string, unknown>>;
@@ -38,7 +39,7 @@ function impliedOneway(tags: Tags, roadClass: RoadClass): boolean {
 }
 
 function show(value: unknown): string {
-  return typeof value === 'string' ? value : JSON.stringify(value);
+  return typeof value === 'string' ? value : preview(value);
 }
 
 /**

@@ -1,7 +1,8 @@
 // Shelter and exit uploads: GeoJSON points with a name and a capacity in persons.
 import { shelterAttributesSchema, type BadFeature, type LonLat, type ShelterAttributes } from '../api/network';
-import { failOnBadFeatures, readFeatureCollection, readPosition } from './check-feature-collection';
-import { issues, numeric, present } from './read-zones';
+import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition } from './check-feature-collection';
+import { issues, nameOf, numeric, present } from './read-zones';
+import { RoadImportError } from './road-import-error';
 
 export interface ShelterFeature {
   index: number;
@@ -17,24 +18,25 @@ export interface ShelterFeature {
  */
 export function readShelters(input: unknown): ShelterFeature[] {
   const features = readFeatureCollection(input, 'Shelters');
+  if (features.length === 0) throw new RoadImportError('unreadableFile', 'Shelters: the file has no features; nothing was imported');
   const bad: BadFeature[] = [];
   const shelters: ShelterFeature[] = [];
   for (const f of features) {
     const g = f.geometry as { type?: unknown; coordinates?: unknown } | null;
     if (!g || g.type !== 'Point') {
-      bad.push({ index: f.index, id: f.id, problem: `a shelter must be a Point, not ${g ? JSON.stringify(g.type) : 'empty'}` });
+      bad.push({ index: f.index, id: f.id, problem: `a shelter must be a Point, not ${geometryTypeName(g)}` });
       continue;
     }
     const pos = readPosition(g.coordinates);
     if (typeof pos === 'string') {
-      bad.push({ index: f.index, id: f.id, problem: `bad position ${JSON.stringify(g.coordinates)}` });
+      bad.push({ index: f.index, id: f.id, problem: `bad position ${preview(g.coordinates)}` });
       continue;
     }
     const p = f.properties;
     const raw = p['capacityPersons'];
     const capacity = !present(raw) || raw === 'unbounded' ? null : numeric(raw);
     const parsed = shelterAttributesSchema.safeParse({
-      name: present(p['name']) ? String(p['name']) : (f.id ?? `Shelter ${f.index + 1}`),
+      name: nameOf(p['name'], f.id ?? `Shelter ${f.index + 1}`),
       capacityPersons: capacity,
     });
     if (!parsed.success) bad.push({ index: f.index, id: f.id, problem: issues(parsed.error) });

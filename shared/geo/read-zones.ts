@@ -3,7 +3,9 @@
 import type { MultiPolygon, Polygon } from 'geojson';
 import { zoneAttributesSchema, type BadFeature, type DepartureCurve, type ZoneAttributes } from '../api/network';
 import { ZONE_DEFAULTS } from '../model/zone-defaults';
-import { failOnBadFeatures, readFeatureCollection, readPosition, type RawFeature } from './check-feature-collection';
+import { issueMessage } from '../api/issue-message';
+import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition, type RawFeature } from './check-feature-collection';
+import { RoadImportError } from './road-import-error';
 
 export interface ZoneFeature {
   index: number;
@@ -21,6 +23,12 @@ export function numeric(v: unknown): unknown {
 
 export function present(v: unknown): boolean {
   return v !== undefined && v !== null && v !== '';
+}
+
+/** A name as given (GIS tables often hold numbers there); anything else is left for the schema to refuse. */
+export function nameOf(v: unknown, fallback: string): unknown {
+  if (!present(v)) return fallback;
+  return typeof v === 'number' ? String(v) : v;
 }
 
 function curveFrom(p: Record<string, unknown>): unknown {
@@ -44,8 +52,8 @@ function curveFrom(p: Record<string, unknown>): unknown {
   };
 }
 
-export function issues(error: { issues: { path: PropertyKey[]; message: string }[] }): string {
-  return error.issues.map((i) => `${i.path.map(String).join('.') || 'value'}: ${i.message}`).join('; ');
+export function issues(error: { issues: { path: PropertyKey[]; code?: string; message: string }[] }): string {
+  return error.issues.map((i) => `${i.path.map(String).join('.') || 'value'}: ${issueMessage(i)}`).join('; ');
 }
 
 function checkRings(rings: unknown, where: string): string | null {
@@ -54,7 +62,7 @@ function checkRings(rings: unknown, where: string): string | null {
     if (!Array.isArray(ring) || ring.length < 4) return `${where}ring ${ri} needs at least four positions`;
     for (const p of ring) {
       const pos = readPosition(p);
-      if (typeof pos === 'string') return `${where}ring ${ri} has a bad position ${JSON.stringify(p)}`;
+      if (typeof pos === 'string') return `${where}ring ${ri} has a bad position ${preview(p)}`;
     }
     const a = ring[0] as number[];
     const b = ring[ring.length - 1] as number[];
@@ -63,9 +71,15 @@ function checkRings(rings: unknown, where: string): string | null {
   return null;
 }
 
+/** The geometry with [longitude, latitude] positions: elevations, which zones do not use, dropped. */
+function flat(g: Polygon | MultiPolygon): Polygon | MultiPolygon {
+  const ring = (r: number[][]) => r.map((p) => [p[0]!, p[1]!]);
+  return g.type === 'Polygon' ? { type: 'Polygon', coordinates: g.coordinates.map(ring) } : { type: 'MultiPolygon', coordinates: g.coordinates.map((poly) => poly.map(ring)) };
+}
+
 function readZone(f: RawFeature): ZoneFeature | string {
   const g = f.geometry as { type?: unknown; coordinates?: unknown } | null;
-  if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return `a zone must be a Polygon or MultiPolygon, not ${g ? JSON.stringify(g.type) : 'empty'}`;
+  if (!g || (g.type !== 'Polygon' && g.type !== 'MultiPolygon')) return `a zone must be a Polygon or MultiPolygon, not ${geometryTypeName(g)}`;
   const problem =
     g.type === 'Polygon'
       ? checkRings(g.coordinates, '')
@@ -82,14 +96,14 @@ function readZone(f: RawFeature): ZoneFeature | string {
   };
   const curve = curveFrom(p);
   const parsed = zoneAttributesSchema.safeParse({
-    name: present(p['name']) ? String(p['name']) : (f.id ?? `Zone ${f.index + 1}`),
+    name: nameOf(p['name'], f.id ?? `Zone ${f.index + 1}`),
     population: numeric(p['population']),
     participationRate: numeric(pick('participationRate', p['participationRate'], ZONE_DEFAULTS.participationRate)),
     personsPerVehicle: numeric(pick('personsPerVehicle', p['personsPerVehicle'], ZONE_DEFAULTS.personsPerVehicle)),
     departureCurve: pick('departureCurve', curve, ZONE_DEFAULTS.departureCurve) as DepartureCurve,
   });
   if (!parsed.success) return issues(parsed.error);
-  return { index: f.index, id: f.id, attributes: parsed.data, geometry: g as Polygon | MultiPolygon, defaulted };
+  return { index: f.index, id: f.id, attributes: parsed.data, geometry: flat(g as Polygon | MultiPolygon), defaulted };
 }
 
 /**
@@ -101,6 +115,7 @@ function readZone(f: RawFeature): ZoneFeature | string {
  */
 export function readZones(input: unknown): ZoneFeature[] {
   const features = readFeatureCollection(input, 'Zones');
+  if (features.length === 0) throw new RoadImportError('unreadableFile', 'Zones: the file has no features; nothing was imported');
   const bad: BadFeature[] = [];
   const zones: ZoneFeature[] = [];
   for (const f of features) {
