@@ -51,7 +51,9 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
     limit: config.SIGN_IN_ATTEMPTS_PER_WINDOW,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}`,
+    // The body is not validated yet: an e-mail that is not text (an object whose toString is not a
+    // function) must not throw here, and counts against the address alone.
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${typeof req.body?.email === 'string' ? req.body.email.toLowerCase() : ''}`,
     skipSuccessfulRequests: true,
     handler: (_req, _res, next) =>
       next(new HttpError(429, 'rate_limited', 'Too many sign-in attempts. Wait a few minutes and try again.')),
