@@ -14,6 +14,7 @@ import type { Database } from './db/client';
 import { configurePassport } from './auth/passport';
 import { createSessionStore } from './auth/session-store';
 import { errorHandler } from './middleware/error-handler';
+import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
 import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
@@ -83,7 +84,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   );
   // Health checks come before sessions: probes carry no cookie and must not create sessions.
   app.use(healthRouter(pool, log, isStopping));
-  app.use(express.json({ limit: '1mb' }));
+  app.use(express.json({ limit: '1mb' }), refuseNulText);
 
   app.use(
     session({

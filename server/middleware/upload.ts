@@ -2,6 +2,7 @@
 import multer from 'multer';
 import type { RequestHandler } from 'express';
 import { BadRequestError, HttpError } from '../errors';
+import { holdsNul } from './refuse-nul-text';
 
 export function singleFileUpload(maxMegabytes: number): RequestHandler {
   const handler = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxMegabytes * 1024 * 1024, files: 1, fields: 10 } }).single('file');
@@ -15,6 +16,7 @@ export function singleFileUpload(maxMegabytes: number): RequestHandler {
       // the request's fault, never the server's.
       if (err) return next(new BadRequestError(`The upload is not a readable form: ${err instanceof Error ? err.message : String(err)}.`));
       if (!req.file) return next(new BadRequestError('Attach the file in a form field named "file".', [{ path: 'file', message: 'Required.' }]));
+      if (holdsNul(req.body) || req.file.originalname.includes('\u0000')) return next(new BadRequestError('Form fields and file names must not contain the NUL character (U+0000).'));
       next();
     });
   };
