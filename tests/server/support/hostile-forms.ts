@@ -62,6 +62,11 @@ export function hostileForms(target: UploadTarget): fc.Arbitrary<HostileForm> {
       fields: [],
     })),
   ];
+  // A valid file, but NUL in what is stored beside it (the layer's name, the source file name).
+  forms.push(
+    validFile(target).map((bytes) => ({ kind: 'a NUL in the name field', files: [part('file', bytes)], fields: [['name', 'Quay\u0000Roads']] })),
+    validFile(target).map((bytes) => ({ kind: 'a NUL in the file name', files: [part('file', bytes, 'roads\u0000.geojson')], fields: [] })),
+  );
   if (target === 'roads') {
     forms.push(
       fc.tuple(validFile(target), badOptions).map(([bytes, options]) => ({ kind: 'bad import options', files: [part('file', bytes)], fields: [['options', options]] })),
