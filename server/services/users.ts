@@ -14,16 +14,32 @@ export async function findUserForSignIn(db: Database, email: string) {
   return row;
 }
 
+// Runs on every signed-in request (passport's deserializeUser): one round trip, the user's
+// rows joined with their memberships.
 export async function loadAuthUser(db: Database, userId: string): Promise<Express.User | null> {
-  const [user] = await db.select().from(users).where(eq(users.id, userId));
-  if (!user || user.disabled) return null;
   const rows = await db
-    .select({ organizationId: memberships.organizationId, organizationName: organizations.name, role: memberships.role })
-    .from(memberships)
-    .innerJoin(organizations, eq(organizations.id, memberships.organizationId))
-    .where(eq(memberships.userId, userId))
+    .select({
+      id: users.id,
+      email: users.email,
+      displayName: users.displayName,
+      disabled: users.disabled,
+      organizationId: memberships.organizationId,
+      organizationName: organizations.name,
+      role: memberships.role,
+    })
+    .from(users)
+    .leftJoin(memberships, eq(memberships.userId, users.id))
+    .leftJoin(organizations, eq(organizations.id, memberships.organizationId))
+    .where(eq(users.id, userId))
     .orderBy(asc(organizations.name));
-  return { id: user.id, email: user.email, displayName: user.displayName, memberships: rows };
+  const user = rows[0];
+  if (!user || user.disabled) return null;
+  const joined = rows.flatMap((r) =>
+    r.organizationId !== null && r.organizationName !== null && r.role !== null
+      ? [{ organizationId: r.organizationId, organizationName: r.organizationName, role: r.role }]
+      : [],
+  );
+  return { id: user.id, email: user.email, displayName: user.displayName, memberships: joined };
 }
 
 function toMember(row: { userId: string; email: string; displayName: string; role: Role; joinedAt: Date; lockedUntil: Date | null }): Member {
