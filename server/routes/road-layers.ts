@@ -17,7 +17,7 @@ import { importRoadLayer } from '../import/import-road-layer';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
 import { assertPlanInOrganization } from '../services/plan-access';
-import { getActiveRoadLayer, getSegment, listSegments, saveRoadLayer, segmentsInViewport, updateSegments } from '../services/road-layers';
+import { getActiveRoadLayer, getSegment, listSegments, saveRoadLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
 
 export function roadLayersRouter(db: Database, config: Config): Router {
   const router = Router({ mergeParams: true });
@@ -48,7 +48,7 @@ export function roadLayersRouter(db: Database, config: Config): Router {
   router.get('/segments/map', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     const { bbox, zoom } = segmentMapQuerySchema.parse(req.query);
-    res.json(await segmentsInViewport(db, actorOf(req).organizationId, planId, bbox, zoom));
+    res.type('json').send(await segmentsInViewportJson(db, actorOf(req).organizationId, planId, bbox, zoom));
   });
 
   router.get('/segments', requireMember('plans:read'), async (req, res) => {

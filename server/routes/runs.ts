@@ -11,7 +11,7 @@ import { actorOf, requireMember } from '../middleware/require-member';
 import { arcsGeoJson } from '../services/run-exports';
 import { assertRunQuota } from '../services/run-quota';
 import { getScenario } from '../services/scenarios';
-import { createRun, getRun, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
+import { createRun, getRunJson, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
 import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from './list-page';
 
@@ -43,7 +43,7 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Ro
 
   router.get('/runs/:runId', requireMember('plans:read'), async (req, res) => {
     const { planId, runId } = runParamsSchema.parse(req.params);
-    res.json(await getRun(db, actorOf(req).organizationId, planId, runId));
+    res.type('json').send(await getRunJson(db, actorOf(req).organizationId, planId, runId));
   });
 
   router.post('/runs/:runId/cancel', requireMember('plans:write'), async (req, res) => {

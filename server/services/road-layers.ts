@@ -4,7 +4,7 @@ import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from 'drizzl
 import type { Database, Tx } from '../db/client';
 import { roadLayers, roadNodes, roadSegments } from '../db/schema';
 import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/network';
-import type { RoadLayer, Segment, SegmentMap, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
+import type { RoadLayer, Segment, SegmentMapProperties, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
 import type { RoadNetwork } from '../../shared/geo/build-road-network';
 import type { z } from 'zod';
 import { BadRequestError, NotFoundError } from '../errors';
@@ -160,14 +160,19 @@ function toSegment(row: SegmentRow): Segment {
 // Below this zoom level a viewport holds the whole town: thin out to the bigger roads first.
 const maxFeaturesPerResponse = 25_000;
 
-/** Segments inside a viewport as GeoJSON, simplified to about a pixel at the zoom level. */
-export async function segmentsInViewport(
+/**
+ * Segments inside a viewport as the JSON text of a SegmentMap (shared/api/road-layers),
+ * simplified to about a pixel at the zoom level. Each line's geometry goes out as PostGIS wrote
+ * it: parsing and serialising the coordinates again took most of the server's time on this
+ * route, which the map asks on every pan and zoom.
+ */
+export async function segmentsInViewportJson(
   db: Database,
   organizationId: string,
   planId: string,
   bbox: [number, number, number, number],
   zoom: number,
-): Promise<SegmentMap> {
+): Promise<string> {
   const layerId = await requireActiveLayer(db, organizationId, planId);
   const [w, s, e, n] = bbox;
   // Degrees per pixel at this zoom (256-px tiles); simplify to half of it.
@@ -179,24 +184,20 @@ export async function segmentsInViewport(
     ORDER BY CASE road_class WHEN 'motorway' THEN 0 WHEN 'trunk' THEN 1 WHEN 'primary' THEN 2 WHEN 'secondary' THEN 3 WHEN 'tertiary' THEN 4 ELSE 5 END, id
     LIMIT ${maxFeaturesPerResponse + 1}`);
   const truncated = rows.rows.length > maxFeaturesPerResponse;
-  return {
-    type: 'FeatureCollection',
-    truncated,
-    features: rows.rows.slice(0, maxFeaturesPerResponse).map((r) => ({
-      type: 'Feature' as const,
-      geometry: JSON.parse(r.g),
-      properties: {
-        id: Number(r.id),
-        roadClass: r.road_class as SegmentMap['features'][number]['properties']['roadClass'],
-        lanesForward: r.lanes_forward,
-        lanesBackward: r.lanes_backward,
-        oneway: r.oneway,
-        closed: r.closed,
-        bridge: r.bridge,
-        name: r.name,
-      },
-    })),
-  };
+  const features = rows.rows.slice(0, maxFeaturesPerResponse).map((r) => {
+    const properties: SegmentMapProperties = {
+      id: Number(r.id),
+      roadClass: r.road_class as SegmentMapProperties['roadClass'],
+      lanesForward: r.lanes_forward,
+      lanesBackward: r.lanes_backward,
+      oneway: r.oneway,
+      closed: r.closed,
+      bridge: r.bridge,
+      name: r.name,
+    };
+    return `{"type":"Feature","geometry":${r.g},"properties":${JSON.stringify(properties)}}`;
+  });
+  return `{"type":"FeatureCollection","truncated":${truncated},"features":[${features.join(',')}]}`;
 }
 
 export async function listSegments(

@@ -1,10 +1,10 @@
 // Runs: build the engine problem from a plan snapshot, queue it, solve it off the main thread,
 // store the result. Identical inputs (same problem, algorithm and engine) reuse a stored result.
 import { createHash } from 'node:crypto';
-import { asc, and, desc, eq, getTableColumns, inArray } from 'drizzle-orm';
+import { asc, and, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
-import { runInputs, runs } from '../db/schema';
-import type { Run, RunParameters, RunWithResult } from '../../shared/api/runs';
+import { plans, runInputs, runs } from '../db/schema';
+import type { Run, RunParameters } from '../../shared/api/runs';
 import { buildEvacuationProblem, ModelInputError, type BuiltEvacuationProblem } from '../../shared/model/build-evacuation-problem';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
 import { ENGINE_VERSION } from '../runs/engine-version';
@@ -179,9 +179,26 @@ export async function getRunRow(db: Database, organizationId: string, planId: st
   return row;
 }
 
-export async function getRun(db: Database, organizationId: string, planId: string, runId: string): Promise<RunWithResult> {
-  const row = await getRunRow(db, organizationId, planId, runId);
-  return { ...toRun(row), result: row.result };
+/**
+ * The run and its result as the JSON text of a RunWithResult (shared/api/runs). The stored
+ * result, hundreds of kilobytes on the demo town and megabytes on a city, is sent as PostgreSQL
+ * renders it: parsing and serialising it again took most of the server's time on this route.
+ * One query; the plan's organization is checked in it.
+ */
+export async function getRunJson(db: Database, organizationId: string, planId: string, runId: string): Promise<string> {
+  const [row] = await db
+    .select({ ...runColumnsWithoutResult, resultJson: sql<string | null>`${runs.result}::text` })
+    .from(runs)
+    .innerJoin(plans, eq(plans.id, runs.planId))
+    .where(and(eq(runs.id, runId), eq(runs.planId, planId), eq(plans.organizationId, organizationId)));
+  if (!row) {
+    // Which of the two is missing decides the message.
+    await assertPlanInOrganization(db, organizationId, planId);
+    throw new NotFoundError('run');
+  }
+  const { resultJson, ...run } = row;
+  const head = JSON.stringify(toRun({ ...run, result: null }));
+  return `${head.slice(0, -1)},"result":${resultJson ?? 'null'}}`;
 }
 
 export async function markCancelled(db: Database, actor: Actor, planId: string, runId: string): Promise<Run> {
