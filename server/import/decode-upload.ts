@@ -6,7 +6,7 @@ import { gunzipSync } from 'node:zlib';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 
 // seek-bzip is CommonJS without type declarations; this is the one function used.
-const bunzip = createRequire(import.meta.url)('seek-bzip') as { decode(input: Buffer): Buffer };
+const bunzip = createRequire(import.meta.url)('seek-bzip') as { decode(input: Buffer, output?: { writeByte(b: number): void; getBuffer(): Buffer }): Buffer };
 
 export type UploadKind = 'xml' | 'json';
 
@@ -20,14 +20,49 @@ function startsWith(bytes: Uint8Array, prefix: number[]): boolean {
   return prefix.every((b, i) => bytes[i] === b);
 }
 
-/** @throws RoadImportError `unreadableFile` for empty, corrupt or unknown content. */
-export function decodeUpload(input: Uint8Array, fileName = 'upload'): DecodedUpload {
+// Text longer than this cannot become one JavaScript string (V8's limit is about 2^29
+// characters), so no larger file could be read anyway; it also stops a decompression bomb
+// (gzip and bzip2 expand a thousandfold and more) before it takes the server's memory.
+export const MAX_EXPANDED_BYTES = 512 * 1024 * 1024;
+
+class ExpandedTooLarge extends Error {}
+
+/** An output for seek-bzip that grows as needed up to the limit, then stops the decoder. */
+function boundedOutput(limit: number) {
+  let buffer = Buffer.alloc(1 << 16);
+  let pos = 0;
+  return {
+    writeByte(byte: number) {
+      if (pos >= buffer.length) {
+        if (buffer.length >= limit) throw new ExpandedTooLarge();
+        const grown = Buffer.alloc(Math.min(limit, buffer.length * 2));
+        buffer.copy(grown);
+        buffer = grown;
+      }
+      buffer[pos++] = byte;
+    },
+    getBuffer: () => buffer.subarray(0, pos),
+  };
+}
+
+/** @throws RoadImportError `unreadableFile` for empty, corrupt, oversized or unknown content. */
+export function decodeUpload(input: Uint8Array, fileName = 'upload', maxExpandedBytes = MAX_EXPANDED_BYTES): DecodedUpload {
   let bytes = input;
   const compression: DecodedUpload['compression'] = startsWith(input, [0x42, 0x5a, 0x68]) ? 'bzip2' : startsWith(input, [0x1f, 0x8b]) ? 'gzip' : 'none';
+  const limit = `${Math.round(maxExpandedBytes / 1024 / 1024)} MB`;
+  const tooLarge = () =>
+    new RoadImportError(
+      'unreadableFile',
+      compression === 'none'
+        ? `${fileName}: the file is larger than ${limit}, more than an import can read; split the area into smaller files`
+        : `${fileName}: the ${compression} file expands to more than ${limit}, more than an import can read; split the area into smaller files`,
+    );
+  if (input.byteLength > maxExpandedBytes) throw tooLarge();
   try {
-    if (compression === 'bzip2') bytes = bunzip.decode(Buffer.from(input.buffer, input.byteOffset, input.byteLength));
-    else if (compression === 'gzip') bytes = gunzipSync(input);
+    if (compression === 'bzip2') bytes = bunzip.decode(Buffer.from(input.buffer, input.byteOffset, input.byteLength), boundedOutput(maxExpandedBytes));
+    else if (compression === 'gzip') bytes = gunzipSync(input, { maxOutputLength: maxExpandedBytes });
   } catch (error) {
+    if (error instanceof ExpandedTooLarge || (error as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE') throw tooLarge();
     throw new RoadImportError('unreadableFile', `${fileName}: the ${compression} data is corrupt (${String((error as Error).message ?? error)})`);
   }
   let i = 0;
