@@ -1,0 +1,90 @@
+// What the load clients send. Reads: the requests a planner's screens make, in the order each
+// connection cycles through them. Writes: edits a planner makes (plan description, a scenario
+// created and deleted, a segment's lanes), with the session's CSRF token. Starting runs is paced
+// apart (run-starter.ts). Every request names its route so latencies can be told apart.
+import type { AutocannonRequest } from 'autocannon';
+import type { BenchSession } from './sign-in';
+
+export type BenchFixture = {
+  planId: string;
+  /** A run of the plan that finished with a result. */
+  finishedRunId: string;
+  /** The road layer's extent as west,south,east,north, as the workspace map first shows it. */
+  bbox: string;
+  /** Two-way segments whose lanes the writes change. */
+  twoWaySegmentIds: number[];
+};
+
+export type NamedRequest = AutocannonRequest & { route: string };
+
+const pick = <T>(xs: readonly T[]): T => xs[Math.floor(Math.random() * xs.length)]!;
+
+export function readRequests(f: BenchFixture): NamedRequest[] {
+  const plan = `/api/plans/${f.planId}`;
+  const get = (route: string, path: string): NamedRequest => ({ route, method: 'GET', path });
+  return [
+    get('GET /api/auth/session', '/api/auth/session'),
+    get('GET /api/plans', '/api/plans'),
+    get('GET /api/plans/:id', plan),
+    get('GET …/road-layer', `${plan}/road-layer`),
+    get('GET …/zones', `${plan}/zones`),
+    get('GET …/shelters', `${plan}/shelters`),
+    get('GET …/scenarios', `${plan}/scenarios`),
+    get('GET …/runs', `${plan}/runs`),
+    get('GET …/runs/:runId', `${plan}/runs/${f.finishedRunId}`),
+    get('GET …/segments?page=1', `${plan}/segments?page=1`),
+    get('GET …/segments/map', `${plan}/segments/map?bbox=${f.bbox}&zoom=14`),
+    get('GET /api/briefings', '/api/briefings'),
+  ];
+}
+
+export function writeRequests(f: BenchFixture): NamedRequest[] {
+  const plan = `/api/plans/${f.planId}`;
+  const json = (body: unknown) => JSON.stringify(body);
+  const stamp = () => `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 8)}`;
+  return [
+    {
+      route: 'PATCH /api/plans/:id',
+      method: 'PATCH',
+      path: plan,
+      setupRequest: (r) => ({ ...r, body: json({ description: `Bench edit ${stamp()}: the river crossings under load.` }) }),
+    },
+    {
+      route: 'POST …/scenarios',
+      method: 'POST',
+      path: `${plan}/scenarios`,
+      setupRequest: (r) => ({ ...r, body: json({ name: `Bench scenario ${stamp()}`, description: 'Created and deleted by the HTTP bench.' }) }),
+      onResponse: (status, body, context) => {
+        context.scenarioId = status === 201 ? (JSON.parse(body) as { id: string }).id : undefined;
+      },
+    },
+    {
+      // A failed create leaves no id: the path then names no scenario and the answer counts as non-2xx.
+      route: 'DELETE …/scenarios/:scenarioId',
+      method: 'DELETE',
+      path: `${plan}/scenarios/none`,
+      setupRequest: (r, context) => ({ ...r, path: `${plan}/scenarios/${String(context.scenarioId ?? 'none')}` }),
+    },
+    {
+      route: 'PATCH …/segments/:segmentId',
+      method: 'PATCH',
+      path: `${plan}/segments/${f.twoWaySegmentIds[0]}`,
+      setupRequest: (r) => {
+        const lanes = pick([1, 2]);
+        return { ...r, path: `${plan}/segments/${pick(f.twoWaySegmentIds)}`, body: json({ lanesForward: lanes, lanesBackward: lanes }) };
+      },
+    },
+  ];
+}
+
+/** The requests with one session's cookie (and, for writes, its CSRF token) on every one. */
+export function withSession(requests: NamedRequest[], session: BenchSession): NamedRequest[] {
+  return requests.map((r) => ({
+    ...r,
+    headers: {
+      ...r.headers,
+      cookie: session.cookie,
+      ...(r.method === 'GET' ? {} : { 'x-csrf-token': session.csrfToken, 'content-type': 'application/json' }),
+    },
+  }));
+}

@@ -1,0 +1,207 @@
+// `npm run bench:http [-- --seconds 10] [-- --readme] [-- --profile]`: the API under load on
+// loopback. Starts PostgreSQL if needed, creates and seeds a throwaway database, starts the API
+// server and one run worker as separate processes (production settings, warn-level logs), signs
+// clients in, then for --seconds runs 200 read and 20 write connections at once (autocannon;
+// --read-connections, --write-connections) while a paced client keeps runs queued for the
+// worker. Prints one table; --readme writes it into tests/bench/http/README.md (one block per
+// load shape). Processes and the database are removed at the end, also on failure or Ctrl+C.
+// Results also go to tests/output/http-bench/results.json.
+import { execFileSync } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import { fileURLToPath } from 'node:url';
+import { parseArgs } from 'node:util';
+import { demoAccounts } from '../../../server/seed/demo-accounts';
+import { createBenchDatabase, ensurePostgres, type BenchDatabase } from './bench-database';
+import { prepareFixture } from './bench-fixture';
+import { runLoadGroup } from './load-group';
+import { readRequests, writeRequests } from './load-mix';
+import { formatReport } from './report';
+import { startRunStarter } from './run-starter';
+import { startProcess, waitForReady, type BenchProcess } from './server-processes';
+import { signIn, signInAll } from './sign-in';
+import { workerRunsBetween } from './worker-runs';
+import { databaseCpuSince, databaseCpuSnapshot } from './database-cpu';
+
+const root = fileURLToPath(new URL('../../../', import.meta.url));
+const here = fileURLToPath(new URL('./', import.meta.url));
+const out = `${root}tests/output/http-bench/`;
+const READ_P99_TARGET_MS = 250;
+
+const { values } = parseArgs({
+  options: {
+    seconds: { type: 'string', default: '60' },
+    'read-connections': { type: 'string', default: '200' },
+    'write-connections': { type: 'string', default: '20' },
+    'warmup-seconds': { type: 'string', default: '5' },
+    readme: { type: 'boolean', default: false },
+    // Writes a V8 CPU profile of the API server to tests/output/http-bench/ (open it in Chrome's DevTools).
+    profile: { type: 'boolean', default: false },
+  },
+});
+const seconds = Number(values.seconds);
+const readConnections = Number(values['read-connections']);
+const writeConnections = Number(values['write-connections']);
+const warmupSeconds = Number(values['warmup-seconds']);
+for (const [name, v] of Object.entries({ seconds, readConnections, writeConnections })) {
+  if (!Number.isInteger(v) || v < 1) throw new Error(`--${name} must be a positive whole number`);
+}
+mkdirSync(out, { recursive: true });
+const say = (s: string) => process.stderr.write(`[bench:http] ${s}\n`);
+const loadAverage = () => os.loadavg().map((x) => x.toFixed(2)).join(' ');
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer().listen(0, '127.0.0.1', () => {
+      const { port } = server.address() as net.AddressInfo;
+      server.close(() => resolve(port));
+    });
+    server.on('error', reject);
+  });
+}
+
+function commitDescription(): string {
+  try {
+    const sha = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: root, encoding: 'utf8' }).trim();
+    const dirty = execFileSync('git', ['status', '--porcelain', '--untracked-files=no'], { cwd: root, encoding: 'utf8' }).trim() !== '';
+    return dirty ? `${sha} (with uncommitted changes in the tree)` : sha;
+  } catch {
+    return 'unknown';
+  }
+}
+
+let database: BenchDatabase | null = null;
+const processes: BenchProcess[] = [];
+let cleaning: Promise<void> | null = null;
+function cleanUp(): Promise<void> {
+  cleaning ??= (async () => {
+    await Promise.all(processes.map((p) => p.stop().catch(() => undefined)));
+    if (database) await database.drop().catch((e: unknown) => say(`could not drop ${database!.name}: ${String(e)}`));
+  })();
+  return cleaning;
+}
+for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+  process.on(signal, () => {
+    say(`${signal}: stopping the processes and dropping the bench database`);
+    void cleanUp().finally(() => process.exit(130));
+  });
+}
+
+async function main(): Promise<void> {
+  say(`load average before: ${loadAverage()}`);
+  ensurePostgres(root);
+  say('creating, migrating and seeding the bench database');
+  database = await createBenchDatabase();
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const env = {
+    NODE_ENV: 'production',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    DATABASE_URL: database.url,
+    LOG_LEVEL: 'warn',
+    // Production refuses the published development secrets; these live as long as the bench.
+    SESSION_SECRET: randomBytes(24).toString('hex'),
+    SIGNING_KEY_PASSPHRASE: randomBytes(24).toString('hex'),
+    WORKER_CONCURRENCY: '1',
+    // At the end a run in hand goes back to the queue soon; the database is dropped anyway.
+    WORKER_SHUTDOWN_GRACE_SECONDS: '5',
+  };
+  processes.push(startProcess('api', root, 'server/index.ts', env, `${out}api.log`, values.profile ? ['--cpu-prof', `--cpu-prof-dir=${out}`] : []));
+  processes.push(startProcess('worker', root, 'server/worker.ts', env, `${out}worker.log`));
+  const [api, worker] = processes as [BenchProcess, BenchProcess];
+  await waitForReady(`${baseUrl}/readyz`, api, 60_000);
+
+  say('signing in');
+  const readSessions = await signInAll(baseUrl, demoAccounts, 8);
+  const writers = demoAccounts.filter((a) => a.role === 'planner' || a.role === 'admin');
+  const writeSessions = await signInAll(baseUrl, writers, 5);
+  const planner = demoAccounts.find((a) => a.role === 'planner')!;
+  const runStarterSession = await signIn(baseUrl, planner.email, planner.password);
+
+  say('finding the demo plan and solving a first run');
+  const fixture = await prepareFixture(baseUrl, runStarterSession, 300_000);
+  say(`first run solved in ${fixture.firstRunSeconds.toFixed(1)} s`);
+
+  if (warmupSeconds > 0) {
+    say(`warming up for ${warmupSeconds} s (not measured)`);
+    await Promise.all([
+      runLoadGroup('reads', baseUrl, readRequests(fixture), readSessions, Math.min(20, readConnections), warmupSeconds).done,
+      runLoadGroup('writes', baseUrl, writeRequests(fixture), writeSessions, Math.min(2, writeConnections), warmupSeconds).done,
+    ]);
+  }
+
+  say(`measuring for ${seconds} s: ${readConnections} read and ${writeConnections} write connections, runs kept queued`);
+  const loadAverageBefore = loadAverage();
+  const cpuBefore = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(), database: await databaseCpuSnapshot(database.url) };
+  const from = new Date();
+  // Two runs waiting or running keeps the worker busy without a backlog; one start every 3 s at
+  // most is 20 a minute, inside the default RUN_STARTS_PER_MINUTE of 30.
+  const starter = startRunStarter(baseUrl, runStarterSession, fixture.planId, 2, 3000);
+  const groups = await Promise.all([
+    runLoadGroup('reads', baseUrl, readRequests(fixture), readSessions, readConnections, seconds).done,
+    runLoadGroup('writes', baseUrl, writeRequests(fixture), writeSessions, writeConnections, seconds).done,
+  ]);
+  const runStarts = await starter.stop();
+  const to = new Date();
+  const cpuAfter = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(cpuBefore.bench), database: await databaseCpuSince(database.url, cpuBefore.database) };
+  const loadAverageAfter = loadAverage();
+  const workerRuns = await workerRunsBetween(database.url, from, to);
+  const spent = (a: number | null, b: number | null) => (a === null || b === null ? null : b - a);
+
+  const header =
+    `Measured ${from.toISOString()} on ${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, ` +
+    `Node ${process.version}, commit ${commitDescription()}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
+    `load average (1, 5, 15 min) ${loadAverageBefore} before the load.`;
+  const { text, readTargetMet } = formatReport({
+    header,
+    groups,
+    runStarts,
+    workerRuns,
+    cpu: [
+      { name: 'API', seconds: spent(cpuBefore.api, cpuAfter.api) },
+      { name: 'worker', seconds: spent(cpuBefore.worker, cpuAfter.worker) },
+      { name: 'PostgreSQL (this database)', seconds: cpuAfter.database },
+      { name: 'bench (autocannon)', seconds: (cpuAfter.bench.user + cpuAfter.bench.system) / 1e6 },
+    ],
+    loadAverageAfter,
+    readP99TargetMs: READ_P99_TARGET_MS,
+  });
+  process.stdout.write(`${text}\n`);
+  writeFileSync(
+    `${out}results.json`,
+    JSON.stringify(
+      {
+        header,
+        groups: groups.map((g) => ({ ...g, latenciesMs: undefined, byRoute: Object.fromEntries([...g.byRoute].map(([k, v]) => [k, { count: v.latenciesMs.length, statuses: Object.fromEntries(v.statuses) }])) })),
+        runStarts,
+        workerRuns,
+        loadAverageAfter,
+      },
+      null,
+      2,
+    ),
+  );
+  if (values.readme) {
+    // One block per load shape, so a lighter run does not replace the 200 + 20 one.
+    const readme = `${here}README.md`;
+    const id = `${readConnections}-reads-${writeConnections}-writes-${seconds}s`;
+    const start = `<!-- bench:${id}:start -->`;
+    const end = `<!-- bench:${id}:end -->`;
+    const current = readFileSync(readme, 'utf8');
+    const block = `${start}\n${text}\n${end}`;
+    writeFileSync(readme, current.includes(start) ? current.replace(new RegExp(`${start}[\\s\\S]*${end}`), block) : `${current.trimEnd()}\n\n${block}\n`);
+  }
+  if (!readTargetMet) process.exitCode = 1;
+}
+
+try {
+  await main();
+} catch (e) {
+  process.exitCode = 2;
+  say(e instanceof Error ? (e.stack ?? e.message) : String(e));
+} finally {
+  await cleanUp();
+}
