@@ -18,6 +18,8 @@ declare module 'autocannon' {
     connections: number;
     duration: number;
     timeout?: number;
+    /** Requests per second from each connection; without it each sends the next as soon as an answer arrives. */
+    connectionRate?: number;
     requests: AutocannonRequest[];
     setupClient?: (client: AutocannonClient) => void;
   };

@@ -25,6 +25,8 @@ export function runLoadGroup(
   sessions: BenchSession[],
   connections: number,
   seconds: number,
+  // Requests per second per connection (a client's pace); none: back to back (a closed loop).
+  rate?: number,
 ): { done: Promise<GroupResult>; stop: () => void } {
   if (sessions.length === 0) throw new Error(`no sessions for the ${group}`);
   let next = 0;
@@ -42,6 +44,7 @@ export function runLoadGroup(
     connections,
     duration: seconds,
     timeout: 10,
+    ...(rate ? { connectionRate: rate } : {}),
     requests: named,
     setupClient: (client) => client.setRequests(withSession(named, sessions[next++ % sessions.length]!)),
   });

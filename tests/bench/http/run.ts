@@ -36,6 +36,9 @@ const { values } = parseArgs({
     'read-connections': { type: 'string', default: '200' },
     'write-connections': { type: 'string', default: '20' },
     'warmup-seconds': { type: 'string', default: '5' },
+    // Each connection sends this many requests per second, as a client with a person behind it
+    // does; unset, each sends the next as soon as the answer arrives (the saturating closed loop).
+    rate: { type: 'string', default: '' },
     readme: { type: 'boolean', default: false },
     // Writes a V8 CPU profile of the API server to tests/output/http-bench/ (open it in Chrome's DevTools).
     profile: { type: 'boolean', default: false },
@@ -45,6 +48,8 @@ const seconds = Number(values.seconds);
 const readConnections = Number(values['read-connections']);
 const writeConnections = Number(values['write-connections']);
 const warmupSeconds = Number(values['warmup-seconds']);
+const rate = values.rate ? Number(values.rate) : undefined;
+if (rate !== undefined && !(rate > 0)) throw new Error('--rate must be a positive number of requests per second per connection');
 for (const [name, v] of Object.entries({ seconds, readConnections, writeConnections })) {
   if (!Number.isInteger(v) || v < 1) throw new Error(`--${name} must be a positive whole number`);
 }
@@ -135,7 +140,7 @@ async function main(): Promise<void> {
     ]);
   }
 
-  say(`measuring for ${seconds} s: ${readConnections} read and ${writeConnections} write connections, runs kept queued`);
+  say(`measuring for ${seconds} s: ${readConnections} read and ${writeConnections} write connections${rate ? `, ${rate} requests/s each` : ''}, runs kept queued`);
   const loadAverageBefore = loadAverage();
   const cpuBefore = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(), database: await databaseCpuSnapshot(database.url) };
   const from = new Date();
@@ -143,8 +148,8 @@ async function main(): Promise<void> {
   // most is 20 a minute, inside the default RUN_STARTS_PER_MINUTE of 30.
   const starter = startRunStarter(baseUrl, runStarterSession, fixture.planId, 2, 3000);
   const groups = await Promise.all([
-    runLoadGroup('reads', baseUrl, readRequests(fixture), readSessions, readConnections, seconds).done,
-    runLoadGroup('writes', baseUrl, writeRequests(fixture), writeSessions, writeConnections, seconds).done,
+    runLoadGroup('reads', baseUrl, readRequests(fixture), readSessions, readConnections, seconds, rate).done,
+    runLoadGroup('writes', baseUrl, writeRequests(fixture), writeSessions, writeConnections, seconds, rate).done,
   ]);
   const runStarts = await starter.stop();
   const to = new Date();
@@ -156,7 +161,10 @@ async function main(): Promise<void> {
   const header =
     `Measured ${from.toISOString()} on ${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, ` +
     `Node ${process.version}, commit ${commitDescription()}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
-    `load average (1, 5, 15 min) ${loadAverageBefore} before the load.`;
+    `load average (1, 5, 15 min) ${loadAverageBefore} before the load.` +
+    (rate
+      ? ` Paced: each connection sends ${rate} request${rate === 1 ? '' : 's'} per second (autocannon connectionRate); latencies are from send to answer, and autocannon's own p99, corrected for coordinated omission, is ${groups.map((g) => `${g.autocannon.latency.p99} ms for ${g.group}`).join(' and ')}.`
+      : ' Closed loop: each connection sends its next request as soon as the answer arrives.');
   const { text, readTargetMet } = formatReport({
     header,
     groups,
@@ -189,7 +197,7 @@ async function main(): Promise<void> {
   if (values.readme) {
     // One block per load shape, so a lighter run does not replace the 200 + 20 one.
     const readme = `${here}README.md`;
-    const id = `${readConnections}-reads-${writeConnections}-writes-${seconds}s`;
+    const id = `${readConnections}-reads-${writeConnections}-writes-${seconds}s${rate ? `-${rate}-per-second` : ''}`;
     const start = `<!-- bench:${id}:start -->`;
     const end = `<!-- bench:${id}:end -->`;
     const current = readFileSync(readme, 'utf8');
