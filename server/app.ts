@@ -16,6 +16,7 @@ import { createSessionStore } from './auth/session-store';
 import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
+import { uploadSlots } from './middleware/upload-slots';
 import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
 import { membersRouter } from './routes/members';
@@ -109,6 +110,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
     errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'Invalid CSRF token' },
   });
   app.use('/api', csrfSynchronisedProtection);
+  app.use('/api', uploadSlots(config.UPLOADS_AT_ONCE));
 
   app.use('/api/auth', authRouter({ db, config, passport, csrfToken: generateToken }));
   app.use('/api/plans', plansRouter(db));

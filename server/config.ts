@@ -46,6 +46,8 @@ const configSchema = z.object({
   WORKER_SHUTDOWN_GRACE_SECONDS: z.coerce.number().min(0).default(20),
   SHUTDOWN_GRACE_SECONDS: z.coerce.number().min(0).default(10),
   UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
+  // Uploads read and imported at once by one process: each is held in memory while it is read.
+  UPLOADS_AT_ONCE: z.coerce.number().int().min(1).default(4),
   // Briefing e-mail. Empty SMTP_URL with the development outbox on: the server starts its own
   // fake SMTP server on loopback and keeps every message (server/services/briefings/outbox.ts).
   SMTP_URL: z.string().default(''),

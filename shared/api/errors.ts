@@ -12,6 +12,7 @@ export const errorCodeSchema = z.enum([
   'rate_limited',
   'account_locked',
   'payload_too_large',
+  'busy',
   'internal',
 ]);
 export type ErrorCode = z.infer<typeof errorCodeSchema>;
