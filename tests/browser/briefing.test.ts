@@ -8,6 +8,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
+import { signInThroughForm } from './support/sign-in-form';
 import { launchChromium, screenshotDir } from './support/chromium';
 import { startBriefingServer, type BriefingServer } from './support/briefing-server';
 import { insertDemoRun } from '../server/support/demo-run';
@@ -32,9 +33,7 @@ async function signInAs(page: Page, role: 'planner' | 'official' | 'admin', next
   const account = demoAccounts.find((a) => a.role === role)!;
   await page.goto(`${server.url}${next}`);
   await page.waitForURL(/\/sign-in/);
-  await page.getByLabel('E-mail address').fill(account.email);
-  await page.getByLabel('Password').fill(account.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, account.email, account.password);
 }
 
 async function signOut(page: Page) {
@@ -85,9 +84,7 @@ it('a planner makes a briefing, the official signs it, and the verification page
   await page.goto(link);
   await page.waitForURL(/\/sign-in/);
   const official = demoAccounts.find((a) => a.role === 'official')!;
-  await page.getByLabel('E-mail address').fill(official.email);
-  await page.getByLabel('Password').fill(official.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, official.email, official.password);
   await page.waitForURL((u) => u.pathname === reviewPath);
   const frame = page.locator('[data-test="briefing-frame"]');
   await frame.waitFor();

@@ -8,6 +8,7 @@
 import path from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
+import { signInThroughForm } from './support/sign-in-form';
 import { launchChromium, screenshotDir } from './support/chromium';
 import { startLiveServer, type LiveServer } from './support/live-server';
 
@@ -43,9 +44,7 @@ async function assumptions(within: string) {
 
 it('closes a bridge in a scenario, runs it and the base plan, and compares them', async () => {
   await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail address').fill('planner@cutline.example');
-  await page.getByLabel('Password').fill('planner-demo-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, 'planner@cutline.example', 'planner-demo-2026');
   await page.waitForURL(/\/plans$/);
   await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
   await page.waitForURL(/\/plans\/[0-9a-f-]{36}$/);

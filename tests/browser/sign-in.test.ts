@@ -2,6 +2,7 @@
 import path from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext } from 'playwright-core';
+import { signInThroughForm } from './support/sign-in-form';
 import { launchChromium, screenshotDir } from './support/chromium';
 import { startLiveServer, type LiveServer } from './support/live-server';
 import { demoPlanName } from '../../server/seed/seed-demo';
@@ -25,9 +26,7 @@ it('signs in as the demo planner and shows the plans page', async () => {
   await page.waitForURL(/\/sign-in/);
   await page.screenshot({ path: path.join(screenshotDir, 'sign-in.png') });
 
-  await page.getByLabel('E-mail address').fill('planner@cutline.example');
-  await page.getByLabel('Password').fill('wrong-password');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, 'planner@cutline.example', 'wrong-password');
   await page.locator('[data-test="sign-in-error"]').waitFor();
   expect(await page.locator('[data-test="sign-in-error"]').innerText()).toContain('Wrong e-mail address or password');
 

@@ -6,6 +6,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
+import { signInThroughForm } from './support/sign-in-form';
 import { launchChromium, screenshotDir } from './support/chromium';
 import { startLiveServer, type LiveServer } from './support/live-server';
 
@@ -48,9 +49,7 @@ it('goes from the plans list to choke points on the map', async () => {
   page.on('pageerror', (e) => errors.push(e.message));
 
   await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail address').fill('planner@cutline.example');
-  await page.getByLabel('Password').fill('planner-demo-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, 'planner@cutline.example', 'planner-demo-2026');
   await page.waitForURL(/\/plans$/);
   await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
   await page.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
@@ -143,9 +142,7 @@ it('shows no basemap by default, and the tile layer with its attribution once an
   await browser.context.clearCookies();
   const page = await browser.context.newPage();
   await page.goto(`${server.url}/sign-in`);
-  await page.getByLabel('E-mail address').fill('admin@cutline.example');
-  await page.getByLabel('Password').fill('admin-demo-2026');
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, 'admin@cutline.example', 'admin-demo-2026');
   await page.waitForURL(/\/plans$/);
 
   await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
