@@ -13,6 +13,7 @@ import type { Config } from './config';
 import type { Database } from './db/client';
 import { configurePassport } from './auth/passport';
 import { createSessionStore } from './auth/session-store';
+import { configureAuthUserCache } from './auth/auth-user-cache';
 import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
@@ -90,7 +91,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use(
     session({
       name: 'cutline.sid',
-      store: createSessionStore(pool),
+      store: createSessionStore(pool, 60_000, config.AUTH_CACHE_MILLISECONDS),
       secret: config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
@@ -98,6 +99,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
       cookie: { httpOnly: true, sameSite: 'lax', secure: config.COOKIE_SECURE, maxAge: 8 * 3600_000 },
     }),
   );
+  configureAuthUserCache(config.AUTH_CACHE_MILLISECONDS);
   const passport = configurePassport(db, config);
   app.use(passport.initialize());
   app.use(passport.session());

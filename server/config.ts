@@ -22,6 +22,9 @@ const configSchema = z.object({
   // Failed sign-ins in a row (from any address) that lock an account, and for how long.
   SIGN_IN_LOCKOUT_FAILURES: z.coerce.number().int().min(1).default(10),
   SIGN_IN_LOCKOUT_MINUTES: z.coerce.number().positive().default(15),
+  // How long one process keeps a session and its user after reading them (0: read every request).
+  // A sign-out, removed membership or role change made by another API process shows within it.
+  AUTH_CACHE_MILLISECONDS: z.coerce.number().int().min(0).max(10_000).default(1000),
   // Runs (single or in a sweep) one person may start per minute, and runs an organization may
   // have waiting or running at once: the queue must not become a way to starve other offices.
   RUN_STARTS_PER_MINUTE: z.coerce.number().int().min(1).default(30),

@@ -7,6 +7,7 @@ import type { Config } from '../config';
 import { findUserForSignIn, loadAuthUser } from '../services/users';
 import { recordFailedSignIn, clearFailedSignIns } from '../services/sign-in-lockout';
 import { unknownUserHash, verifyPassword } from './password';
+import { cachedAuthUser } from './auth-user-cache';
 
 /** Why a sign-in was refused, for the route's message: locked accounts say until when. */
 export type SignInRefusal = { message: 'locked' | 'refused'; lockedUntil?: Date };
@@ -33,7 +34,7 @@ export function configurePassport(db: Database, config: Pick<Config, 'SIGN_IN_LO
   );
   instance.serializeUser((user, done) => done(null, user.id));
   instance.deserializeUser((id: string, done) => {
-    loadAuthUser(db, id).then((user) => done(null, user ?? false), done);
+    cachedAuthUser(id, (userId) => loadAuthUser(db, userId)).then((user) => done(null, user ?? false), done);
   });
   return instance as unknown as passport.PassportStatic;
 }

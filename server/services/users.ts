@@ -6,6 +6,7 @@ import type { Member, MemberCreate } from '../../shared/api/users';
 import type { Role } from '../../shared/api/roles';
 import { ConflictError, NotFoundError } from '../errors';
 import { hashPassword } from '../auth/password';
+import { forgetAuthUser } from '../auth/auth-user-cache';
 import { recordAudit, type Actor } from './audit';
 import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
@@ -118,7 +119,7 @@ async function assertAnotherAdmin(tx: Tx, organizationId: string, userId: string
 }
 
 export async function updateMemberRole(db: Database, actor: Actor, userId: string, role: Role): Promise<Member> {
-  return db.transaction(async (tx) => {
+  const member = await db.transaction(async (tx) => {
     const current = await lockMembership(tx, actor.organizationId, userId);
     if (current.role === 'admin' && role !== 'admin') await assertAnotherAdmin(tx, actor.organizationId, userId);
     await tx
@@ -128,6 +129,9 @@ export async function updateMemberRole(db: Database, actor: Actor, userId: strin
     await recordAudit(tx, actor, 'member.role', 'user', userId, { from: current.role, to: role });
     return toMember({ ...current, role });
   });
+  // After the commit, so a request in between cannot cache the old role again.
+  forgetAuthUser(userId);
+  return member;
 }
 
 export async function removeMember(db: Database, actor: Actor, userId: string): Promise<void> {
@@ -139,4 +143,5 @@ export async function removeMember(db: Database, actor: Actor, userId: string): 
       .where(and(eq(memberships.organizationId, actor.organizationId), eq(memberships.userId, userId)));
     await recordAudit(tx, actor, 'member.remove', 'user', userId, { email: current.email });
   });
+  forgetAuthUser(userId);
 }
