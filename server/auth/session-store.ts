@@ -14,8 +14,8 @@ export function createSessionStore(pool: pg.Pool, touchIntervalMs = 60_000, read
   const PgStore = connectPgSimple(session);
 
   class ThrottledTouchStore extends PgStore {
-    // Session id → when its expiry was last written, oldest first (re-inserted on every write).
-    readonly #written = new Map<string, number>();
+    // Sessions whose expiry this process wrote within the interval (a forgotten one is only written again).
+    readonly #written = createRecentCache<true>(touchIntervalMs);
     // Session id → the session as last read, as JSON (each request gets its own copy).
     readonly #read = createRecentCache<string>(readCacheMs);
 
@@ -28,35 +28,24 @@ export function createSessionStore(pool: pg.Pool, touchIntervalMs = 60_000, read
       });
     }
 
-    #remember(sid: string): void {
-      const now = Date.now();
-      this.#written.delete(sid);
-      this.#written.set(sid, now);
-      for (const [oldSid, at] of this.#written) {
-        if (now - at < touchIntervalMs) break;
-        this.#written.delete(oldSid);
-      }
-    }
-
     override set(sid: string, sess: session.SessionData, fn?: (err?: unknown) => void): void {
       this.#read.forget(sid);
-      this.#remember(sid);
+      this.#written.set(sid, true);
       super.set(sid, sess, fn);
     }
 
     override touch(sid: string, sess: session.SessionData, fn?: () => void): void {
-      const at = this.#written.get(sid);
-      if (at !== undefined && Date.now() - at < touchIntervalMs) {
+      if (this.#written.get(sid)) {
         fn?.();
         return;
       }
-      this.#remember(sid);
+      this.#written.set(sid, true);
       super.touch(sid, sess, fn);
     }
 
     override destroy(sid: string, fn?: (err?: unknown) => void): void {
       this.#read.forget(sid);
-      this.#written.delete(sid);
+      this.#written.forget(sid);
       super.destroy(sid, fn);
     }
   }

@@ -1,7 +1,8 @@
 // /api/auth: the session, sign-in, sign-out and the organization a session works in.
 import { Router, type Request } from 'express';
 import type passport from 'passport';
-import rateLimit, { ipKeyGenerator } from 'express-rate-limit';
+import { ipKeyGenerator } from 'express-rate-limit';
+import { rateLimited } from '../middleware/rate-limit';
 import { signInRequestSchema, switchOrganizationRequestSchema, type SessionResponse } from '../../shared/api/auth';
 import type { Config } from '../config';
 import { HttpError, UnauthenticatedError, ForbiddenError } from '../errors';
@@ -46,17 +47,14 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
   const router = Router();
 
   // Counted per address and account, so one person's typos do not lock out a whole office.
-  const signInLimiter = rateLimit({
+  const signInLimiter = rateLimited({
     windowMs: config.SIGN_IN_WINDOW_MINUTES * 60_000,
     limit: config.SIGN_IN_ATTEMPTS_PER_WINDOW,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
+    message: 'Too many sign-in attempts. Wait a few minutes and try again.',
     // The body is not validated yet: an e-mail that is not text (an object whose toString is not a
     // function) must not throw here, and counts against the address alone.
     keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${typeof req.body?.email === 'string' ? req.body.email.toLowerCase() : ''}`,
     skipSuccessfulRequests: true,
-    handler: (_req, _res, next) =>
-      next(new HttpError(429, 'rate_limited', 'Too many sign-in attempts. Wait a few minutes and try again.')),
   });
 
   router.get('/session', (req, res) => {

@@ -1,7 +1,6 @@
 // /api/briefings: drafting, sign-off, the PDFs, verification of an uploaded copy, and the
 // development outbox. Another organisation's briefing is a 404; a signed one a 409 to change.
 import { Router, type Response } from 'express';
-import rateLimit from 'express-rate-limit';
 import {
   briefingCreateSchema,
   briefingFileQuerySchema,
@@ -16,13 +15,14 @@ import {
 import { idParamsSchema } from '../../shared/api/plans';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
-import { HttpError, NotFoundError } from '../errors';
+import { NotFoundError } from '../errors';
+import { rateLimited } from '../middleware/rate-limit';
 import { actorOf, currentMembership, requireMember } from '../middleware/require-member';
 import { singleFileUpload } from '../middleware/upload';
 import { briefingDetail, createBriefingService, listBriefings } from '../services/briefings';
 import { getOutboxMessage, listOutbox, outboxAttachment, outboxEnabled } from '../services/briefings/outbox';
 import { verifyUpload } from '../services/briefings/verification';
-import { listCaps, nextOffsetHeader } from '../../shared/api/pagination';
+import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from './list-page';
 
 /** A PDF for the review page's frame (inline) or as a download; never cached by shared caches. */
@@ -41,12 +41,10 @@ export function briefingsRouter(db: Database, config: Config): Router {
 
   // Open to anyone, signed in or not: a recipient outside the organisation checks a copy here.
   // Rate-limited per address, before the upload is read, since no account stands behind it.
-  const verifyLimiter = rateLimit({
+  const verifyLimiter = rateLimited({
     windowMs: 60_000,
     limit: config.VERIFY_PER_MINUTE,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', 'Too many signature checks from this address. Wait a minute and try again.')),
+    message: 'Too many signature checks from this address. Wait a minute and try again.',
   });
   router.post('/verify', verifyLimiter, upload, async (req, res) => {
     const viewerOrganization = req.isAuthenticated() ? (currentMembership(req)?.organizationId ?? null) : null;
@@ -61,9 +59,7 @@ export function briefingsRouter(db: Database, config: Config): Router {
   router.get('/outbox', requireMember('users:manage'), async (req, res) => {
     const enabled = outboxEnabled(config);
     const page = pageOf(req, listCaps.outbox);
-    const messages = enabled ? await listOutbox(db, actorOf(req).organizationId, page) : [];
-    if (messages.length > page.limit) res.setHeader(nextOffsetHeader, String(page.offset + page.limit));
-    res.json({ enabled, messages: messages.slice(0, page.limit) });
+    sendPage(res, 'messages', enabled ? await listOutbox(db, actorOf(req).organizationId, page) : [], page, { enabled });
   });
   router.get('/outbox/:messageId', requireMember('users:manage'), async (req, res) => {
     if (!outboxEnabled(config)) throw new NotFoundError('message');

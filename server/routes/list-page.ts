@@ -7,8 +7,8 @@ export function pageOf(req: Request, maxLimit: number): Page {
   return pageQuerySchema(maxLimit).parse(req.query);
 }
 
-/** Rows fetched with `limitPlusOne(page)` (shared/api/pagination.ts); sends `{ [key]: rows }` trimmed to the page. */
-export function sendPage<T>(res: Response, key: string, rows: T[], page: Page): void {
+/** Rows fetched with `limitPlusOne(page)` (shared/api/pagination.ts); sends `{ ...others, [key]: rows }` trimmed to the page. */
+export function sendPage<T>(res: Response, key: string, rows: T[], page: Page, others: Record<string, unknown> = {}): void {
   if (rows.length > page.limit) res.setHeader(nextOffsetHeader, String(page.offset + page.limit));
-  res.json({ [key]: rows.slice(0, page.limit) });
+  res.json({ ...others, [key]: rows.slice(0, page.limit) });
 }

@@ -69,12 +69,16 @@ export async function listMembers(db: Database, organizationId: string, page: Pa
   return rows.map(toMember);
 }
 
-export async function getMember(db: Database, organizationId: string, userId: string): Promise<Member> {
-  const [row] = await db
+function membershipQuery(db: Database | Tx, organizationId: string, userId: string) {
+  return db
     .select(memberColumns)
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(and(eq(memberships.organizationId, organizationId), eq(memberships.userId, userId)));
+}
+
+export async function getMember(db: Database, organizationId: string, userId: string): Promise<Member> {
+  const [row] = await membershipQuery(db, organizationId, userId);
   if (!row) throw new NotFoundError('member');
   return toMember(row);
 }
@@ -98,12 +102,7 @@ export async function createMember(db: Database, actor: Actor, input: MemberCrea
 }
 
 async function lockMembership(tx: Tx, organizationId: string, userId: string) {
-  const [row] = await tx
-    .select(memberColumns)
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(and(eq(memberships.organizationId, organizationId), eq(memberships.userId, userId)))
-    .for('update', { of: memberships });
+  const [row] = await membershipQuery(tx, organizationId, userId).for('update', { of: memberships });
   if (!row) throw new NotFoundError('member');
   return row;
 }
