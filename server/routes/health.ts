@@ -23,8 +23,8 @@ export function healthRouter(pool: pg.Pool, log: (err: unknown) => void, isStopp
     } catch (e) {
       // The cause goes to the log; an unauthenticated probe learns no addresses or names.
       log(e);
-      checks.database = checks.database ? checks.database : 'unreachable';
-      checks.queue = checks.queue ?? 'unknown';
+      checks.database ??= 'unreachable';
+      checks.queue ??= 'unknown';
     }
     const ready = Object.values(checks).every((v) => v === 'ok');
     res.status(ready ? 200 : 503).json({ status: ready ? 'ready' : 'not ready', checks });
