@@ -18,6 +18,7 @@ import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
 import { uploadSlots } from './middleware/upload-slots';
+import { createAnswerCache } from './routes/answer-cache';
 import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
 import { membersRouter } from './routes/members';
@@ -114,12 +115,13 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api', csrfSynchronisedProtection);
   app.use('/api', uploadSlots(config.UPLOADS_AT_ONCE));
 
+  const answers = createAnswerCache(config.ANSWER_CACHE_MEGABYTES);
   app.use('/api/auth', authRouter({ db, config, passport, csrfToken: generateToken }));
   app.use('/api/plans', plansRouter(db));
-  app.use('/api/plans/:planId', roadLayersRouter(db, config));
+  app.use('/api/plans/:planId', roadLayersRouter(db, config, answers));
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
   app.use('/api/plans/:planId', scenariosRouter(db));
-  app.use('/api/plans/:planId', runsRouter(db, config, runQueue));
+  app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
   app.use('/api/plans/:planId', batchesRouter(db, config, runQueue));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));

@@ -25,6 +25,9 @@ const configSchema = z.object({
   // How long one process keeps a session and its user after reading them (0: read every request).
   // A sign-out, removed membership or role change made by another API process shows within it.
   AUTH_CACHE_MILLISECONDS: z.coerce.number().int().min(0).max(10_000).default(1000),
+  // Memory one process gives to large answers kept ready (finished runs, the map at one data
+  // version), plain and gzip-compressed; 0 builds every answer afresh.
+  ANSWER_CACHE_MEGABYTES: z.coerce.number().int().min(0).max(4096).default(128),
   // Runs (single or in a sweep) one person may start per minute, and runs an organization may
   // have waiting or running at once: the queue must not become a way to starve other offices.
   RUN_STARTS_PER_MINUTE: z.coerce.number().int().min(1).default(30),

@@ -17,9 +17,10 @@ import { importRoadLayer } from '../import/import-road-layer';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
 import { assertPlanInOrganization } from '../services/plan-access';
-import { getActiveRoadLayer, getSegment, listSegments, saveRoadLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
+import { activeLayerVersion, getActiveRoadLayer, getSegment, listSegments, saveRoadLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
+import type { AnswerCache } from './answer-cache';
 
-export function roadLayersRouter(db: Database, config: Config): Router {
+export function roadLayersRouter(db: Database, config: Config, answers: AnswerCache): Router {
   const router = Router({ mergeParams: true });
 
   router.get('/road-layer', requireMember('plans:read'), async (req, res) => {
@@ -48,7 +49,10 @@ export function roadLayersRouter(db: Database, config: Config): Router {
   router.get('/segments/map', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     const { bbox, zoom } = segmentMapQuerySchema.parse(req.query);
-    res.type('json').send(await segmentsInViewportJson(db, actorOf(req).organizationId, planId, bbox, zoom));
+    const { layerId, dataVersion } = await activeLayerVersion(db, actorOf(req).organizationId, planId);
+    // Everyone opening the plan first asks for the same view: keep each view ready per data version.
+    const key = `map ${planId} ${layerId} ${dataVersion} ${bbox.join(',')} ${zoom}`;
+    await answers.sendJson(req, res, key, () => segmentsInViewportJson(db, layerId, bbox, zoom));
   });
 
   router.get('/segments', requireMember('plans:read'), async (req, res) => {

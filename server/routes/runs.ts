@@ -11,16 +11,17 @@ import { actorOf, requireMember } from '../middleware/require-member';
 import { arcsGeoJson } from '../services/run-exports';
 import { assertRunQuota } from '../services/run-quota';
 import { getScenario } from '../services/scenarios';
-import { createRun, getRunJson, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
+import { createRun, getRunHead, getRunJson, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
 import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from './list-page';
+import type { AnswerCache } from './answer-cache';
 
 const runParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.'), runId: z.string().uuid('Not a valid identifier.') });
 const startRunSchema = z.object({ parameters: runParametersSchema, scenarioId: z.string().uuid('Not a valid identifier.').nullable().default(null) });
 
 export type RunEnqueuer = { enqueue: (runId: string) => Promise<void> };
 
-export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Router {
+export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, answers: AnswerCache): Router {
   const router = Router({ mergeParams: true });
 
   router.post('/runs', requireMember('plans:write'), async (req, res) => {
@@ -43,7 +44,12 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer): Ro
 
   router.get('/runs/:runId', requireMember('plans:read'), async (req, res) => {
     const { planId, runId } = runParamsSchema.parse(req.params);
-    res.type('json').send(await getRunJson(db, actorOf(req).organizationId, planId, runId));
+    const { organizationId } = actorOf(req);
+    const { run, finished } = await getRunHead(db, organizationId, planId, runId);
+    const build = () => getRunJson(db, organizationId, planId, runId);
+    // A finished run never changes: its answer, keyed by everything it says besides the result, is kept ready.
+    if (finished) await answers.sendJson(req, res, `run ${JSON.stringify(run)}`, build);
+    else res.type('json').send(await build());
   });
 
   router.post('/runs/:runId/cancel', requireMember('plans:write'), async (req, res) => {

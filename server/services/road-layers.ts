@@ -2,7 +2,7 @@
 // map (by viewport, simplified by zoom) and the table (paged, sorted, filtered), and edits.
 import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database, Tx } from '../db/client';
-import { roadLayers, roadNodes, roadSegments } from '../db/schema';
+import { plans, roadLayers, roadNodes, roadSegments } from '../db/schema';
 import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/network';
 import type { RoadLayer, Segment, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
 import type { RoadNetwork } from '../../shared/geo/build-road-network';
@@ -125,6 +125,22 @@ export async function getActiveRoadLayer(db: Database, organizationId: string, p
   };
 }
 
+/**
+ * The plan's active road layer and data version, in one query that also checks the plan's
+ * organization. Every change to a plan's roads moves its data version on (plan-access.ts), so
+ * the two name the map's content.
+ */
+export async function activeLayerVersion(db: Database, organizationId: string, planId: string): Promise<{ layerId: number; dataVersion: number }> {
+  const [row] = await db
+    .select({ dataVersion: plans.dataVersion, layerId: roadLayers.id })
+    .from(plans)
+    .leftJoin(roadLayers, and(eq(roadLayers.planId, plans.id), eq(roadLayers.active, true)))
+    .where(and(eq(plans.id, planId), eq(plans.organizationId, organizationId)));
+  if (!row) throw new NotFoundError('plan');
+  if (row.layerId === null) throw new NotFoundError('road layer (upload one first)');
+  return { layerId: row.layerId, dataVersion: row.dataVersion };
+}
+
 async function requireActiveLayer(db: Database | Tx, organizationId: string, planId: string): Promise<number> {
   await assertPlanInOrganization(db, organizationId, planId);
   const id = await activeLayerId(db, planId);
@@ -166,14 +182,7 @@ const maxFeaturesPerResponse = 25_000;
  * and serialising a thousand features in JavaScript took most of the server's time on this
  * route, which the map asks on every pan and zoom.
  */
-export async function segmentsInViewportJson(
-  db: Database,
-  organizationId: string,
-  planId: string,
-  bbox: [number, number, number, number],
-  zoom: number,
-): Promise<string> {
-  const layerId = await requireActiveLayer(db, organizationId, planId);
+export async function segmentsInViewportJson(db: Database, layerId: number, bbox: [number, number, number, number], zoom: number): Promise<string> {
   const [w, s, e, n] = bbox;
   // Degrees per pixel at this zoom (256-px tiles); simplify to half of it.
   const tolerance = 360 / (256 * 2 ** zoom) / 2;

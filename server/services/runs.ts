@@ -179,6 +179,28 @@ export async function getRunRow(db: Database, organizationId: string, planId: st
   return row;
 }
 
+const finishedStatuses: ReadonlySet<Run['status']> = new Set(['succeeded', 'failed', 'cancelled']);
+
+/**
+ * The run without its result, and whether it is finished: workers change a run only while it is
+ * queued or running (server/runs/run-executor.ts), so a finished run's answer is fixed and can
+ * be kept ready (server/routes/answer-cache.ts). One query; the plan's organization is checked in it.
+ */
+export async function getRunHead(db: Database, organizationId: string, planId: string, runId: string): Promise<{ run: Run; finished: boolean }> {
+  const [row] = await db
+    .select(runColumnsWithoutResult)
+    .from(runs)
+    .innerJoin(plans, eq(plans.id, runs.planId))
+    .where(and(eq(runs.id, runId), eq(runs.planId, planId), eq(plans.organizationId, organizationId)));
+  if (!row) {
+    // Which of the two is missing decides the message.
+    await assertPlanInOrganization(db, organizationId, planId);
+    throw new NotFoundError('run');
+  }
+  const run = toRun({ ...row, result: null } as RunRow);
+  return { run, finished: finishedStatuses.has(run.status) };
+}
+
 /**
  * The run and its result as the JSON text of a RunWithResult (shared/api/runs). The stored
  * result, hundreds of kilobytes on the demo town and megabytes on a city, is sent as PostgreSQL
@@ -192,7 +214,6 @@ export async function getRunJson(db: Database, organizationId: string, planId: s
     .innerJoin(plans, eq(plans.id, runs.planId))
     .where(and(eq(runs.id, runId), eq(runs.planId, planId), eq(plans.organizationId, organizationId)));
   if (!row) {
-    // Which of the two is missing decides the message.
     await assertPlanInOrganization(db, organizationId, planId);
     throw new NotFoundError('run');
   }

@@ -6,7 +6,16 @@ import { z } from 'zod';
 
 export const nextOffsetHeader = 'x-next-offset';
 
+const pageQuerySchemas = new Map<number, ReturnType<typeof buildPageQuerySchema>>();
+
+// Built once per cap: building a zod schema costs more than parsing with it.
 export function pageQuerySchema(maxLimit: number) {
+  let schema = pageQuerySchemas.get(maxLimit);
+  if (!schema) pageQuerySchemas.set(maxLimit, (schema = buildPageQuerySchema(maxLimit)));
+  return schema;
+}
+
+function buildPageQuerySchema(maxLimit: number) {
   return z.object({
     limit: z.coerce.number().int('A whole number.').min(1).max(maxLimit, `At most ${maxLimit} at a time.`).default(maxLimit),
     offset: z.coerce.number().int('A whole number.').min(0).max(10_000_000).default(0),

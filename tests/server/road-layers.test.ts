@@ -154,6 +154,42 @@ describe('editing segments', () => {
     expect(rows[0].data_version).toBeGreaterThan(0);
   });
 
+  it('shows an edit on the map at once, though the map answer is kept ready per data version', async () => {
+    const view = { bbox: '9.99,49.99,10.02,50.01', zoom: 16 };
+    const mapOf = async () => (await viewer.agent.get(`/api/plans/${planId}/segments/map`).query(view).expect(200)).body as {
+      features: { properties: { id: number; lanesForward: number } }[];
+    };
+    const segment = await firstSegment('North Lane');
+    const lanes = (map: Awaited<ReturnType<typeof mapOf>>) => map.features.find((f) => f.properties.id === segment.id)!.properties.lanesForward;
+    const before = await mapOf();
+    expect(await mapOf()).toEqual(before);
+    const changed = lanes(before) === 3 ? 2 : 3;
+    await planner.agent.patch(`/api/plans/${planId}/segments/${segment.id}`).set('x-csrf-token', planner.csrf).send({ lanesForward: changed }).expect(200);
+    expect(lanes(await mapOf())).toBe(changed);
+  });
+
+  it('sends the map gzip-compressed when asked, plain otherwise, and answers a matching ETag with 304', async () => {
+    const path = `/api/plans/${planId}/segments/map?bbox=9.99,49.99,10.02,50.01&zoom=15`;
+    const plain = await viewer.agent.get(path).set('accept-encoding', 'identity').expect(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    const raw = await viewer.agent
+      .get(path)
+      .set('accept-encoding', 'gzip, deflate, br')
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      })
+      .expect(200);
+    expect(raw.headers['content-encoding']).toBe('gzip');
+    expect(raw.headers.vary).toMatch(/accept-encoding/i);
+    // superagent inflates gzip itself; the body it hands over is the plain answer.
+    expect(JSON.parse((raw.body as Buffer).toString('utf8'))).toEqual(plain.body);
+    expect(raw.headers.etag).not.toBe(plain.headers.etag);
+    await viewer.agent.get(path).set('accept-encoding', 'identity').set('if-none-match', plain.headers.etag!).expect(304);
+  });
+
   it('refuses an edit that breaks the one-way rule and changes nothing', async () => {
     const segment = await firstSegment('East Road');
     const res = await planner.agent

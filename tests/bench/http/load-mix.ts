@@ -77,13 +77,17 @@ export function writeRequests(f: BenchFixture): NamedRequest[] {
   ];
 }
 
-/** The requests with one session's cookie (and, for writes, its CSRF token) on every one. */
+/**
+ * The requests with one session's cookie (and, for writes, its CSRF token) on every one, and
+ * the Accept-Encoding a browser sends.
+ */
 export function withSession(requests: NamedRequest[], session: BenchSession): NamedRequest[] {
   return requests.map((r) => ({
     ...r,
     headers: {
       ...r.headers,
       cookie: session.cookie,
+      'accept-encoding': 'gzip, deflate, br',
       ...(r.method === 'GET' ? {} : { 'x-csrf-token': session.csrfToken, 'content-type': 'application/json' }),
     },
   }));
