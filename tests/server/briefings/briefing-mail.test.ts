@@ -64,7 +64,12 @@ describe('the fake SMTP server', () => {
   });
 
   it('receives the distribution message with the signed PDF attached, unaltered and still verifying', async () => {
-    const certificate = generateOrganizationCertificate({ organizationName: ref.organizationName, passphrase: 'mail test passphrase' });
+    const certificate = generateOrganizationCertificate({
+      organizationName: ref.organizationName,
+      passphrase: 'mail test passphrase',
+      // Issued just before the fixed signing time below, so the signature verifies on any later day.
+      now: new Date('2026-12-02T14:00:00Z'),
+    });
     const signed = await signBriefing(briefingInput(), signer, certificate, new Date('2026-12-02T14:05:33Z'));
     await mailer.sendDistribution({
       ...ref,

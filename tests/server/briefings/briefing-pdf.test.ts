@@ -24,7 +24,12 @@ let signedText: string;
 beforeAll(async () => {
   draft = await renderBriefing(briefingInput());
   draftText = squeeze(pdfToText(draft.pdf));
-  const certificate = generateOrganizationCertificate({ organizationName: 'Demo Emergency Management Office', passphrase: 'test passphrase 1' });
+  const certificate = generateOrganizationCertificate({
+    organizationName: 'Demo Emergency Management Office',
+    passphrase: 'test passphrase 1',
+    // Issued just before the fixed signing time below, so the signature is valid on any later day.
+    now: new Date('2026-12-02T14:00:00Z'),
+  });
   signedPdf = (await signBriefing(briefingInput(), signer, certificate, new Date('2026-12-02T14:05:33Z'))).pdf;
   signedText = squeeze(pdfToText(signedPdf));
 });
