@@ -22,6 +22,8 @@ import { briefingInput, signer } from '../../fixtures/briefing/demo-town-briefin
 import { pdfSig, pdfToText } from './support/poppler';
 
 const signedAt = new Date('2026-12-02T14:05:33Z');
+// The test certificates are issued just before that fixed signing time, so they verify on any later day.
+const issuedAt = new Date('2026-12-02T14:00:00Z');
 let org: OrganizationCertificate;
 let other: OrganizationCertificate;
 let signed: SignedBriefing;
@@ -37,8 +39,8 @@ function offsetInsideSignedRange(pdf: Buffer): number {
 }
 
 beforeAll(async () => {
-  org = generateOrganizationCertificate({ organizationName: 'Demo Emergency Management Office', passphrase: 'demo signing passphrase' });
-  other = generateOrganizationCertificate({ organizationName: 'Other County', passphrase: 'other signing passphrase' });
+  org = generateOrganizationCertificate({ organizationName: 'Demo Emergency Management Office', passphrase: 'demo signing passphrase', now: issuedAt });
+  other = generateOrganizationCertificate({ organizationName: 'Other County', passphrase: 'other signing passphrase', now: issuedAt });
   signed = await signBriefing(briefingInput(), signer, org, signedAt);
 });
 
@@ -185,7 +187,7 @@ describe('organisation certificate', () => {
       writeFileSync(file, other.p12);
       const configured = await resolveOrganizationCertificate({
         organizationName: 'Demo Emergency Management Office',
-        configured: { path: file, passphrase: 'other signing passphrase' },
+        configured: { path: file, passphrase: 'other signing passphrase', now: issuedAt },
         passphrase: 'unused passphrase',
       });
       expect(configured.created).toBe(false);
@@ -193,7 +195,7 @@ describe('organisation certificate', () => {
       expect(configured.certificate.fingerprintSha256).toBe(other.fingerprintSha256);
       await expect(readConfiguredCertificate(file, 'nope')).rejects.toThrow(/wrong passphrase/);
 
-      const stored = await resolveOrganizationCertificate({ organizationName: 'x', stored: { p12: org.p12 }, passphrase: 'demo signing passphrase' });
+      const stored = await resolveOrganizationCertificate({ organizationName: 'x', stored: { p12: org.p12 }, passphrase: 'demo signing passphrase', now: issuedAt });
       expect(stored).toMatchObject({ created: false, certificate: { fingerprintSha256: org.fingerprintSha256 } });
       const fresh = await resolveOrganizationCertificate({ organizationName: 'New Office', passphrase: 'a new passphrase' });
       expect(fresh.created).toBe(true);
@@ -205,7 +207,7 @@ describe('organisation certificate', () => {
 
   it('signs for organisations and officials whose names are not ASCII', async () => {
     const name = 'Comté de Sainte-Élise Ochrana Łódź';
-    const cert = generateOrganizationCertificate({ organizationName: name, passphrase: 'unicode passphrase' });
+    const cert = generateOrganizationCertificate({ organizationName: name, passphrase: 'unicode passphrase', now: issuedAt });
     // The certificate spells the name in ASCII (see certificateName); the page spells it in full.
     expect(cert.subject).toContain('O=Comte de Sainte-Elise Ochrana Lodz');
     const official = { name: 'Zoë Dvořák', role: 'Directrice des secours' };
