@@ -187,7 +187,7 @@ describe('organisation certificate', () => {
       writeFileSync(file, other.p12);
       const configured = await resolveOrganizationCertificate({
         organizationName: 'Demo Emergency Management Office',
-        configured: { path: file, passphrase: 'other signing passphrase', now: issuedAt },
+        configured: { path: file, passphrase: 'other signing passphrase' },
         passphrase: 'unused passphrase',
       });
       expect(configured.created).toBe(false);
@@ -195,7 +195,7 @@ describe('organisation certificate', () => {
       expect(configured.certificate.fingerprintSha256).toBe(other.fingerprintSha256);
       await expect(readConfiguredCertificate(file, 'nope')).rejects.toThrow(/wrong passphrase/);
 
-      const stored = await resolveOrganizationCertificate({ organizationName: 'x', stored: { p12: org.p12 }, passphrase: 'demo signing passphrase', now: issuedAt });
+      const stored = await resolveOrganizationCertificate({ organizationName: 'x', stored: { p12: org.p12 }, passphrase: 'demo signing passphrase' });
       expect(stored).toMatchObject({ created: false, certificate: { fingerprintSha256: org.fingerprintSha256 } });
       const fresh = await resolveOrganizationCertificate({ organizationName: 'New Office', passphrase: 'a new passphrase' });
       expect(fresh.created).toBe(true);
