@@ -57,5 +57,5 @@ export function createAnswerCache(maxMegabytes: number) {
     res.send(gzipped ? a.gzipped : a.plain);
   }
 
-  return { sendJson, size: () => ready.size, clear: () => ready.clear() };
+  return { sendJson };
 }

@@ -11,7 +11,7 @@ import { actorOf, requireMember } from '../middleware/require-member';
 import { arcsGeoJson } from '../services/run-exports';
 import { assertRunQuota } from '../services/run-quota';
 import { getScenario } from '../services/scenarios';
-import { createRun, getRunHead, getRunJson, getRunRow, listRuns, markCancelled, prepareRun, toRun } from '../services/runs';
+import { createRun, getRunHead, getRunRow, isFinishedRun, listRuns, markCancelled, prepareRun, runWithResultJson, toRun } from '../services/runs';
 import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from './list-page';
 import type { AnswerCache } from './answer-cache';
@@ -44,12 +44,11 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, ans
 
   router.get('/runs/:runId', requireMember('plans:read'), async (req, res) => {
     const { planId, runId } = runParamsSchema.parse(req.params);
-    const { organizationId } = actorOf(req);
-    const { run, finished } = await getRunHead(db, organizationId, planId, runId);
-    const build = () => getRunJson(db, organizationId, planId, runId);
-    // A finished run never changes: its answer, keyed by everything it says besides the result, is kept ready.
-    if (finished) await answers.sendJson(req, res, `run ${JSON.stringify(run)}`, build);
-    else res.type('json').send(await build());
+    const run = await getRunHead(db, actorOf(req).organizationId, planId, runId);
+    // A queued or running run has no result yet; a finished one never changes, so its answer,
+    // keyed by everything it says besides the result, is kept ready.
+    if (!isFinishedRun(run)) res.json({ ...run, result: null });
+    else await answers.sendJson(req, res, `run ${JSON.stringify(run)}`, () => runWithResultJson(db, run));
   });
 
   router.post('/runs/:runId/cancel', requireMember('plans:write'), async (req, res) => {

@@ -130,7 +130,7 @@ export async function getActiveRoadLayer(db: Database, organizationId: string, p
  * organization. Every change to a plan's roads moves its data version on (plan-access.ts), so
  * the two name the map's content.
  */
-export async function activeLayerVersion(db: Database, organizationId: string, planId: string): Promise<{ layerId: number; dataVersion: number }> {
+export async function activeLayerVersion(db: Database | Tx, organizationId: string, planId: string): Promise<{ layerId: number; dataVersion: number }> {
   const [row] = await db
     .select({ dataVersion: plans.dataVersion, layerId: roadLayers.id })
     .from(plans)
@@ -142,10 +142,7 @@ export async function activeLayerVersion(db: Database, organizationId: string, p
 }
 
 async function requireActiveLayer(db: Database | Tx, organizationId: string, planId: string): Promise<number> {
-  await assertPlanInOrganization(db, organizationId, planId);
-  const id = await activeLayerId(db, planId);
-  if (id === null) throw new NotFoundError('road layer (upload one first)');
-  return id;
+  return (await activeLayerVersion(db, organizationId, planId)).layerId;
 }
 
 const segmentColumns = {

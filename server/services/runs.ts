@@ -182,11 +182,13 @@ export async function getRunRow(db: Database, organizationId: string, planId: st
 const finishedStatuses: ReadonlySet<Run['status']> = new Set(['succeeded', 'failed', 'cancelled']);
 
 /**
- * The run without its result, and whether it is finished: workers change a run only while it is
- * queued or running (server/runs/run-executor.ts), so a finished run's answer is fixed and can
- * be kept ready (server/routes/answer-cache.ts). One query; the plan's organization is checked in it.
+ * Workers change a run only while it is queued or running (server/runs/run-executor.ts), so a
+ * finished run's answer is fixed and can be kept ready (server/routes/answer-cache.ts).
  */
-export async function getRunHead(db: Database, organizationId: string, planId: string, runId: string): Promise<{ run: Run; finished: boolean }> {
+export const isFinishedRun = (run: Run) => finishedStatuses.has(run.status);
+
+/** The run without its result. One query; the plan's organization is checked in it. */
+export async function getRunHead(db: Database, organizationId: string, planId: string, runId: string): Promise<Run> {
   const [row] = await db
     .select(runColumnsWithoutResult)
     .from(runs)
@@ -197,29 +199,18 @@ export async function getRunHead(db: Database, organizationId: string, planId: s
     await assertPlanInOrganization(db, organizationId, planId);
     throw new NotFoundError('run');
   }
-  const run = toRun({ ...row, result: null } as RunRow);
-  return { run, finished: finishedStatuses.has(run.status) };
+  return toRun({ ...row, result: null } as RunRow);
 }
 
 /**
- * The run and its result as the JSON text of a RunWithResult (shared/api/runs). The stored
- * result, hundreds of kilobytes on the demo town and megabytes on a city, is sent as PostgreSQL
- * renders it: parsing and serialising it again took most of the server's time on this route.
- * One query; the plan's organization is checked in it.
+ * A run read with getRunHead and its stored result, as the JSON text of a RunWithResult
+ * (shared/api/runs). The result, hundreds of kilobytes on the demo town and megabytes on a
+ * city, is sent as PostgreSQL renders it: parsing and serialising it again took most of the
+ * server's time on this route.
  */
-export async function getRunJson(db: Database, organizationId: string, planId: string, runId: string): Promise<string> {
-  const [row] = await db
-    .select({ ...runColumnsWithoutResult, resultJson: sql<string | null>`${runs.result}::text` })
-    .from(runs)
-    .innerJoin(plans, eq(plans.id, runs.planId))
-    .where(and(eq(runs.id, runId), eq(runs.planId, planId), eq(plans.organizationId, organizationId)));
-  if (!row) {
-    await assertPlanInOrganization(db, organizationId, planId);
-    throw new NotFoundError('run');
-  }
-  const { resultJson, ...run } = row;
-  const head = JSON.stringify(toRun({ ...run, result: null }));
-  return `${head.slice(0, -1)},"result":${resultJson ?? 'null'}}`;
+export async function runWithResultJson(db: Database, run: Run): Promise<string> {
+  const [row] = await db.select({ resultJson: sql<string | null>`${runs.result}::text` }).from(runs).where(eq(runs.id, run.id));
+  return `${JSON.stringify(run).slice(0, -1)},"result":${row?.resultJson ?? 'null'}}`;
 }
 
 export async function markCancelled(db: Database, actor: Actor, planId: string, runId: string): Promise<Run> {
