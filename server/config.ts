@@ -46,6 +46,11 @@ const configSchema = z.object({
   // A job still active this long after its time budget belongs to a dead worker and is retried.
   RUN_EXPIRY_SLACK_SECONDS: z.coerce.number().int().min(1).default(30),
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
+  // A worker's CPU priority (Unix niceness, 0 to 19): where workers share a machine with the API,
+  // people's requests come first and solves take the time left. 0 on a machine of their own.
+  WORKER_NICENESS: z.coerce.number().int().min(0).max(19).default(10),
+  // API processes on this machine sharing the port (node:cluster); one per core the API may use.
+  API_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),
   // On SIGTERM a worker takes no new runs and waits this long for the runs in hand; what is
   // still running then goes back to the queue for another worker. The API server waits this
   // long for requests in progress.

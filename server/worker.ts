@@ -5,8 +5,10 @@ import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { startRunQueue } from './queue/run-queue';
 import { createRunExecutor } from './runs/run-executor';
+import { lowerProcessPriority } from './runs/lower-priority';
 
 const config = loadConfig();
+if (config.WORKER_NICENESS > 0) lowerProcessPriority(config.WORKER_NICENESS);
 const { db, pool } = createDatabase(config.DATABASE_URL);
 const queue = await startRunQueue(config);
 const executor = createRunExecutor(db, config, (e) => console.error('[worker]', e));

@@ -20,8 +20,18 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
     if (e.code !== '57P01') console.error('[queue]', e);
   });
   await boss.start();
-  // A queue must exist before send(), or pg-boss 10 drops the job silently.
-  await boss.createQueue(RUN_QUEUE);
+  // A queue must exist before send(), or pg-boss 10 drops the job silently. Processes started
+  // together on a new database (API processes, workers) create it at the same moment, and
+  // PostgreSQL may end one of them as a deadlock (40P01); that one tries again.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await boss.createQueue(RUN_QUEUE);
+      break;
+    } catch (e) {
+      if ((e as { code?: string }).code !== '40P01' || attempt >= 5) throw e;
+      await new Promise((r) => setTimeout(r, 50 * attempt));
+    }
+  }
 
   return {
     boss,

@@ -48,6 +48,7 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
 
   // Counted per address and account, so one person's typos do not lock out a whole office.
   const signInLimiter = rateLimited({
+    name: 'sign-in',
     windowMs: config.SIGN_IN_WINDOW_MINUTES * 60_000,
     limit: config.SIGN_IN_ATTEMPTS_PER_WINDOW,
     message: 'Too many sign-in attempts. Wait a few minutes and try again.',

@@ -42,6 +42,7 @@ export function briefingsRouter(db: Database, config: Config): Router {
   // Open to anyone, signed in or not: a recipient outside the organisation checks a copy here.
   // Rate-limited per address, before the upload is read, since no account stands behind it.
   const verifyLimiter = rateLimited({
+    name: 'verify',
     windowMs: 60_000,
     limit: config.VERIFY_PER_MINUTE,
     message: 'Too many signature checks from this address. Wait a minute and try again.',

@@ -1,4 +1,4 @@
-// `npm run bench:http [-- --seconds 10] [-- --readme] [-- --profile]`: the API under load on
+// `npm run bench:http [-- --seconds 10] [-- --readme] [-- --profile] [-- --api-processes 2]`: the API under load on
 // loopback. Starts PostgreSQL if needed, creates and seeds a throwaway database, starts the API
 // server and one run worker as separate processes (production settings, warn-level logs), signs
 // clients in, then for --seconds runs 200 read and 20 write connections at once (autocannon;
@@ -36,6 +36,10 @@ const { values } = parseArgs({
     'read-connections': { type: 'string', default: '200' },
     'write-connections': { type: 'string', default: '20' },
     'warmup-seconds': { type: 'string', default: '5' },
+    // API processes sharing the port (the product's API_PROCESSES, default 1).
+    'api-processes': { type: 'string', default: '1' },
+    // The worker's CPU priority (the product's WORKER_NICENESS, default 10); 0 to compare.
+    'worker-niceness': { type: 'string', default: '10' },
     // Each connection sends this many requests per second, as a client with a person behind it
     // does; unset, each sends the next as soon as the answer arrives (the saturating closed loop).
     rate: { type: 'string', default: '' },
@@ -48,9 +52,12 @@ const seconds = Number(values.seconds);
 const readConnections = Number(values['read-connections']);
 const writeConnections = Number(values['write-connections']);
 const warmupSeconds = Number(values['warmup-seconds']);
+const apiProcesses = Number(values['api-processes']);
+const workerNiceness = Number(values['worker-niceness']);
+if (!Number.isInteger(workerNiceness) || workerNiceness < 0 || workerNiceness > 19) throw new Error('--worker-niceness must be a whole number from 0 to 19');
 const rate = values.rate ? Number(values.rate) : undefined;
 if (rate !== undefined && !(rate > 0)) throw new Error('--rate must be a positive number of requests per second per connection');
-for (const [name, v] of Object.entries({ seconds, readConnections, writeConnections })) {
+for (const [name, v] of Object.entries({ seconds, readConnections, writeConnections, apiProcesses })) {
   if (!Number.isInteger(v) || v < 1) throw new Error(`--${name} must be a positive whole number`);
 }
 mkdirSync(out, { recursive: true });
@@ -113,6 +120,8 @@ async function main(): Promise<void> {
     SESSION_SECRET: randomBytes(24).toString('hex'),
     SIGNING_KEY_PASSPHRASE: randomBytes(24).toString('hex'),
     WORKER_CONCURRENCY: '1',
+    API_PROCESSES: String(apiProcesses),
+    WORKER_NICENESS: String(workerNiceness),
     // At the end a run in hand goes back to the queue soon; the database is dropped anyway.
     WORKER_SHUTDOWN_GRACE_SECONDS: '5',
   };
@@ -161,6 +170,7 @@ async function main(): Promise<void> {
   const header =
     `Measured ${from.toISOString()} on ${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, ` +
     `Node ${process.version}, commit ${commitDescription()}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
+    `${apiProcesses} API process${apiProcesses === 1 ? '' : 'es'} (API_PROCESSES), the worker at niceness ${workerNiceness} (WORKER_NICENESS); ` +
     `load average (1, 5, 15 min) ${loadAverageBefore} before the load.` +
     (rate
       ? ` Paced: each connection sends ${rate} request${rate === 1 ? '' : 's'} per second (autocannon connectionRate); latencies are from send to answer, and autocannon's own p99, corrected for coordinated omission, is ${groups.map((g) => `${g.autocannon.latency.p99} ms for ${g.group}`).join(' and ')}.`

@@ -1,28 +1,40 @@
 // The API server and a run worker as real separate processes, as they are deployed: started with
-// the product's own entry points, their output kept in a log file, their CPU time read from /proc,
-// stopped with SIGTERM (SIGKILL if they do not exit).
+// the product's own entry points, their output kept in a log file, their CPU time read from /proc
+// (with that of the processes they start: API_PROCESSES), stopped with SIGTERM (SIGKILL if they
+// do not exit).
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createWriteStream, readFileSync } from 'node:fs';
+import { createWriteStream, readdirSync, readFileSync } from 'node:fs';
 
 // USER_HZ: the unit of utime and stime in /proc/PID/stat; 100 on Linux on every common architecture.
 const CLOCK_TICKS_PER_SECOND = 100;
 
-/** User + system CPU seconds process `pid` (all its threads) has used so far; null if it is gone. */
-export function cpuSecondsOf(pid: number): number | null {
+// Fields after the parenthesised command: state is field 3, ppid 4, utime 14 and stime 15.
+function statFields(pid: number): string[] | null {
   try {
-    // Fields after the parenthesised command: state is field 3, utime 14 and stime 15.
     const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
-    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-    return (Number(fields[11]) + Number(fields[12])) / CLOCK_TICKS_PER_SECOND;
+    return stat.slice(stat.lastIndexOf(')') + 2).split(' ');
   } catch {
     return null;
   }
 }
 
+/** User + system CPU seconds process `pid` (all its threads) and its children have used so far; null if it is gone. */
+export function cpuSecondsOf(pid: number): number | null {
+  const own = statFields(pid);
+  if (!own) return null;
+  let ticks = Number(own[11]) + Number(own[12]);
+  for (const entry of readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    const fields = statFields(Number(entry));
+    if (fields && Number(fields[1]) === pid) ticks += Number(fields[11]) + Number(fields[12]);
+  }
+  return ticks / CLOCK_TICKS_PER_SECOND;
+}
+
 export type BenchProcess = {
   name: string;
   pid: number;
-  /** User + system CPU seconds the process (all its threads) has used so far; null once it has exited. */
+  /** User + system CPU seconds the process (all its threads) and its children have used so far; null once it has exited. */
   cpuSeconds: () => number | null;
   stop: () => Promise<void>;
   exited: () => boolean;
