@@ -35,6 +35,8 @@ declare module 'autocannon' {
     statusCodeStats: Record<string, { count: number }>;
     latency: Histogram & { totalCount: number };
     requests: Histogram & { total: number; sent: number };
+    /** Bytes read from the sockets, headers included. */
+    throughput: Histogram & { total: number };
   };
 
   export type AutocannonInstance = PromiseLike<AutocannonResult> & {

@@ -24,6 +24,7 @@ import { startProcess, waitForReady, type BenchProcess } from './server-processe
 import { signIn, signInAll } from './sign-in';
 import { workerRunsBetween } from './worker-runs';
 import { databaseCpuSince, databaseCpuSnapshot } from './database-cpu';
+import { formatRouteCosts, measureEachRoute } from './each-route';
 
 const root = fileURLToPath(new URL('../../../', import.meta.url));
 const here = fileURLToPath(new URL('./', import.meta.url));
@@ -46,6 +47,9 @@ const { values } = parseArgs({
     readme: { type: 'boolean', default: false },
     // Writes a V8 CPU profile of the API server to tests/output/http-bench/ (open it in Chrome's DevTools).
     profile: { type: 'boolean', default: false },
+    // Instead of the mixed load: each read route alone for --seconds with this many connections (each-route.ts).
+    'each-route': { type: 'boolean', default: false },
+    'each-route-connections': { type: 'string', default: '50' },
   },
 });
 const seconds = Number(values.seconds);
@@ -53,11 +57,12 @@ const readConnections = Number(values['read-connections']);
 const writeConnections = Number(values['write-connections']);
 const warmupSeconds = Number(values['warmup-seconds']);
 const apiProcesses = Number(values['api-processes']);
+const eachRouteConnections = Number(values['each-route-connections']);
 const workerNiceness = Number(values['worker-niceness']);
 if (!Number.isInteger(workerNiceness) || workerNiceness < 0 || workerNiceness > 19) throw new Error('--worker-niceness must be a whole number from 0 to 19');
 const rate = values.rate ? Number(values.rate) : undefined;
 if (rate !== undefined && !(rate > 0)) throw new Error('--rate must be a positive number of requests per second per connection');
-for (const [name, v] of Object.entries({ seconds, readConnections, writeConnections, apiProcesses })) {
+for (const [name, v] of Object.entries({ seconds, readConnections, writeConnections, apiProcesses, eachRouteConnections })) {
   if (!Number.isInteger(v) || v < 1) throw new Error(`--${name} must be a positive whole number`);
 }
 mkdirSync(out, { recursive: true });
@@ -84,6 +89,20 @@ function commitDescription(): string {
   } catch {
     return 'unknown';
   }
+}
+
+const machine = () => `${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}`;
+const processesDescription = () =>
+  `${apiProcesses} API process${apiProcesses === 1 ? '' : 'es'} (API_PROCESSES), the worker at niceness ${workerNiceness} (WORKER_NICENESS)`;
+
+// One block per load shape, so a lighter run does not replace the 200 + 20 one.
+function writeReadmeBlock(id: string, text: string): void {
+  const readme = `${here}README.md`;
+  const start = `<!-- bench:${id}:start -->`;
+  const end = `<!-- bench:${id}:end -->`;
+  const current = readFileSync(readme, 'utf8');
+  const block = `${start}\n${text}\n${end}`;
+  writeFileSync(readme, current.includes(start) ? current.replace(new RegExp(`${start}[\\s\\S]*${end}`), block) : `${current.trimEnd()}\n\n${block}\n`);
 }
 
 let database: BenchDatabase | null = null;
@@ -141,6 +160,21 @@ async function main(): Promise<void> {
   const fixture = await prepareFixture(baseUrl, runStarterSession, 300_000);
   say(`first run solved in ${fixture.firstRunSeconds.toFixed(1)} s`);
 
+  if (values['each-route']) {
+    say(`each read route alone for ${seconds} s with ${eachRouteConnections} connections`);
+    const loadAverageBefore = loadAverage();
+    const costs = await measureEachRoute(baseUrl, readRequests(fixture), readSessions, eachRouteConnections, seconds, api, database.url);
+    const text = formatRouteCosts(
+      `Measured ${new Date().toISOString()} on ${machine()}, commit ${commitDescription()}; ${processesDescription()}; ` +
+        `each read route alone for ${seconds} s (after 1 s not measured) with ${eachRouteConnections} connections, no writes, no runs started; ` +
+        `load average (1, 5, 15 min) ${loadAverageBefore} before, ${loadAverage()} after. CPU per request: the API ${apiProcesses === 1 ? 'process' : 'processes'} and this database's PostgreSQL backends.`,
+      costs,
+    );
+    process.stdout.write(`${text}\n`);
+    if (values.readme) writeReadmeBlock(`each-route-${eachRouteConnections}-connections-${seconds}s${apiProcesses === 1 ? '' : `-${apiProcesses}-api-processes`}`, text);
+    return;
+  }
+
   if (warmupSeconds > 0) {
     say(`warming up for ${warmupSeconds} s (not measured)`);
     await Promise.all([
@@ -168,9 +202,9 @@ async function main(): Promise<void> {
   const spent = (a: number | null, b: number | null) => (a === null || b === null ? null : b - a);
 
   const header =
-    `Measured ${from.toISOString()} on ${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, ` +
-    `Node ${process.version}, commit ${commitDescription()}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
-    `${apiProcesses} API process${apiProcesses === 1 ? '' : 'es'} (API_PROCESSES), the worker at niceness ${workerNiceness} (WORKER_NICENESS); ` +
+    `Measured ${from.toISOString()} on ${machine()}, ` +
+    `commit ${commitDescription()}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
+    `${processesDescription()}; ` +
     `load average (1, 5, 15 min) ${loadAverageBefore} before the load.` +
     (rate
       ? ` Paced: each connection sends ${rate} request${rate === 1 ? '' : 's'} per second (autocannon connectionRate); latencies are from send to answer, and autocannon's own p99, corrected for coordinated omission, is ${groups.map((g) => `${g.autocannon.latency.p99} ms for ${g.group}`).join(' and ')}.`
@@ -204,16 +238,7 @@ async function main(): Promise<void> {
       2,
     ),
   );
-  if (values.readme) {
-    // One block per load shape, so a lighter run does not replace the 200 + 20 one.
-    const readme = `${here}README.md`;
-    const id = `${readConnections}-reads-${writeConnections}-writes-${seconds}s${rate ? `-${rate}-per-second` : ''}`;
-    const start = `<!-- bench:${id}:start -->`;
-    const end = `<!-- bench:${id}:end -->`;
-    const current = readFileSync(readme, 'utf8');
-    const block = `${start}\n${text}\n${end}`;
-    writeFileSync(readme, current.includes(start) ? current.replace(new RegExp(`${start}[\\s\\S]*${end}`), block) : `${current.trimEnd()}\n\n${block}\n`);
-  }
+  if (values.readme) writeReadmeBlock(`${readConnections}-reads-${writeConnections}-writes-${seconds}s${rate ? `-${rate}-per-second` : ''}${apiProcesses === 1 ? '' : `-${apiProcesses}-api-processes`}`, text);
   if (!readTargetMet) process.exitCode = 1;
 }
 
