@@ -1,5 +1,6 @@
-// Large answers that many people ask for unchanged (a finished run with its result, the map of
-// a plan at one data version) kept ready in this process as bytes, plain and gzip-compressed.
+// Answers that many people ask for unchanged (a finished run with its result; a plan's map, road
+// layer summary and road table pages at one data version) kept ready in this process as bytes,
+// plain and gzip-compressed.
 // The key must name everything the answer depends on; the caller reads that from the database
 // first (a small query), so a change made by any process is a new key, never a stale answer.
 // Concurrent requests for a key being built share the one build.

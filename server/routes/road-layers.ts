@@ -16,16 +16,19 @@ import { ImportRefusedError } from '../errors';
 import { importRoadLayer } from '../import/import-road-layer';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
-import { assertPlanInOrganization } from '../services/plan-access';
-import { activeLayerVersion, getActiveRoadLayer, getSegment, listSegments, saveRoadLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
+import { assertPlanInOrganization, planDataVersion } from '../services/plan-access';
+import { activeLayerVersion, getActiveRoadLayer, getSegment, saveRoadLayer, segmentPageOfLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
 import type { AnswerCache } from './answer-cache';
 
 export function roadLayersRouter(db: Database, config: Config, answers: AnswerCache): Router {
   const router = Router({ mergeParams: true });
 
+  // The layer's summary and extent (a pass over every segment) change only with the plan's data version.
   router.get('/road-layer', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    res.json({ layer: await getActiveRoadLayer(db, actorOf(req).organizationId, planId) });
+    const { organizationId } = actorOf(req);
+    const dataVersion = await planDataVersion(db, organizationId, planId);
+    await answers.sendJson(req, res, `road-layer ${planId} ${dataVersion}`, async () => JSON.stringify({ layer: await getActiveRoadLayer(db, organizationId, planId) }));
   });
 
   router.post('/road-layer', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
@@ -55,10 +58,13 @@ export function roadLayersRouter(db: Database, config: Config, answers: AnswerCa
     await answers.sendJson(req, res, key, () => segmentsInViewportJson(db, layerId, bbox, zoom));
   });
 
+  // Everyone opening the road table first asks for the same page: keep each page ready per data version.
   router.get('/segments', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     const query = segmentPageQuerySchema.parse(req.query);
-    res.json(await listSegments(db, actorOf(req).organizationId, planId, query));
+    const { layerId, dataVersion } = await activeLayerVersion(db, actorOf(req).organizationId, planId);
+    const key = `segments ${planId} ${layerId} ${dataVersion} ${JSON.stringify(query)}`;
+    await answers.sendJson(req, res, key, async () => JSON.stringify(await segmentPageOfLayer(db, layerId, query)));
   });
 
   router.get('/segments/:segmentId', requireMember('plans:read'), async (req, res) => {

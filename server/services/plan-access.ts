@@ -10,6 +10,13 @@ export async function assertPlanInOrganization(db: Database | Tx, organizationId
   if (!row) throw new NotFoundError('plan');
 }
 
+/** The plan's data version, in the query that checks its organization: what names its roads', zones' and shelters' content. */
+export async function planDataVersion(db: Database | Tx, organizationId: string, planId: string): Promise<number> {
+  const [row] = await db.select({ dataVersion: plans.dataVersion }).from(plans).where(and(eq(plans.id, planId), eq(plans.organizationId, organizationId)));
+  if (!row) throw new NotFoundError('plan');
+  return row.dataVersion;
+}
+
 /** Locks the plan row for the rest of the transaction and returns its new data version. */
 export async function bumpDataVersion(tx: Tx, organizationId: string, planId: string): Promise<number> {
   const [row] = await tx

@@ -202,13 +202,8 @@ export async function segmentsInViewportJson(db: Database, layerId: number, bbox
   return `{"type":"FeatureCollection","truncated":${row.truncated},"features":[${row.features ?? ''}]}`;
 }
 
-export async function listSegments(
-  db: Database,
-  organizationId: string,
-  planId: string,
-  query: z.output<typeof segmentPageQuerySchema>,
-): Promise<SegmentPage> {
-  const layerId = await requireActiveLayer(db, organizationId, planId);
+/** A page of a road layer's segments; the caller has checked that the layer is its plan's (activeLayerVersion). */
+export async function segmentPageOfLayer(db: Database, layerId: number, query: z.output<typeof segmentPageQuerySchema>): Promise<SegmentPage> {
   const filters: SQL[] = [eq(roadSegments.layerId, layerId)];
   if (query.roadClass) filters.push(eq(roadSegments.roadClass, query.roadClass));
   if (query.name) filters.push(ilike(roadSegments.name, `%${query.name.replaceAll(/[%_\\]/g, (c) => `\\${c}`)}%`));

@@ -66,6 +66,18 @@ describe('uploading a road layer', () => {
     expect(plan.body.name).toBe('Roads');
   });
 
+  it('shows a new layer at once, though the layer summary is kept ready per data version', async () => {
+    const summaryOf = async () => (await viewer.agent.get(`/api/plans/${planId}/road-layer`).expect(200)).body.layer as { id: number; segmentCount: number };
+    const before = await summaryOf();
+    expect(await summaryOf()).toEqual(before);
+    const replacement = { type: 'FeatureCollection', features: crossing.features.slice(0, 2) };
+    const { layer } = (await upload(planner, replacement, 'two-roads.geojson').expect(201)).body;
+    expect(layer.id).not.toBe(before.id);
+    expect(await summaryOf()).toMatchObject({ id: layer.id, segmentCount: 4 });
+    // Back to the three roads the tests below expect.
+    expect((await upload(planner, crossing).expect(201)).body.layer.segmentCount).toBe(5);
+  });
+
   it('refuses a broken file, names each bad feature and saves nothing', async () => {
     const before = await counts();
     const broken = {
@@ -166,6 +178,16 @@ describe('editing segments', () => {
     const changed = lanes(before) === 3 ? 2 : 3;
     await planner.agent.patch(`/api/plans/${planId}/segments/${segment.id}`).set('x-csrf-token', planner.csrf).send({ lanesForward: changed }).expect(200);
     expect(lanes(await mapOf())).toBe(changed);
+  });
+
+  it('shows an edit in the road table at once, though each page is kept ready per data version', async () => {
+    const pageOf = async () => (await viewer.agent.get(`/api/plans/${planId}/segments`).query({ name: 'North Lane' }).expect(200)).body as { items: { id: number; lanesForward: number }[] };
+    const before = await pageOf();
+    expect(await pageOf()).toEqual(before);
+    const segment = before.items[0]!;
+    const changed = segment.lanesForward === 3 ? 2 : 3;
+    await planner.agent.patch(`/api/plans/${planId}/segments/${segment.id}`).set('x-csrf-token', planner.csrf).send({ lanesForward: changed }).expect(200);
+    expect((await pageOf()).items.find((i) => i.id === segment.id)!.lanesForward).toBe(changed);
   });
 
   it('sends the map gzip-compressed when asked, plain otherwise, and answers a matching ETag with 304', async () => {
