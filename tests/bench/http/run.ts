@@ -207,7 +207,7 @@ async function main(): Promise<void> {
     `${processesDescription()}; ` +
     `load average (1, 5, 15 min) ${loadAverageBefore} before the load.` +
     (rate
-      ? ` Paced: each connection sends ${rate} request${rate === 1 ? '' : 's'} per second (autocannon connectionRate); latencies are from send to answer, and autocannon's own p99, corrected for coordinated omission, is ${groups.map((g) => `${g.autocannon.latency.p99} ms for ${g.group}`).join(' and ')}.`
+      ? ` Paced: each connection sends ${rate} request${rate === 1 ? '' : 's'} per second (autocannon connectionRate), the connections opened in 10 groups spread over ${rate === 1 ? 'one second' : 'one interval'} so that they do not all send at the same instant; latencies are from send to answer, and autocannon's own p99, corrected for coordinated omission, is ${groups.map((g) => `${g.autocannon.latency.p99} ms for ${g.group}`).join(' and ')}.`
       : ' Closed loop: each connection sends its next request as soon as the answer arrives.');
   const { text, readTargetMet } = formatReport({
     header,
