@@ -1,12 +1,18 @@
 // The order in which a briefing lists limiting roads and fixes, shared by the tables, the map
 // badges and the summary so that "rank 1" means the same road everywhere.
+import { cutShare } from '../../shared/api/cut-share';
 import type { Bottleneck, Fix, RunResult } from '../../shared/api/runs';
+
+/** A limiting road's share of the limit, as the workspace shows it. */
+export function shareOfLimit(result: RunResult, b: Bottleneck): number {
+  return cutShare(b, result.headline.steadyStateVehiclesPerHour);
+}
 
 /** Largest share of the limit first; ties by lower capacity, then segment id (stable output). */
 export function rankBottlenecks(result: RunResult): Bottleneck[] {
   return [...result.bottlenecks].sort(
     (a, b) =>
-      b.shareOfCut - a.shareOfCut ||
+      shareOfLimit(result, b) - shareOfLimit(result, a) ||
       a.capacityVehiclesPerHour - b.capacityVehiclesPerHour ||
       a.segmentId - b.segmentId ||
       a.direction.localeCompare(b.direction),

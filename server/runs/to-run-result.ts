@@ -96,6 +96,15 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     steadyStateVehiclesPerHour: r.steadyState.shelters[i]?.vehPerHour ?? 0,
   }));
 
+  const cut = r.bottlenecks;
+  const arrivalLimits = {
+    byMinutes: cut.horizonStep * minutesPerStep,
+    vehicles: cut.cutCapacityVehicles,
+    parts: cut.composition,
+    zoneIds: cut.zones.map((z) => input.zones[z]!.id),
+    shelterIds: cut.shelters.map((s) => input.shelters[s]!.id),
+  };
+
   const T = r.horizonSteps;
   const delivered = r.curve.deliveredVehiclesByStep;
   return {
@@ -117,6 +126,7 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     shelters,
     arcs,
     bottlenecks,
+    arrivalLimits,
     fixes,
     stats: {
       engineVersion: ENGINE_VERSION,

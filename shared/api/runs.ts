@@ -107,6 +107,28 @@ export const runStatsSchema = z.object({
   verified: z.boolean(),
 });
 
+// The minimum cut of the time-expanded network at one moment (by max-flow/min-cut, the most
+// vehicles that can have arrived by then), split by what its arcs stand for: so a planner sees
+// whether the roads or something else (departures, shelters) holds the number down.
+export const arrivalLimitsSchema = z.object({
+  byMinutes: z.number(),
+  vehicles: z.number(),
+  parts: z.object({
+    roads: z.number(),
+    // Vehicles whose departure time (the zone's departure curve) has not come yet.
+    departures: z.number(),
+    zoneRelease: z.number(),
+    // Room to queue on a road (waiting at a junction is bounded by it).
+    storage: z.number(),
+    shelterIntake: z.number(),
+    shelterCapacity: z.number(),
+  }),
+  // Zones whose release rate, shelters whose intake or space, are part of it.
+  zoneIds: z.array(z.number().int()),
+  shelterIds: z.array(z.number().int()),
+});
+export type ArrivalLimits = z.infer<typeof arrivalLimitsSchema>;
+
 export const runResultSchema = z.object({
   headline: runHeadlineSchema,
   curve: z.object({ stepMinutes: z.number(), deliveredVehicles: z.array(z.number()) }),
@@ -114,6 +136,8 @@ export const runResultSchema = z.object({
   shelters: z.array(shelterResultSchema),
   arcs: z.array(arcFlowSchema),
   bottlenecks: z.array(bottleneckSchema),
+  // Absent from results stored by engine versions before it was reported.
+  arrivalLimits: arrivalLimitsSchema.optional(),
   fixes: z.array(fixSchema),
   stats: runStatsSchema,
 });

@@ -1,6 +1,7 @@
 // What the findings show, computed from a stored run result: the headline figures in words,
 // bottlenecks in order of impact, utilisation per road segment for the map, the curve series,
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
+import { cutShare } from '@shared/api/cut-share';
 import type { ArcFlow, Bottleneck, RunResult, RunStatus } from '@shared/api/runs';
 import { formatCount, formatDuration, formatPerHour, formatShare, formatWindows } from './numbers';
 
@@ -64,17 +65,7 @@ export function headlineTiles(result: RunResult): HeadlineTile[] {
   ];
 }
 
-/**
- * A choke point's share of what limits the evacuation. The server gives the share in the
- * time-expanded cut; a road only in the steady-state cut comes with 0 there, and its share of
- * that cut is its capacity over the steady-state throughput (the cut's capacity equals the
- * maximum flow, max-flow min-cut theorem).
- */
-export function cutShare(b: Bottleneck, steadyStateVehiclesPerHour: number): number {
-  if (b.shareOfCut > 0) return b.shareOfCut;
-  if (b.inStaticCut && steadyStateVehiclesPerHour > 0) return Math.min(1, b.capacityVehiclesPerHour / steadyStateVehiclesPerHour);
-  return 0;
-}
+export { cutShare };
 
 /** When a choke point limits the evacuation, in words. */
 export function cutWindowsText(b: Bottleneck): string {

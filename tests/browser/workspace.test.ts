@@ -117,6 +117,12 @@ it('goes from the plans list to choke points on the map', async () => {
   expect(await chokePaths.first().getAttribute('stroke')).toBe('#4a1d7a');
   expect(await chokePaths.first().getAttribute('d')).toMatch(/^M-?\d+ -?\d+L/);
   await shoot(page, 'workspace-after-run');
+  // What holds arrivals down, in words and parts that add up to the whole.
+  const limits = page.locator('[data-test="arrival-limits"]');
+  await limits.scrollIntoViewIfNeeded();
+  expect(await page.locator('[data-test="arrival-limits-summary"]').innerText()).toMatch(/at most [\d,]+ vehicles can have arrived\. What holds that number down: /);
+  expect(await limits.locator('[data-test^="arrival-limit-"]').count()).toBeGreaterThan(0);
+  await page.screenshot({ path: path.join(screenshotDir, 'workspace-arrival-limits-1366x768.png') });
 
   // The downloads answer with the run's arcs, choke points and curve.
   for (const [label, type] of [['Roads with flows', 'geo+json'], ['Choke points', 'text/csv'], ['Curve', 'text/csv']] as const) {

@@ -37,6 +37,18 @@ afterAll(async () => {
   await ctx.drop();
 });
 
+// Max-flow/min-cut on the time-expanded network: the cut's capacity is the most that can have
+// arrived by its moment, and its parts are what the cut's arcs stand for.
+function expectLimitsConsistent(result: NonNullable<RunWithResult['result']>) {
+  const limits = result.arrivalLimits!;
+  const { roads, departures, zoneRelease, storage, shelterIntake, shelterCapacity } = limits.parts;
+  expect(roads + departures + zoneRelease + storage + shelterIntake + shelterCapacity).toBe(limits.vehicles);
+  expect(limits.vehicles).toBe(result.curve.deliveredVehicles[limits.byMinutes / result.curve.stepMinutes]);
+  // The roads' part is the choke-point table's time-expanded shares.
+  expect(result.bottlenecks.reduce((sum, b) => sum + b.shareOfCut, 0)).toBeCloseTo(roads / limits.vehicles, 9);
+  return limits;
+}
+
 describe('a run of the demo plan', () => {
   let run: RunWithResult;
 
@@ -72,6 +84,13 @@ describe('a run of the demo plan', () => {
     }
   });
 
+  it('says what holds arrivals down: in the first 4 hours the departures, not the bridges', () => {
+    // The bridges carry 5,600 veh/h; the demo's zones put fewer than that on the road in any hour.
+    const limits = expectLimitsConsistent(run.result!);
+    expect(limits.byMinutes).toBe(240);
+    expect(limits.parts.departures).toBe(limits.vehicles);
+  });
+
   it('is listed, and exports CSV and GeoJSON', async () => {
     const list = (await viewer.agent.get(`/api/plans/${planId}/runs`).expect(200)).body.runs;
     expect(list[0].id).toBe(run.id);
@@ -100,6 +119,15 @@ describe('a run of the demo plan', () => {
 });
 
 describe('refusals', () => {
+  it('says the roads hold arrivals down once their capacity is cut to a quarter', async () => {
+    const res = await start({ ...defaultRunParameters, horizonMinutes: 240, timeStepSeconds: 60, capacityFactor: 0.25 }).expect(202);
+    const slow = await waitForRun(res.body.id);
+    expect(slow.status, slow.failureReason ?? '').toBe('succeeded');
+    const limits = expectLimitsConsistent(slow.result!);
+    expect(limits.parts.roads).toBeGreaterThan(limits.vehicles / 2);
+    expect(slow.result!.bottlenecks.some((b) => b.shareOfCut > 0 && b.name.endsWith('Bridge'))).toBe(true);
+  });
+
   it('bad parameters: 400 naming the field, no run written', async () => {
     const before = await countRows(ctx, 'runs');
     const res = await start({ ...defaultRunParameters, timeStepSeconds: 1 }).expect(400);

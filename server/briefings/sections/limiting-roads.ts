@@ -1,9 +1,11 @@
-// The map with the limiting roads, the bottleneck table and the ranking of fixes.
+// The map with the limiting roads, the bottleneck table, what holds arrivals down and the
+// ranking of fixes.
 import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
-import { formatCount, formatPercent } from '../format';
+import { arrivalLimitParts, arrivalLimitSummary } from '../../../shared/api/arrival-limits';
+import { formatCount, formatDuration, formatPercent } from '../format';
 import { mapSvg } from '../map-svg';
-import { chokePointRanks, rankBottlenecks, rankFixes } from '../rankings';
+import { chokePointRanks, rankBottlenecks, rankFixes, shareOfLimit } from '../rankings';
 import { roadNamer } from '../road-labels';
 import { COLOURS, dataTable, td, th } from './document-styles';
 
@@ -42,7 +44,7 @@ export function bottleneckTable(input: BriefingInput): Content[] {
     td(roads.direction(b)),
     td(roadClassWords(b.roadClass)),
     td(formatCount(b.capacityVehiclesPerHour), { right: true }),
-    td(formatPercent(b.shareOfCut), { right: true }),
+    td(formatPercent(shareOfLimit(input.result, b)), { right: true }),
     td(b.inStaticCut ? 'yes' : 'no'),
     td(windows(b.cutWindows)),
     td(formatCount(b.gainPerExtraLaneVehiclesPerHour), { right: true }),
@@ -55,7 +57,24 @@ export function bottleneckTable(input: BriefingInput): Content[] {
       rows,
     ),
     {
-      text: '“Share of limit” is the road’s part of the narrowest cross-section at steady state. “Limiting during” gives the minutes after the order when the road is full in the time-by-time analysis. “+1 lane” is the gain in evacuees per hour from one more lane on that road alone.',
+      text: '“Share of limit” is the road’s part of the narrowest cross-section: of the time-by-time analysis where the road is part of it, else of the steady state. “Limiting during” gives the minutes after the order when the road is full in the time-by-time analysis. “+1 lane” is the gain in evacuees per hour from one more lane on that road alone.',
+      style: 'note',
+      margin: [0, 4, 0, 0],
+    },
+  ];
+}
+
+/** The time-expanded cut by what it is made of; results stored before it was reported have none. */
+export function arrivalLimitsTable(input: BriefingInput): Content[] {
+  const limits = input.result.arrivalLimits;
+  if (!limits) return [];
+  const rows: TableCell[][] = arrivalLimitParts(limits).map((p) => [td(`${p.label} (${p.detail})`), td(formatCount(p.vehicles), { right: true }), td(formatPercent(p.share), { right: true })]);
+  return [
+    { text: 'What holds arrivals down', style: 'h2', margin: [0, 14, 0, 4] },
+    { text: arrivalLimitSummary(limits, { count: formatCount, share: formatPercent, duration: formatDuration }), margin: [0, 0, 0, 4] },
+    ...(rows.length ? [dataTable(['*', 70, 50], [th('Part of the limit'), th('Vehicles', 'right'), th('Share', 'right')], rows)] : []),
+    {
+      text: 'The narrowest cross-section of the time-by-time analysis at that moment: its size is the most that can have arrived by then (max-flow/min-cut), and raising anything that is not part of it cannot raise that number.',
       style: 'note',
       margin: [0, 4, 0, 0],
     },

@@ -96,6 +96,14 @@ describe.each([
     expect(t).toMatch(/3 Harbor Avenue eastbound residential 600 27 % yes 15–60, 75–125 min 400/);
   });
 
+  it('says what holds arrivals down', () => {
+    const t = text().replace(/\s+/g, ' ');
+    expect(t).toContain('What holds arrivals down');
+    expect(t).toContain('By 2 h 5 min after the order at most 2,970 vehicles can have arrived. What holds that number down: road capacity 100 %.');
+    expect(t).toMatch(/Road capacity \(roads running full\) 2,970 100 %/);
+    expect(t).not.toContain('No road is part of that limit');
+  });
+
   it('ranks the fixes by their gain and leaves out the one that gains nothing', () => {
     const t = text();
     const fixes = t.slice(t.indexOf('Most valuable fixes'), t.indexOf('Evacuation zones'));
