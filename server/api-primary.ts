@@ -1,7 +1,7 @@
 // With API_PROCESSES above 1, `server/index.ts` runs this in the first process: it starts that
-// many API processes on the one port (node:cluster hands each new connection to the next in
-// turn), holds the rate-limit counts they share, starts a new process in place of one that dies,
-// and passes Ctrl+C and SIGTERM on so that each finishes its requests before the whole stops.
+// many API processes on the one port, one after another (node:cluster hands each new connection
+// to one of them), holds the rate-limit counts they share, starts a new process in place of one
+// that dies, and passes Ctrl+C and SIGTERM on so that each finishes its requests first.
 import cluster from 'node:cluster';
 import { ClusterMemoryStorePrimary } from '@express-rate-limit/cluster-memory-store';
 
@@ -41,7 +41,16 @@ export function runApiPrimary(count: number): void {
     cluster.fork();
   });
 
-  for (let i = 0; i < count; i++) cluster.fork();
+  // One after another: each starts once the one before listens, so that they do not all set up
+  // the run queue in a new database at the same moment, nor load at once on a busy machine.
+  let forked = 0;
+  const forkNext = () => {
+    if (stopping || forked >= count) return;
+    forked += 1;
+    cluster.fork();
+  };
+  cluster.on('listening', forkNext);
+  forkNext();
   process.on('SIGINT', () => stop('SIGINT'));
   process.on('SIGTERM', () => stop('SIGTERM'));
 }

@@ -14,7 +14,9 @@ export function rateLimited(options: LimitOptions): RequestHandler {
   return rateLimit({
     ...rest,
     // The name keeps each limit's counts apart in the shared store.
-    ...(cluster.isWorker ? { store: new ClusterMemoryStoreWorker({ prefix: `${name}:` }) } : {}),
+    // A primary too busy to answer within its second lets the request through rather than fail
+    // it; the account lockout, in the database, still holds.
+    ...(cluster.isWorker ? { store: new ClusterMemoryStoreWorker({ prefix: `${name}:` }), passOnStoreError: true } : {}),
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     handler: (_req, _res, next) => next(new HttpError(429, 'rate_limited', message)),

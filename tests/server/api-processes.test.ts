@@ -20,6 +20,8 @@ let exited: Promise<number | null>;
 let port: number;
 const logLines: Array<{ pid?: number; req?: { url?: string } }> = [];
 let output = '';
+// What the last wait saw, for the message when it times out.
+let lastSeen = '';
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -64,7 +66,7 @@ async function until<T>(what: string, timeoutMs: number, probe: () => Promise<T 
   for (;;) {
     const v = await Promise.resolve(probe()).catch(() => undefined);
     if (v !== undefined) return v;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${what}; output:\n${output.slice(-3000)}`);
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what} (last seen: ${lastSeen}); output:\n${output.slice(-3000)}`);
     await new Promise((r) => setTimeout(r, 200));
   }
 }
@@ -97,8 +99,15 @@ beforeAll(async () => {
   };
   primary.stdout!.on('data', take);
   primary.stderr!.on('data', take);
-  await until('two API processes, ready', 60_000, async () => (childrenOf(primary.pid!).length === 2 && (await send('GET', '/readyz')).status === 200 ? true : undefined));
-}, 90_000);
+  // Ready when both processes have answered (their pids show in the request log).
+  await until('two API processes, both answering', 120_000, async () => {
+    const children = childrenOf(primary.pid!);
+    lastSeen = `children ${JSON.stringify(children)}, pids that answered ${JSON.stringify([...new Set(logLines.map((l) => l.pid))])}`;
+    if (children.length !== 2) return undefined;
+    await Promise.all([send('GET', '/readyz'), send('GET', '/readyz'), send('GET', '/readyz')]);
+    return children.every((pid) => logLines.some((l) => l.pid === pid && l.req?.url === '/readyz')) ? true : undefined;
+  });
+}, 150_000);
 
 afterAll(async () => {
   if (primary && primary.exitCode === null) primary.kill('SIGKILL');
@@ -107,25 +116,34 @@ afterAll(async () => {
 });
 
 describe('API_PROCESSES=2', () => {
-  it('answers from both processes and counts sign-in attempts across them', async () => {
+  it('counts sign-in attempts across both processes', async () => {
     const first = await send('GET', '/api/auth/session');
     expect(first.status).toBe(200);
     const cookie = first.headers['set-cookie']![0]!.split(';')[0]!;
     const csrf = (JSON.parse(first.body) as { csrfToken: string }).csrfToken;
-    const email = demoAccounts[0]!.email;
-    // Sent at once, each on a connection of its own, so both processes take some.
-    const attempts = await Promise.all(
-      Array.from({ length: 2 * ATTEMPTS }, () => send('POST', '/api/auth/sign-in', { cookie, 'x-csrf-token': csrf }, JSON.stringify({ email, password: 'not the password at all' }))),
-    );
-    const pids = await until('every attempt logged', 10_000, () => {
-      const seen = logLines.filter((l) => l.req?.url === '/api/auth/sign-in');
-      return seen.length === 2 * ATTEMPTS ? new Set(seen.map((l) => l.pid)) : undefined;
-    });
-    expect(pids.size).toBe(2);
-    // Counted apart, each process would have let up to ATTEMPTS through; counted together, ATTEMPTS in all.
-    // (The session made by one process also carried the CSRF check in the other.)
-    const statuses = attempts.map((a) => a.status).sort();
-    expect(statuses).toEqual([...Array<number>(ATTEMPTS).fill(401), ...Array<number>(ATTEMPTS).fill(429)]);
+    // Each round is a new address-and-account key. node:cluster does not promise to spread
+    // connections over the processes, so a round that one process took whole proves nothing:
+    // try another. One attempt after another: a burst answered at once can be refused early
+    // (SECURITY.md, known limits), never let through.
+    for (let round = 1; ; round++) {
+      const email = `nobody-${round}@cutline.example`;
+      const logged = logLines.length;
+      const statuses: number[] = [];
+      for (let i = 0; i < 2 * ATTEMPTS; i++) {
+        // A connection of its own each time. (The session made by one process carries the CSRF check in the other.)
+        statuses.push((await send('POST', '/api/auth/sign-in', { cookie, 'x-csrf-token': csrf }, JSON.stringify({ email, password: 'not the password at all' }))).status);
+      }
+      const pids = await until('every attempt logged', 10_000, () => {
+        const seen = logLines.slice(logged).filter((l) => l.req?.url === '/api/auth/sign-in');
+        return seen.length === 2 * ATTEMPTS ? new Set(seen.map((l) => l.pid)) : undefined;
+      });
+      if (pids.size < 2 && round < 10) continue;
+      expect(pids.size).toBe(2);
+      // Counted apart, each process would let up to ATTEMPTS through, more than ATTEMPTS in all
+      // once both took some; counted together, the first ATTEMPTS and no more.
+      expect(statuses).toEqual([...Array<number>(ATTEMPTS).fill(401), ...Array<number>(ATTEMPTS).fill(429)]);
+      return;
+    }
   });
 
   it('starts a new process in place of one that dies', async () => {
