@@ -33,13 +33,17 @@ const MOTORWAY_NB_X = 5615;
 const MOTORWAY_SB_X = 5585;
 const INTERCHANGE_X = 5500;
 
-/** The river crossings: the row they carry, and what kind of road. */
-const BRIDGES = [
+/**
+ * The river crossings: the row they carry, what kind of road, and the road on either side when it
+ * differs. Mill Bridge is the old narrow one between four-lane approaches, so one more lane on it
+ * alone carries more; the others are as wide as their approaches, so widening one alone does not.
+ */
+const BRIDGES: readonly { y: number; name: string; tags: Tags; approach?: Tags }[] = [
   { y: 1200, name: 'Quay Bridge', tags: { highway: 'primary', lanes: '4', maxspeed: '50' } },
   { y: 2550, name: 'Market Bridge', tags: { highway: 'primary', lanes: '4', maxspeed: '50' } },
   { y: 3750, name: 'Heron Bridge', tags: { highway: 'secondary', maxspeed: '50' } },
-  { y: 4500, name: 'Mill Bridge', tags: { highway: 'tertiary', maxspeed: '30' } },
-] as const;
+  { y: 4500, name: 'Mill Bridge', tags: { highway: 'tertiary', maxspeed: '30' }, approach: { highway: 'secondary', lanes: '4', maxspeed: '50' } },
+];
 const INTERCHANGE_YS = [1200, 2550];
 const EAST_YS = [...new Set([600, 900, 1200, 1500, 1800, 2100, 2550, 2850, 3150, 3450, 3750, 4050, 4350, 4500])].sort((a, b) => a - b);
 
@@ -68,7 +72,7 @@ export function demoRoads(): FeatureCollection<LineString> {
   // West-bank rows (east–west). Bridge rows are arterials and leave the grid at the bank.
   for (const [k, y] of WEST_YS.entries()) {
     const bridge = bridgeAt(y);
-    const tags: Tags = bridge ? { ...bridge.tags, name: bridge.name.replace(/ Bridge$/, ' Road') } : { highway: 'residential', name: `${ordinal(k + 1)} Street` };
+    const tags: Tags = bridge ? { ...(bridge.approach ?? bridge.tags), name: bridge.name.replace(/ Bridge$/, ' Road') } : { highway: 'residential', name: `${ordinal(k + 1)} Street` };
     const xs = bridge ? [0, ...WEST_XS] : [...WEST_XS, WHARF_X];
     features.push(line(through(xs, y, 'x'), tags, `row-${y}`));
   }
@@ -100,7 +104,7 @@ export function demoRoads(): FeatureCollection<LineString> {
       features.push(line(through([...xs, INTERCHANGE_X], y, 'x'), { ...bridge.tags, name: 'Heron Road' }, `east-row-${y}`));
       features.push(line([[INTERCHANGE_X, y], [WIDTH, y]], { ...bridge.tags, name: 'Heron Overpass', bridge: 'yes', layer: '1' }, 'heron-overpass'));
     } else if (bridge) {
-      features.push(line(through(xs, y, 'x'), { ...bridge.tags, name: 'Mill Road' }, `east-row-${y}`));
+      features.push(line(through(xs, y, 'x'), { ...(bridge.approach ?? bridge.tags), name: 'Mill Road' }, `east-row-${y}`));
     } else {
       features.push(line(through(EAST_XS, y, 'x'), { highway: 'residential', name: `East ${y / 150} Lane` }, `east-row-${y}`));
     }

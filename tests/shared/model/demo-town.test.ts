@@ -1,9 +1,10 @@
 // The demo town (invented): the committed layers are the generator's output, they import
 // cleanly, and the evacuation's static choke points are the four bridges (solved by the flow
-// engine; 2 × 2 lanes × 1,000 + 850 + 750 veh/h from the default table).
+// engine; 2 × 2 lanes × 1,000 + 850 + 750 veh/h from the default table), of which only Mill
+// Bridge gains from one more lane alone.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { buildSteadyStateNetwork, solveSteadyState, validateEvacuationProblem } from '../../../shared/flow';
+import { buildSteadyStateNetwork, rankFixes, solveSteadyState, validateEvacuationProblem } from '../../../shared/flow';
 import { attachShelters, attachZones, indexNodes, readShelters, readZones } from '../../../shared/geo';
 import { buildEvacuationProblem, defaultCapacityTable } from '../../../shared/model';
 import { importRoadLayer } from '../../../server/import/import-road-layer';
@@ -62,7 +63,8 @@ describe('demo town', () => {
       { timeStepSeconds: 60, horizonSteps: 360 },
     );
     validateEvacuationProblem(built.problem);
-    const { summary } = solveSteadyState(built.problem, buildSteadyStateNetwork(built.problem));
+    const steady = buildSteadyStateNetwork(built.problem);
+    const { summary, result } = solveSteadyState(built.problem, steady);
     expect(summary.unbounded).toBe(false);
     expect(summary.throughputVehPerHour).toBe(5600);
     const cut = summary.cutRoads.map((r) => {
@@ -70,6 +72,13 @@ describe('demo town', () => {
       return `${network.segments[origin.segment]!.attributes.name} ${origin.direction}`;
     });
     expect(cut.sort()).toEqual(['Heron Bridge forward', 'Market Bridge forward', 'Mill Bridge forward', 'Quay Bridge forward']);
+
+    // One more lane on a bridge alone helps only where the roads on both sides are wider: Mill
+    // Bridge (tertiary, 750 veh/h a lane) between four-lane secondary approaches gains a whole
+    // lane, 750 veh/h; the other bridges are as wide as their approaches and gain nothing.
+    const { fixes } = rankFixes(built.problem, steady, result, { algorithm: 'edmonds-karp', maxEvaluations: 100 });
+    const gains = Object.fromEntries(fixes.map((f) => [network.segments[built.roadOrigins[f.road]!.segment]!.attributes.name, f.gainVehPerHour]));
+    expect(gains).toEqual({ 'Mill Bridge': 750, 'Heron Bridge': 0, 'Market Bridge': 0, 'Quay Bridge': 0 });
   });
 });
 
