@@ -33,14 +33,18 @@ function freePort(): Promise<number> {
   });
 }
 
-/** The pids of the processes whose parent is `pid`, from /proc. */
+/**
+ * The API processes `pid` started, from /proc: its children running the entry point. (tsx may
+ * also have an esbuild child there, when the primary's files are not in its cache yet.)
+ */
 function childrenOf(pid: number): number[] {
   const out: number[] = [];
   for (const entry of readdirSync('/proc')) {
     if (!/^\d+$/.test(entry)) continue;
     try {
       const stat = readFileSync(`/proc/${entry}/stat`, 'utf8');
-      if (Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]) === pid) out.push(Number(entry));
+      if (Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]) !== pid) continue;
+      if (readFileSync(`/proc/${entry}/cmdline`, 'utf8').split('\0').some((arg) => arg.endsWith('server/index.ts'))) out.push(Number(entry));
     } catch {
       // gone meanwhile
     }
