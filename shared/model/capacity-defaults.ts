@@ -33,6 +33,14 @@ function row(
   };
 }
 
+/**
+ * A single-lane ramp is planned below a freeway lane (2,000 veh/h/ln above): common practice,
+ * no handbook exhibit checked for it. Stored tables that carried the earlier ramp source are
+ * rewritten to this text by migration 0011.
+ */
+export const MOTORWAY_LINK_CAPACITY_SOURCE =
+  'common practice (CP): a single-lane ramp planned below a freeway lane, 1,500 veh/h/ln';
+
 const mph = (kmh: number) => kmh / KM_PER_MILE;
 const r0 = (x: number) => Math.round(x);
 
@@ -40,8 +48,7 @@ const r0 = (x: number) => Math.round(x);
 export const DEFAULT_CAPACITY_ROWS: readonly CapacityTableRow[] = [
   row('motorway', 2, 110, 2000,
     `HCM 7th ed. Eq. 12-6 at FFS 110 km/h gives ${r0(freewayBaseCapacity(mph(110)))} pc/h/ln (C); × f_HV ${ASSUMED_HEAVY_VEHICLE_FACTOR} and rounded down to 2,000 veh/h/ln (CP)`),
-  row('motorway_link', 1, 60, 1500,
-    'ramp capacity 1,450–1,550 veh/h/ln, MTC Travel Model One capacity lookup, 2015 (C); midpoint'),
+  row('motorway_link', 1, 60, 1500, MOTORWAY_LINK_CAPACITY_SOURCE),
   row('trunk', 2, 90, 1800,
     `HCM 7th ed. Eq. 12-7 (multilane) at FFS 90 km/h gives ${r0(multilaneBaseCapacity(mph(90)))} pc/h/ln (C); × f_HV ${ASSUMED_HEAVY_VEHICLE_FACTOR} and rounded down to 1,800 veh/h/ln (CP)`),
   row('trunk_link', 1, 60, 1300, 'common practice (CP)'),

@@ -58,3 +58,14 @@ export function cumulativeShareByStep(curve: DepartureCurve, timeStepSeconds: nu
   }
   throw new Error(`departure curve does not finish within ${maxSteps} steps`);
 }
+
+/**
+ * Where each curve form comes from, shown next to the curve picker and in briefings. The
+ * parameters a zone gets by default are example values, not fitted to a population.
+ */
+export const DEPARTURE_CURVE_SOURCES: Readonly<Record<DepartureCurve['kind'], string>> = {
+  allAtOnce: 'a bounding case: everyone leaves at the order (common practice)',
+  uniform: 'departures spread evenly over a stated period (common practice)',
+  logistic: 'logistic form compared with observed evacuations by Li, Ozbay, Bartin et al. (2013), TRR 2376 (C); formula from memory',
+  rayleigh: 'Rayleigh form compared with observed evacuations by Li, Ozbay, Bartin et al. (2013), TRR 2376 (C); formula from memory',
+};

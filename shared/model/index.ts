@@ -7,3 +7,4 @@ export * from './departure-curves';
 export * from './vehicles';
 export * from './zone-defaults';
 export * from './build-evacuation-problem';
+export * from './source-texts';
