@@ -1,0 +1,79 @@
+// Small helpers every optimisation shares: a deep copy of an engine problem (so an optimisation
+// never changes its input), and exact evaluations through the flow engine's public index.
+
+import {
+  buildSteadyStateNetwork,
+  computeEvacuationCurve,
+  createFlowState,
+  expandOverTime,
+  FlowAbortedError,
+  maxFlow,
+  validateEvacuationProblem,
+  type EvacuationProblem,
+  type FlowState,
+  type TimeExpandedNetwork,
+} from '../flow';
+
+/** An independent copy: arrays and road closures are new objects. */
+export function cloneProblem(problem: EvacuationProblem): EvacuationProblem {
+  return {
+    ...problem,
+    roads: problem.roads.map((road) => ({ ...road, ...(road.closures ? { closures: road.closures.map((c) => ({ ...c })) } : {}) })),
+    zones: problem.zones.map((zone) => ({
+      ...zone,
+      entryNodes: [...zone.entryNodes],
+      ...(zone.releaseFractionByStep ? { releaseFractionByStep: [...zone.releaseFractionByStep] } : {}),
+      ...(zone.releaseVehiclesByStep ? { releaseVehiclesByStep: [...zone.releaseVehiclesByStep] } : {}),
+    })),
+    shelters: problem.shelters.map((shelter) => ({ ...shelter })),
+  };
+}
+
+export function demandOf(problem: EvacuationProblem): number {
+  return problem.zones.reduce((sum, zone) => sum + zone.vehicles, 0);
+}
+
+/** Steady-state maximum flow (veh/h) with the roads open at atSeconds: a fresh, exact solve. */
+export function steadyThroughput(problem: EvacuationProblem, atSeconds = 0, shouldAbort?: () => boolean): number {
+  const steady = buildSteadyStateNetwork(problem, atSeconds);
+  return maxFlow(steady.network, steady.source, steady.sink, { shouldAbort }).value;
+}
+
+export interface CurveEvaluation {
+  /** First step with every vehicle delivered; null = not within the horizon. */
+  clearanceStep: number | null;
+  /** Most vehicles delivered by the end of the horizon. */
+  deliveredAtHorizon: number;
+  deliveredByStep: number[];
+  /** The time-expanded network and its maximum flow at the last horizon solved. */
+  expanded: TimeExpandedNetwork;
+  state: FlowState;
+  finalHorizon: number;
+}
+
+/** The evacuation curve of a problem: a fresh, exact solve (incremental over horizons). */
+export function evaluateCurve(problem: EvacuationProblem, shouldAbort?: () => boolean): CurveEvaluation {
+  validateEvacuationProblem(problem);
+  const expanded = expandOverTime(problem);
+  const state = createFlowState(expanded.network);
+  const curve = computeEvacuationCurve(expanded, demandOf(problem), state, { algorithm: 'incremental-bfs', shouldAbort });
+  return {
+    clearanceStep: curve.clearanceStep,
+    deliveredAtHorizon: curve.deliveredByStep[curve.deliveredByStep.length - 1] ?? 0,
+    deliveredByStep: curve.deliveredByStep,
+    expanded,
+    state,
+    finalHorizon: curve.finalHorizon,
+  };
+}
+
+/** Polls shouldAbort and reports progress; both optional. */
+export interface OptimisationHooks {
+  onProgress?: (fraction: number) => void;
+  shouldAbort?: () => boolean;
+}
+
+/** Throws FlowAbortedError when the caller asks to stop. */
+export function checkAbort(hooks: OptimisationHooks): void {
+  if (hooks.shouldAbort?.()) throw new FlowAbortedError('optimisation cancelled');
+}

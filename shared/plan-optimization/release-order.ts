@@ -1,0 +1,122 @@
+// The best release order: with everyone free to leave at the order, the earliest time by which
+// all can have arrived (the quickest transshipment in the discrete model: the smallest horizon
+// whose maximum flow reaches the demand; the evacuation curve finds it exactly, horizon by
+// horizon) and a departure schedule per zone that achieves it, read off that optimal flow's
+// departures from each zone.
+//
+// Waiting at home rather than on the road: where a path of the optimal flow enters the roads and
+// then waits at its entry node before moving, that wait is moved back into the zone (the vehicles
+// leave later). This removes queueing at the entry node and changes nothing else; it is applied
+// to zones without a release-rate gate and kept only when the schedule, evaluated exactly on its
+// own, still clears by the same step.
+
+import type { EvacuationProblem } from '../flow';
+import { forEachFlowPath } from './flow-paths';
+import { cloneProblem, evaluateCurve, type OptimisationHooks } from './problem-tools';
+
+export interface ZoneSchedule {
+  id: string;
+  vehicles: number;
+  /** Vehicles leaving in each step θ = 0..(the last step with a departure). */
+  departuresByStep: number[];
+  firstDepartureStep: number | null;
+  lastDepartureStep: number | null;
+}
+
+export interface ReleaseOrder {
+  timeStepSeconds: number;
+  horizonSteps: number;
+  /** Everyone free to leave at the order: the quickest clearance (null = not within the horizon). */
+  quickestClearanceStep: number | null;
+  quickestDeliveredAtHorizon: number;
+  /** With the plan's expected departure curves. */
+  expectedClearanceStep: number | null;
+  expectedDeliveredAtHorizon: number;
+  expectedDeliveredByStep: number[];
+  quickestDeliveredByStep: number[];
+  zones: ZoneSchedule[];
+  /** The schedule itself, evaluated exactly as the zones' departures: it clears by this step. */
+  scheduleClearanceStep: number | null;
+  /** True when waits at the entry node were moved back into the zones. */
+  waitsMovedHome: boolean;
+}
+
+/** The problem with every zone's vehicles free to leave at step 0 (release rates kept). */
+export function everyoneFreeAtOrder(problem: EvacuationProblem): EvacuationProblem {
+  const free = cloneProblem(problem);
+  for (const zone of free.zones) {
+    delete zone.releaseFractionByStep;
+    zone.releaseVehiclesByStep = [zone.vehicles];
+  }
+  return free;
+}
+
+function withSchedule(problem: EvacuationProblem, schedules: number[][]): EvacuationProblem {
+  const copy = cloneProblem(problem);
+  copy.zones.forEach((zone, z) => {
+    delete zone.releaseFractionByStep;
+    zone.releaseVehiclesByStep = schedules[z]!;
+  });
+  return copy;
+}
+
+export function bestReleaseOrder(problem: EvacuationProblem, hooks: OptimisationHooks = {}): ReleaseOrder {
+  const expected = evaluateCurve(problem, hooks.shouldAbort);
+  hooks.onProgress?.(0.3);
+  const free = everyoneFreeAtOrder(problem);
+  const quickest = evaluateCurve(free, hooks.shouldAbort);
+  hooks.onProgress?.(0.6);
+
+  const Z = problem.zones.length;
+  const asFound: number[][] = Array.from({ length: Z }, () => []);
+  const movedHome: number[][] = Array.from({ length: Z }, () => []);
+  const add = (list: number[], step: number, n: number): void => {
+    while (list.length <= step) list.push(0);
+    list[step]! += n;
+  };
+  forEachFlowPath(quickest.expanded, quickest.state, (path) => {
+    add(asFound[path.zone]!, path.entryStep, path.vehicles);
+    const gated = problem.zones[path.zone]!.releaseVehPerHour !== undefined;
+    add(movedHome[path.zone]!, path.entryStep + (gated ? 0 : path.waitsAtEntry), path.vehicles);
+  });
+
+  const target = quickest.clearanceStep;
+  const check = (schedules: number[][]) => evaluateCurve(withSchedule(problem, schedules), hooks.shouldAbort);
+  let chosen = movedHome;
+  let evaluation = check(movedHome);
+  let waitsMovedHome = true;
+  const same = (e: typeof evaluation) => e.clearanceStep === target && e.deliveredAtHorizon >= quickest.deliveredAtHorizon;
+  if (!same(evaluation)) {
+    chosen = asFound;
+    evaluation = check(asFound);
+    waitsMovedHome = false;
+  }
+  hooks.onProgress?.(1);
+  return {
+    timeStepSeconds: problem.timeStepSeconds,
+    horizonSteps: problem.horizonSteps,
+    quickestClearanceStep: quickest.clearanceStep,
+    quickestDeliveredAtHorizon: quickest.deliveredAtHorizon,
+    expectedClearanceStep: expected.clearanceStep,
+    expectedDeliveredAtHorizon: expected.deliveredAtHorizon,
+    expectedDeliveredByStep: expected.deliveredByStep,
+    quickestDeliveredByStep: quickest.deliveredByStep,
+    zones: problem.zones.map((zone, z) => {
+      const list = chosen[z]!;
+      const first = list.findIndex((n) => n > 0);
+      let last = -1;
+      list.forEach((n, i) => {
+        if (n > 0) last = i;
+      });
+      return {
+        id: zone.id,
+        vehicles: zone.vehicles,
+        departuresByStep: list,
+        firstDepartureStep: first < 0 ? null : first,
+        lastDepartureStep: last < 0 ? null : last,
+      };
+    }),
+    scheduleClearanceStep: evaluation.clearanceStep,
+    waitsMovedHome,
+  };
+}
