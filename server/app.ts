@@ -18,7 +18,7 @@ import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
 import { uploadSlots } from './middleware/upload-slots';
-import { createAnswerCache } from './routes/answer-cache';
+import { createAnswerCache } from './http/answer-cache';
 import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
 import { membersRouter } from './routes/members';

@@ -1,6 +1,6 @@
 // Errors a service may throw; the error handler turns each into its HTTP status and envelope.
 import type { ErrorCode } from '../shared/api/errors';
-import type { ImportFailure } from '../shared/api/network';
+import type { ImportFailure } from '../shared/api/road-attributes';
 
 export class HttpError extends Error {
   constructor(

@@ -4,8 +4,8 @@ import { hostname } from 'node:os';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { startRunQueue } from './queue/run-queue';
-import { createRunExecutor } from './runs/run-executor';
-import { lowerProcessPriority } from './runs/lower-priority';
+import { createRunExecutor } from './run-execution/run-executor';
+import { lowerProcessPriority } from './run-execution/lower-priority';
 
 const config = loadConfig();
 if (config.WORKER_NICENESS > 0) lowerProcessPriority(config.WORKER_NICENESS);

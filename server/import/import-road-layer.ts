@@ -2,8 +2,8 @@
 // .bz2 or .gz) → the built network, or a RoadImportError naming what is wrong. Pure apart
 // from reading the file in importRoadLayerFile; nothing is saved here.
 import { readFile } from 'node:fs/promises';
-import type { ImportOptionsInput } from '../../shared/api/network';
-import { buildRoadNetwork, type RoadNetwork } from '../../shared/geo/build-road-network';
+import type { ImportOptionsInput } from '../../shared/api/road-attributes';
+import { buildRoadNetwork, type RoadNetwork } from '../../shared/geo/build-road-graph';
 import { decodeUpload, parseJsonBytes } from './decode-upload';
 import { osmToRoadFeatures } from './osm-to-road-features';
 import { readOsmXml } from './read-osm-xml';

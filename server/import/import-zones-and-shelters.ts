@@ -1,7 +1,7 @@
 // Zone and shelter uploads, read and attached to a built road network in one call.
-import type { ShelterAttachment, ZoneAttachment } from '../../shared/api/network';
+import type { ShelterAttachment, ZoneAttachment } from '../../shared/api/road-attributes';
 import { attachShelters, attachZones, type AttachOptions } from '../../shared/geo/attach-zones-and-shelters';
-import type { RoadNetwork } from '../../shared/geo/build-road-network';
+import type { RoadNetwork } from '../../shared/geo/build-road-graph';
 import { indexNodes, type NodeIndex } from '../../shared/geo/node-index';
 import { readShelters, type ShelterFeature } from '../../shared/geo/read-shelters';
 import { readZones, type ZoneFeature } from '../../shared/geo/read-zones';

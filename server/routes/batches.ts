@@ -10,7 +10,7 @@ import { assertRunQuota } from '../services/run-quota';
 import { createBatch, getBatch, listBatches } from '../services/batches';
 import type { RunEnqueuer } from './runs';
 import { listCaps } from '../../shared/api/pagination';
-import { pageOf, sendPage } from './list-page';
+import { pageOf, sendPage } from '../http/list-page';
 
 const batchParamsSchema = z.object({ planId: z.string().uuid(), batchId: z.string().uuid('Not a valid identifier.') });
 

@@ -19,11 +19,11 @@ import { NotFoundError } from '../errors';
 import { rateLimited } from '../middleware/rate-limit';
 import { actorOf, currentMembership, requireMember } from '../middleware/require-member';
 import { singleFileUpload } from '../middleware/upload';
-import { briefingDetail, createBriefingService, listBriefings } from '../services/briefings';
+import { briefingDetail, createBriefingService, listBriefings } from '../services/briefings/briefing-workflow';
 import { getOutboxMessage, listOutbox, outboxAttachment, outboxEnabled } from '../services/briefings/outbox';
 import { verifyUpload } from '../services/briefings/verification';
 import { listCaps } from '../../shared/api/pagination';
-import { pageOf, sendPage } from './list-page';
+import { pageOf, sendPage } from '../http/list-page';
 
 /** A PDF for the review page's frame (inline) or as a download; never cached by shared caches. */
 function sendPdf(res: Response, pdf: Buffer, filename: string, download: boolean, sha256?: string) {

@@ -4,7 +4,7 @@ import { memberCreateSchema, memberUpdateSchema, userIdParamsSchema } from '../.
 import type { Database } from '../db/client';
 import type { Config } from '../config';
 import { listCaps } from '../../shared/api/pagination';
-import { pageOf, sendPage } from './list-page';
+import { pageOf, sendPage } from '../http/list-page';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createMember, getMember, listMembers, removeMember, updateMemberRole } from '../services/users';
 import { unlockMember } from '../services/sign-in-lockout';

@@ -5,7 +5,7 @@ import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createPlan, deletePlan, getPlan, listPlans, updatePlan } from '../services/plans';
 import { listCaps } from '../../shared/api/pagination';
-import { pageOf, sendPage } from './list-page';
+import { pageOf, sendPage } from '../http/list-page';
 
 export function plansRouter(db: Database): Router {
   const router = Router();

@@ -1,6 +1,6 @@
 // /api/plans/:planId/road-layer and /segments: upload, read for the map and table, edit.
 import { Router } from 'express';
-import { importOptionsSchema } from '../../shared/api/network';
+import { importOptionsSchema } from '../../shared/api/road-attributes';
 import {
   planParamsSchema,
   segmentBulkUpdateSchema,
@@ -8,7 +8,7 @@ import {
   segmentPageQuerySchema,
   segmentParamsSchema,
 } from '../../shared/api/road-layers';
-import { segmentAttributesPatchSchema } from '../../shared/api/network';
+import { segmentAttributesPatchSchema } from '../../shared/api/road-attributes';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
@@ -18,7 +18,7 @@ import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
 import { assertPlanInOrganization, planDataVersion } from '../services/plan-access';
 import { activeLayerVersion, getActiveRoadLayer, getSegment, saveRoadLayer, segmentPageOfLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
-import type { AnswerCache } from './answer-cache';
+import type { AnswerCache } from '../http/answer-cache';
 
 export function roadLayersRouter(db: Database, config: Config, answers: AnswerCache): Router {
   const router = Router({ mergeParams: true });

@@ -6,7 +6,7 @@ import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createScenario, deleteScenario, getScenario, listScenarios, updateScenario } from '../services/scenarios';
 import { listCaps } from '../../shared/api/pagination';
-import { pageOf, sendPage } from './list-page';
+import { pageOf, sendPage } from '../http/list-page';
 
 export function scenariosRouter(db: Database): Router {
   const router = Router({ mergeParams: true });

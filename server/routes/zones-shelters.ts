@@ -1,6 +1,6 @@
 // /api/plans/:planId/zones, /shelters and /capacity-table.
 import { Router } from 'express';
-import { capacityTableSchema } from '../../shared/api/network';
+import { capacityTableSchema } from '../../shared/api/road-attributes';
 import { planParamsSchema } from '../../shared/api/road-layers';
 import {
   shelterCreateSchema,
@@ -24,7 +24,7 @@ import { getCapacityTable, putCapacityTable } from '../services/capacity-table';
 import { assertPlanInOrganization } from '../services/plan-access';
 import { describeAttachments, loadPlanModel } from '../services/plan-model';
 import { listCaps } from '../../shared/api/pagination';
-import { pageOf, sendPage } from './list-page';
+import { pageOf, sendPage } from '../http/list-page';
 import {
   createShelters,
   createZones,

@@ -3,7 +3,7 @@
 import { eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { plans } from '../db/schema';
-import type { CapacityTable, NetworkSegment, ZoneAttachment, ShelterAttachment } from '../../shared/api/network';
+import type { CapacityTable, NetworkSegment, ZoneAttachment, ShelterAttachment } from '../../shared/api/road-attributes';
 import type { Attachments, Shelter, Zone } from '../../shared/api/zones-shelters';
 import type { Segment } from '../../shared/api/road-layers';
 import { attachShelters, attachZones } from '../../shared/geo/attach-zones-and-shelters';

@@ -3,9 +3,9 @@
 import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database, Tx } from '../db/client';
 import { plans, roadLayers, roadNodes, roadSegments } from '../db/schema';
-import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/network';
+import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/road-attributes';
 import type { RoadLayer, Segment, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
-import type { RoadNetwork } from '../../shared/geo/build-road-network';
+import type { RoadNetwork } from '../../shared/geo/build-road-graph';
 import type { z } from 'zod';
 import { BadRequestError, NotFoundError } from '../errors';
 import { zodFields } from '../middleware/error-handler';

@@ -7,11 +7,11 @@ import { plans, runInputs, runs } from '../db/schema';
 import type { Run, RunParameters } from '../../shared/api/runs';
 import { buildEvacuationProblem, ModelInputError, type BuiltEvacuationProblem } from '../../shared/model/build-evacuation-problem';
 import { BadRequestError, ConflictError, NotFoundError } from '../errors';
-import { ENGINE_VERSION } from '../runs/engine-version';
+import { ENGINE_VERSION } from '../run-execution/engine-version';
 import { attachAll, loadPlanModel, modelSegments, type PlanModel } from './plan-model';
 import type { Scenario } from '../../shared/api/scenarios';
 import { applyScenarioToProblem, scenarioSegmentOverrides } from '../../shared/model/apply-scenario';
-import type { RunInput } from '../runs/run-input';
+import type { RunInput } from '../../shared/model/run-input';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization } from './plan-access';
 import { limitPlusOne, type Page } from '../../shared/api/pagination';
@@ -182,8 +182,8 @@ export async function getRunRow(db: Database, organizationId: string, planId: st
 const finishedStatuses: ReadonlySet<Run['status']> = new Set(['succeeded', 'failed', 'cancelled']);
 
 /**
- * Workers change a run only while it is queued or running (server/runs/run-executor.ts), so a
- * finished run's answer is fixed and can be kept ready (server/routes/answer-cache.ts).
+ * Workers change a run only while it is queued or running (server/run-execution/run-executor.ts), so a
+ * finished run's answer is fixed and can be kept ready (server/http/answer-cache.ts).
  */
 export const isFinishedRun = (run: Run) => finishedStatuses.has(run.status);
 

@@ -1,7 +1,7 @@
 // The road-layer endpoints: the active layer's summary, segments for the map and the table,
 // and planners' edits. Attributes and the import report are defined in ./network.
 import { z } from 'zod';
-import { importReportSchema, roadClassSchema, segmentAttributesObjectSchema } from './network';
+import { importReportSchema, roadClassSchema, segmentAttributesObjectSchema } from './road-attributes';
 
 export const roadLayerSchema = z.object({
   id: z.number().int(),

@@ -1,7 +1,7 @@
 // Scenarios: named overlays on a plan's base data. A run under a scenario reads the base data
 // with the overlay applied; the base data itself never changes.
 import { z } from 'zod';
-import { roadClassSchema, segmentAttributesObjectSchema } from './network';
+import { roadClassSchema, segmentAttributesObjectSchema } from './road-attributes';
 import { shelterCreateSchema } from './zones-shelters';
 
 const minutes = z.number().min(0).max(72 * 60);

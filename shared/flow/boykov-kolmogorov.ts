@@ -10,7 +10,7 @@
 // the next maximise() continues from there. This is how the evacuation curve stays incremental.
 
 import { FlowAbortedError } from './errors';
-import type { FlowNetwork } from './network';
+import type { FlowNetwork } from './flow-network';
 import type { MaxFlowStats, SolveContext } from './solve-context';
 
 const FREE = 0;

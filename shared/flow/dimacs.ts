@@ -7,7 +7,7 @@
 
 import { UNBOUNDED_CAPACITY } from './capacity';
 import { FlowInputError } from './errors';
-import { arcCapacity, arcHead, arcTail, type FlowNetwork } from './network';
+import { arcCapacity, arcHead, arcTail, type FlowNetwork } from './flow-network';
 
 /** A max-flow instance as the format holds it (0-based nodes). */
 export interface DimacsMaxFlow {

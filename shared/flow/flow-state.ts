@@ -1,7 +1,7 @@
 // The mutable half of a flow computation: residual capacities, kept apart from the immutable
 // network so that a run can be continued (warm start), copied (what-if runs) or discarded.
 
-import type { FlowNetwork } from './network';
+import type { FlowNetwork } from './flow-network';
 
 /**
  * Residual capacity of every residual arc. The flow on input arc i is

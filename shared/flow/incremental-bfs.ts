@@ -15,7 +15,7 @@
 // become visible (the next horizon) or after an arc gains capacity (a what-if run).
 
 import { FlowAbortedError } from './errors';
-import type { FlowNetwork } from './network';
+import type { FlowNetwork } from './flow-network';
 import type { MaxFlowStats, SolveContext } from './solve-context';
 
 const FREE = 0;

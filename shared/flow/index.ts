@@ -1,7 +1,7 @@
 // The flow engine's public surface. Everything else in this folder is internal.
 export * from './capacity';
 export * from './errors';
-export * from './network';
+export * from './flow-network';
 export * from './flow-state';
 export { emptyStats, type MaxFlowStats } from './solve-context';
 export * from './min-cut';

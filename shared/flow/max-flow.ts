@@ -9,7 +9,7 @@ import { incrementalBfs } from './incremental-bfs';
 import { FlowInputError, FlowOverflowError } from './errors';
 import { arcFlows, createFlowState, netOutflow, type FlowState } from './flow-state';
 import { minimumCut, type MinimumCut } from './min-cut';
-import type { FlowNetwork } from './network';
+import type { FlowNetwork } from './flow-network';
 import { pushRelabel } from './push-relabel';
 import { emptyStats, type MaxFlowStats, type SolveContext } from './solve-context';
 

@@ -3,7 +3,7 @@
 // flow an algorithm found, this set is the same: it is the smallest source side of any
 // minimum cut, so every algorithm reports the same cut.
 
-import type { FlowNetwork } from './network';
+import type { FlowNetwork } from './flow-network';
 
 export interface MinimumCut {
   /** sourceSide[v] = 1 when v is reachable from the source in the residual digraph. */

@@ -1,6 +1,6 @@
 // What every algorithm receives. Algorithms mutate `residual` and count into `stats`, nothing else.
 
-import type { FlowNetwork } from './network';
+import type { FlowNetwork } from './flow-network';
 
 /** Counters the algorithms fill in; which ones move depends on the algorithm. */
 export interface MaxFlowStats {

@@ -6,7 +6,7 @@
 import { UNBOUNDED_CAPACITY, floorCapacity } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';
 import { maxFlow, type MaxFlowOptions, type MaxFlowResult } from './max-flow';
-import { buildNetworkFromArrays, type FlowNetwork } from './network';
+import { buildNetworkFromArrays, type FlowNetwork } from './flow-network';
 import { closedAtInstant } from './road-timing';
 
 /**

@@ -20,7 +20,7 @@
 
 import { UNBOUNDED_CAPACITY, floorCapacity } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';
-import { buildNetworkFromArrays, type FlowNetwork } from './network';
+import { buildNetworkFromArrays, type FlowNetwork } from './flow-network';
 import { releaseSchedule } from './release-schedule';
 import { closedAtStep, nodeStorage, perStepCapacity, travelSteps } from './road-timing';
 

@@ -3,7 +3,7 @@
 // A feasible flow whose value equals the capacity of some cut is maximum (max-flow/min-cut
 // theorem), so a passing check is a proof of optimality. O(V + E), cheap enough for production.
 
-import { arcCapacity, arcHead, arcTail, type FlowNetwork } from './network';
+import { arcCapacity, arcHead, arcTail, type FlowNetwork } from './flow-network';
 
 export interface VerifyReport {
   ok: boolean;

@@ -2,7 +2,7 @@
 // take vehicles at their nearest node. Either fails loudly when nothing is close enough.
 import { bbox as turfBbox, booleanPointInPolygon, pointToPolygonDistance } from '@turf/turf';
 import type { MultiPolygon, Polygon } from 'geojson';
-import type { BadFeature, ShelterAttachment, ZoneAttachment } from '../api/network';
+import type { BadFeature, ShelterAttachment, ZoneAttachment } from '../api/road-attributes';
 import { nearestNode, type NodeIndex } from './node-index';
 import type { ShelterFeature } from './read-shelters';
 import type { ZoneFeature } from './read-zones';

@@ -1,7 +1,7 @@
 // Lines → nodes and segments: a node wherever a line ends or lines share a vertex; each
 // segment runs between two consecutive nodes of one line.
 import { distance } from '@turf/turf';
-import type { LonLat, NetworkNode } from '../api/network';
+import type { LonLat, NetworkNode } from '../api/road-attributes';
 import type { TopoLine } from './topology-lines';
 import type { VertexStore } from './vertex-store';
 

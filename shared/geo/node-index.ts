@@ -1,6 +1,6 @@
 // Nearest-node search over the network's nodes on a grid, for attaching zones and shelters.
 import { distance } from '@turf/turf';
-import type { LonLat, NetworkNode, NetworkSegment, RoadClass } from '../api/network';
+import type { LonLat, NetworkNode, NetworkSegment, RoadClass } from '../api/road-attributes';
 import { SpatialGrid } from './spatial-grid';
 import { LocalPlane } from './vertex-store';
 

@@ -1,6 +1,6 @@
 // Uploaded road features → lines with resolved attributes, plus what was dropped and why.
 // Malformed geometry is collected per feature; the caller fails the whole import on it.
-import type { BadFeature, DropReason, LonLat, PropertyMapping, RoadClass, SegmentAttributes } from '../api/network';
+import type { BadFeature, DropReason, LonLat, PropertyMapping, RoadClass, SegmentAttributes } from '../api/road-attributes';
 import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition } from './check-feature-collection';
 import { readMappedProperties, tagsOf } from './read-mapped-properties';
 import { readRoadTags, type RoadReading } from './read-road-tags';

@@ -1,5 +1,5 @@
 // Shelter and exit uploads: GeoJSON points with a name and a capacity in persons.
-import { shelterAttributesSchema, type BadFeature, type LonLat, type ShelterAttributes } from '../api/network';
+import { shelterAttributesSchema, type BadFeature, type LonLat, type ShelterAttributes } from '../api/road-attributes';
 import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition } from './check-feature-collection';
 import { issues, nameOf, numeric, present } from './read-zones';
 import { RoadImportError } from './road-import-error';

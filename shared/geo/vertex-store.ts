@@ -1,6 +1,6 @@
 // Vertices of the road lines, shared by identical position, with a local metric plane for
 // topology decisions (crossings, snapping) and a union–find for vertices joined later.
-import type { LonLat } from '../api/network';
+import type { LonLat } from '../api/road-attributes';
 
 /** Earth's mean radius as turf uses it (metres), so plane distances agree with turf's. */
 const EARTH_RADIUS_METERS = 6371008.8;

@@ -2,7 +2,7 @@
 // closures and lane changes become segment overrides (before the problem is built); contraflow,
 // capacity factors by class and staggered departures change the built engine problem (after),
 // keeping road indices stable so runs under different scenarios map back the same way.
-import type { RoadClass, SegmentOverride } from '../api/network';
+import type { RoadClass, SegmentOverride } from '../api/road-attributes';
 import type { ScenarioOverlay } from '../api/scenarios';
 import { ModelInputError, type BuiltEvacuationProblem } from './build-evacuation-problem';
 

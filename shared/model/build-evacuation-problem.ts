@@ -10,7 +10,7 @@ import {
   type SegmentOverride,
   type ShelterAttributes,
   type ZoneAttributes,
-} from '../api/network';
+} from '../api/road-attributes';
 import type { EvacuationProblem, EvacuationRoad } from '../flow';
 import { capacityRowFor } from './capacity-defaults';
 import { cumulativeShareByStep } from './departure-curves';

@@ -2,7 +2,7 @@
 // responses parsed with the shared zod schemas, failures turned into ApiError.
 import type { z } from 'zod';
 import { errorEnvelopeSchema, type ErrorCode, type FieldError } from '@shared/api/errors';
-import type { ImportFailure } from '@shared/api/network';
+import type { ImportFailure } from '@shared/api/road-attributes';
 
 export class ApiError extends Error {
   constructor(

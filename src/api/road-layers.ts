@@ -1,6 +1,6 @@
 // The plan's road layer: summary and import report, segments for the map and the table, edits.
 import { z } from 'zod';
-import type { ImportOptionsInput, SegmentAttributesPatch } from '@shared/api/network';
+import type { ImportOptionsInput, SegmentAttributesPatch } from '@shared/api/road-attributes';
 import {
   roadLayerResponseSchema,
   segmentMapSchema,

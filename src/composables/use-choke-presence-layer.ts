@@ -2,7 +2,7 @@
 // it changes between them (map of looks in format/run-comparison), over a white casing, with a
 // popup saying in which runs it limits.
 import { ref, watch, type Ref, type ShallowRef } from 'vue';
-import type { ChokePointPresence } from '@shared/api/compare-runs';
+import type { ChokePointPresence } from '@shared/model/compare-runs';
 import { L } from '@/map/leaflet';
 import { presenceLooks } from '@/format/run-comparison';
 import { chokePointCasing } from '@/map/utilisation-scale';

@@ -10,7 +10,7 @@ import { listRuns } from '@/api/runs';
 import { listScenarios } from '@/api/scenarios';
 import { listBatches } from '@/api/batches';
 import { runIsActive } from '@/format/run-result';
-import { messageOf } from '@/stores/errors';
+import { messageOf } from '@/format/error-message';
 import { usePolling } from './use-polling';
 
 export function usePlanOverview(planId: () => string) {

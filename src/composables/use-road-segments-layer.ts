@@ -11,7 +11,7 @@ import { roadStyle, roadWeight, type LineStyle } from '@/map/road-style';
 import { utilisationStyle } from '@/map/utilisation-scale';
 import { createViewportLoader } from '@/map/viewport-loader';
 import type { SegmentLoad } from '@/format/run-result';
-import { messageOf } from '@/stores/errors';
+import { messageOf } from '@/format/error-message';
 import type { WorkspaceMap } from './use-leaflet-map';
 
 type Coordinates = [number, number][];

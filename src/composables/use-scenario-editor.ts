@@ -15,7 +15,7 @@ import { ApiError } from '@/api/http';
 import { emptyOverlay, validateOverlay } from '@/forms/scenario-overlay';
 import type { FieldErrors } from '@/forms/zod-errors';
 import { runIsActive } from '@/format/run-result';
-import { messageOf } from '@/stores/errors';
+import { messageOf } from '@/format/error-message';
 import { usePolling } from './use-polling';
 
 export function useScenarioEditor(planId: () => string, scenarioId: () => string) {

@@ -1,10 +1,10 @@
 // Server-side paging, sorting and filtering for the segment table: one request per change of
 // options, older requests aborted, filters typed into the name field debounced.
 import { onBeforeUnmount, ref, watch, type Ref } from 'vue';
-import type { RoadClass } from '@shared/api/network';
+import type { RoadClass } from '@shared/api/road-attributes';
 import { segmentSortKeys, type Segment, type SegmentPageQuery } from '@shared/api/road-layers';
 import { listSegments } from '@/api/road-layers';
-import { messageOf } from '@/stores/errors';
+import { messageOf } from '@/format/error-message';
 
 export type SegmentTableOptions = { page: number; itemsPerPage: number; sortBy: { key: string; order?: 'asc' | 'desc' | boolean }[] };
 export type SegmentFilters = { name: string; roadClass: RoadClass | null; closed: 'true' | 'false' | null; bridge: 'true' | 'false' | null };

@@ -1,7 +1,7 @@
 // The comparison page's figures: which runs the address names, a label per run, the headline
 // table with each run's difference from the first, and the words and colours of the choke-point
-// changes. Pure: the sums come from shared/api/compare-runs.ts, this file only words them.
-import { headlineDifferences, headlineKeys, type ChokePointPresence } from '@shared/api/compare-runs';
+// changes. Pure: the sums come from shared/model/compare-runs.ts, this file only words them.
+import { headlineDifferences, headlineKeys, type ChokePointPresence } from '@shared/model/compare-runs';
 import type { Run, RunResult } from '@shared/api/runs';
 import type { Scenario } from '@shared/api/scenarios';
 import { formatCount, formatDuration } from './numbers';

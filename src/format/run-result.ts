@@ -1,7 +1,7 @@
 // What the findings show, computed from a stored run result: the headline figures in words,
 // bottlenecks in order of impact, utilisation per road segment for the map, the curve series,
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
-import { cutShare } from '@shared/api/cut-share';
+import { cutShare } from '@shared/model/cut-share';
 import type { ArcFlow, Bottleneck, RunResult, RunStatus } from '@shared/api/runs';
 import { formatCount, formatDuration, formatPerHour, formatShare, formatWindows } from './numbers';
 

@@ -2,7 +2,7 @@
 // overlay to the next (the base data is never touched), validation with the server's schema,
 // and the overlay in words and per segment for the map.
 import { scenarioOverlaySchema, type ScenarioOverlay } from '@shared/api/scenarios';
-import type { RoadClass } from '@shared/api/network';
+import type { RoadClass } from '@shared/api/road-attributes';
 import type { ShelterCreate } from '@shared/api/zones-shelters';
 import { formatDuration } from '@/format/numbers';
 import { parseForm, type FieldErrors } from './zod-errors';

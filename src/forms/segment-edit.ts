@@ -7,7 +7,7 @@ import {
   segmentAttributesSchema,
   type RoadClass,
   type SegmentAttributesPatch,
-} from '@shared/api/network';
+} from '@shared/api/road-attributes';
 import type { Segment } from '@shared/api/road-layers';
 import { roadClassLooks } from '@/map/road-style';
 import { optionalNumberFrom, parseForm, type FieldErrors } from './zod-errors';

@@ -1,7 +1,7 @@
 // How a road looks before any analysis: a cool ramp from dark (motorways) to pale (service
 // roads) so that the warm utilisation colours of a result stand apart, and a width that grows
 // with the lanes. Closed roads are dashed red. Pure: no Leaflet here, only path options.
-import type { RoadClass } from '@shared/api/network';
+import type { RoadClass } from '@shared/api/road-attributes';
 
 export type LineStyle = { color: string; weight: number; opacity: number; dashArray?: string; lineCap?: 'round' | 'butt' };
 

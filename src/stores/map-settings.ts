@@ -3,7 +3,7 @@ import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { MapSettings } from '@shared/api/settings';
 import * as settingsApi from '@/api/settings';
-import { messageOf } from './errors';
+import { messageOf } from '../format/error-message';
 
 export const useMapSettingsStore = defineStore('map-settings', () => {
   // No basemap until told otherwise: the map must work offline.

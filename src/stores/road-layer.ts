@@ -3,12 +3,12 @@
 // so that the map reloads what it shows.
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { CapacityTable, ImportFailure, SegmentAttributesPatch } from '@shared/api/network';
+import type { CapacityTable, ImportFailure, SegmentAttributesPatch } from '@shared/api/road-attributes';
 import type { RoadLayer, Segment } from '@shared/api/road-layers';
 import * as roadApi from '@/api/road-layers';
 import { getCapacityTable } from '@/api/capacity-table';
 import { ApiError } from '@/api/http';
-import { messageOf } from './errors';
+import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
 import { useZonesSheltersStore } from './zones-shelters';
 

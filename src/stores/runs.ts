@@ -9,7 +9,7 @@ import { ApiError } from '@/api/http';
 import { defaultParameterValues, validateRunParameters, type RunParameterValues } from '@/forms/run-parameters';
 import type { FieldErrors } from '@/forms/zod-errors';
 import { runIsActive } from '@/format/run-result';
-import { messageOf } from './errors';
+import { messageOf } from '../format/error-message';
 
 export const pollIntervalMs = 500;
 

@@ -8,7 +8,7 @@ import type { ZoneGeometry } from '@shared/api/zones-shelters';
 import { getPlan } from '@/api/plans';
 import { ApiError } from '@/api/http';
 import type { Bbox } from '@/map/viewport';
-import { messageOf } from './errors';
+import { messageOf } from '../format/error-message';
 import { useRoadLayerStore } from './road-layer';
 import { useRunsStore } from './runs';
 import { useZonesSheltersStore } from './zones-shelters';

@@ -6,7 +6,7 @@ import type { Attachments, Shelter, ShelterCreate, ShelterUpdate, Zone, ZoneCrea
 import * as zonesApi from '@/api/zones';
 import * as sheltersApi from '@/api/shelters';
 import { ApiError } from '@/api/http';
-import { messageOf } from './errors';
+import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
 
 export const useZonesSheltersStore = defineStore('zones-shelters', () => {

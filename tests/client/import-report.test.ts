@@ -1,8 +1,8 @@
 // The import report of the demo town's roads (built by the same code the server uses), as the
 // Roads tab lists it: kept and dropped features, dead ends with a place to show on the map.
 import { describe, expect, it } from 'vitest';
-import { buildRoadNetwork } from '../../shared/geo/build-road-network';
-import { importReportSchema, type ImportReport } from '../../shared/api/network';
+import { buildRoadNetwork } from '../../shared/geo/build-road-graph';
+import { importReportSchema, type ImportReport } from '../../shared/api/road-attributes';
 import roadsText from '../../server/seed/demo-town/roads.geojson?raw';
 import { badFeatureLines, dropReasonWords, importReportSections, importSummary } from '../../src/format/import-report';
 

@@ -1,7 +1,7 @@
 // Roads before an analysis: darker and wider for the bigger classes, wider with more lanes,
 // closed roads dashed red, and missing lane data falling back to the class's usual count.
 import { describe, expect, it } from 'vitest';
-import { drivableRoadClasses } from '../../shared/api/network';
+import { drivableRoadClasses } from '../../shared/api/road-attributes';
 import { DEFAULT_CAPACITY_ROWS } from '../../shared/model/capacity-defaults';
 import { closedRoadColor, lanesShown, roadClassLooks, roadLegend, roadStyle, roadWeight } from '../../src/map/road-style';
 

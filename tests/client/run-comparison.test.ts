@@ -2,7 +2,7 @@
 // against the first run (signs, units, better or worse), and the choke-point changes.
 import { describe, expect, it } from 'vitest';
 import type { Bottleneck, RunResult } from '../../shared/api/runs';
-import { chokePointPresence } from '../../shared/api/compare-runs';
+import { chokePointPresence } from '../../shared/model/compare-runs';
 import { comparisonOrder, comparisonRows, presenceByChange, presenceSummary, runIdsFromQuery, runLabel } from '../../src/format/run-comparison';
 
 const a = '00000000-0000-4000-8000-00000000000a';

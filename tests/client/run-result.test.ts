@@ -2,7 +2,7 @@
 // utilisation per segment, the curve in hours, and a popup that escapes what the data says.
 import { describe, expect, it } from 'vitest';
 import { runResultSchema, type RunResult } from '../../shared/api/runs';
-import { curveCsv } from '../../shared/api/run-exports';
+import { curveCsv } from '../../shared/model/run-export-csv';
 import { bottlenecksByImpact, chokePointContext, chokePointPopupHtml, curvePoints, cutShare, cutWindowsText, headlineTiles, laneGainText, loadBySegment, roadTitle } from '../../src/format/run-result';
 
 function result(over: Partial<RunResult['headline']> = {}): RunResult {

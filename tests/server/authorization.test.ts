@@ -6,7 +6,7 @@
 // a demo organization's id, name or address. A refused request must change nothing: the
 // database is fingerprinted before and after each refused write.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startFakeSmtpServer, type FakeSmtpServer } from '../../server/briefings/mail/fake-smtp-server';
+import { startFakeSmtpServer, type FakeSmtpServer } from '../../server/services/briefings/mail/fake-smtp-server';
 import { keepOutboxMessage } from '../../server/services/briefings/outbox';
 import { seedOrganization } from '../../server/seed/seed-organization';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';

@@ -6,7 +6,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import pg from 'pg';
-import { startFakeSmtpServer, type FakeSmtpServer } from '../../server/briefings/mail/fake-smtp-server';
+import { startFakeSmtpServer, type FakeSmtpServer } from '../../server/services/briefings/mail/fake-smtp-server';
 import { defaultRunParameters } from '../../shared/api/runs';
 import { createTestContext, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
 import { pdfSig } from './briefings/support/poppler';

@@ -6,9 +6,9 @@
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { startFakeSmtpServer, type FakeSmtpServer, type ReceivedMessage } from '../../server/briefings/mail/fake-smtp-server';
-import { sha256OfStoredContent } from '../../server/briefings/content-fingerprint';
-import { verifyPdf } from '../../server/briefings/signing/verify-pdf';
+import { startFakeSmtpServer, type FakeSmtpServer, type ReceivedMessage } from '../../server/services/briefings/mail/fake-smtp-server';
+import { sha256OfStoredContent } from '../../server/services/briefings/content-fingerprint';
+import { verifyPdf } from '../../server/services/briefings/signing/verify-pdf';
 import { seedOrganization } from '../../server/seed/seed-organization';
 import { demoOrganization } from '../../server/seed/demo-accounts';
 import { keepOutboxMessage } from '../../server/services/briefings/outbox';

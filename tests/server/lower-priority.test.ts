@@ -18,7 +18,7 @@ const onLinux = (() => {
 const child = `
 import { readdirSync, readFileSync } from 'node:fs';
 import { Worker } from 'node:worker_threads';
-import { lowerProcessPriority } from './server/runs/lower-priority.ts';
+import { lowerProcessPriority } from './server/run-execution/lower-priority.ts';
 const nice = () => readdirSync('/proc/self/task').map((t) => {
   const stat = readFileSync('/proc/self/task/' + t + '/stat', 'utf8');
   return Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[16]);

@@ -25,7 +25,7 @@
 //     FOR EACH ROW WHEN (OLD.kind = 'signed') EXECUTE FUNCTION briefing_files_keep_signed();
 import { sql } from 'drizzle-orm';
 import { bigserial, check, customType, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
-import type { StoredBriefingContent } from '../../briefings/content-fingerprint';
+import type { StoredBriefingContent } from '../../services/briefings/content-fingerprint';
 import { timestamps } from './columns';
 import { organizations, users } from './organizations';
 import { plans } from './plans';
@@ -84,7 +84,7 @@ export const briefings = pgTable(
     title: text().notNull(),
     status: briefingStatusEnum().notNull().default('draft'),
     // What the figures say, as rendered: the content the footer's SHA-256 is computed from
-    // (storedBriefingContent in server/briefings/content-fingerprint.ts), so the hash can be
+    // (storedBriefingContent in server/services/briefings/content-fingerprint.ts), so the hash can be
     // recomputed from this column at any time with sha256OfStoredContent.
     content: jsonb().$type<StoredBriefingContent>().notNull(),
     contentSha256: text().notNull(),

@@ -1,11 +1,11 @@
 // Runs: one analysis each, with the exact inputs it used and its full result.
 import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
-import type { RunInput } from '../../runs/run-input';
+import type { RunInput } from '../../../shared/model/run-input';
 import type { SweepParameter } from '../../../shared/api/batches';
 import { plans } from './plans';
 import { users } from './organizations';
-import { roadLayers } from './network';
+import { roadLayers } from './road-layers';
 
 export const runStatusEnum = pgEnum('run_status', ['queued', 'running', 'succeeded', 'failed', 'cancelled']);
 

@@ -6,7 +6,7 @@ import { and, asc, eq, isNull } from 'drizzle-orm';
 import type { Config } from '../../config';
 import type { Database } from '../../db/client';
 import { briefingDistributions } from '../../db/schema';
-import { createMailer, type Mailer, type MailAddress } from '../../briefings/mail/mailer';
+import { createMailer, type Mailer, type MailAddress } from './mail/mailer';
 import type { MailReport } from '../../../shared/api/briefings';
 import { recordAudit, type Actor } from '../audit';
 

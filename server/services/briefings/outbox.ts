@@ -1,13 +1,13 @@
-// The development outbox: a fake SMTP server on loopback (server/briefings/mail/) whose every
+// The development outbox: a fake SMTP server on loopback (mail/) whose every
 // message is kept in mail_messages, tagged with the organisation of the briefing it concerns,
 // so that an administrator reads on the outbox page what would have been sent.
 import { and, desc, eq } from 'drizzle-orm';
 import type { Config } from '../../config';
 import type { Database } from '../../db/client';
 import { briefings, mailMessages } from '../../db/schema';
-import { startFakeSmtpServer, type FakeSmtpServer, type ReceivedMessage } from '../../briefings/mail/fake-smtp-server';
-import { BRIEFING_HEADER, KIND_HEADER } from '../../briefings/mail/mailer';
-import { parseMessage } from '../../briefings/mail/parse-message';
+import { startFakeSmtpServer, type FakeSmtpServer, type ReceivedMessage } from './mail/fake-smtp-server';
+import { BRIEFING_HEADER, KIND_HEADER } from './mail/mailer';
+import { parseMessage } from './mail/parse-message';
 import type { OutboxMessage, OutboxMessageSummary } from '../../../shared/api/briefings';
 import { NotFoundError } from '../../errors';
 import { limitPlusOne, type Page } from '../../../shared/api/pagination';

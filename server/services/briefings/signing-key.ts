@@ -12,7 +12,7 @@ import {
   readConfiguredCertificate,
   resolveOrganizationCertificate,
   type OrganizationCertificate,
-} from '../../briefings/signing/organization-certificate';
+} from './signing/organization-certificate';
 import { ConflictError, HttpError, NotFoundError } from '../../errors';
 import { recordAudit, type Actor } from '../audit';
 

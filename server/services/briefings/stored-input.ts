@@ -2,8 +2,8 @@
 // renderer's input, with the status-dependent parts (sign-off, return comment) added. Checks
 // that the content still hashes to the recorded value: a row edited behind the app's back
 // would otherwise be rendered, and signed, with figures nobody reviewed.
-import type { BriefingInput, BriefingReturn, BriefingSignature, BriefingStatus } from '../../briefings/briefing-input';
-import { contentSha256, sha256OfStoredContent, type StoredBriefingContent } from '../../briefings/content-fingerprint';
+import type { BriefingInput, BriefingReturn, BriefingSignature, BriefingStatus } from './briefing-input';
+import { contentSha256, sha256OfStoredContent, type StoredBriefingContent } from './content-fingerprint';
 
 export class ContentMismatchError extends Error {}
 

@@ -6,7 +6,7 @@
 import { eq } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { briefingFiles, briefings, organizationSigningKeys, organizations, plans } from '../../db/schema';
-import { verifyPdf } from '../../briefings/signing/verify-pdf';
+import { verifyPdf } from './signing/verify-pdf';
 import type { Verification } from '../../../shared/api/briefings';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;

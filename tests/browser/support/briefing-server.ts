@@ -8,7 +8,7 @@ import fs from 'node:fs';
 import { createApp, type AppDeps } from '../../../server/app';
 import { loadConfig } from '../../../server/config';
 import { seedDemo } from '../../../server/seed/seed-demo';
-import { startFakeSmtpServer, type FakeSmtpServer } from '../../../server/briefings/mail/fake-smtp-server';
+import { startFakeSmtpServer, type FakeSmtpServer } from '../../../server/services/briefings/mail/fake-smtp-server';
 import { keepOutboxMessage } from '../../../server/services/briefings/outbox';
 import { createTestDatabase, type TestDatabase } from '../../server/support/database';
 

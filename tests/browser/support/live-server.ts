@@ -8,7 +8,7 @@ import { loadConfig } from '../../../server/config';
 import { seedDemo } from '../../../server/seed/seed-demo';
 import { createTestDatabase, type TestDatabase } from '../../server/support/database';
 import { startRunQueue } from '../../../server/queue/run-queue';
-import { createRunExecutor } from '../../../server/runs/run-executor';
+import { createRunExecutor } from '../../../server/run-execution/run-executor';
 
 const clientDir = fileURLToPath(new URL('../../../dist', import.meta.url));
 

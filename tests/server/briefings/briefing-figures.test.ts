@@ -1,13 +1,13 @@
 // The pure parts of the briefing: map projection and scale bar, the SVG figures, rankings,
 // road directions, number formats and the content hash.
 import { describe, expect, it } from 'vitest';
-import { canonicalJson, contentSha256, sha256Hex, sha256OfStoredContent, storedBriefingContent } from '../../../server/briefings/content-fingerprint';
-import { curveSvg, minuteStep, niceStep } from '../../../server/briefings/curve-svg';
-import { formatCount, formatDuration, formatPercent, formatSpan, formatStep } from '../../../server/briefings/format';
-import { equirectangularAbout, travelDirection } from '../../../server/briefings/map-projection';
-import { mapSvg, midpointAlong, scaleBarLength } from '../../../server/briefings/map-svg';
-import { chokePointRanks, rankBottlenecks, rankFixes } from '../../../server/briefings/rankings';
-import { roadNamer } from '../../../server/briefings/road-labels';
+import { canonicalJson, contentSha256, sha256Hex, sha256OfStoredContent, storedBriefingContent } from '../../../server/services/briefings/content-fingerprint';
+import { curveSvg, minuteStep, niceStep } from '../../../server/services/briefings/curve-svg';
+import { formatCount, formatDuration, formatPercent, formatSpan, formatStep } from '../../../server/services/briefings/format';
+import { equirectangularAbout, travelDirection } from '../../../server/services/briefings/map-projection';
+import { mapSvg, midpointAlong, scaleBarLength } from '../../../server/services/briefings/map-svg';
+import { chokePointRanks, rankBottlenecks, rankFixes } from '../../../server/services/briefings/rankings';
+import { roadNamer } from '../../../server/services/briefings/road-labels';
 import { briefingInput, km, result, segments, shelters, zones } from '../../fixtures/briefing/demo-town-briefing';
 
 /** Haversine great-circle distance in metres. */

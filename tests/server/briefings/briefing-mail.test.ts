@@ -4,12 +4,12 @@
 import { createHash } from 'node:crypto';
 import nodemailer from 'nodemailer';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startFakeSmtpServer, type FakeSmtpServer } from '../../../server/briefings/mail/fake-smtp-server';
-import { attachmentName, BRIEFING_HEADER, createMailer, distributionMessage, signOffRequestMessage, type Mailer } from '../../../server/briefings/mail/mailer';
-import { decodeEncodedWords, parseMessage, parseParameters } from '../../../server/briefings/mail/parse-message';
-import { signBriefing } from '../../../server/briefings/sign-briefing';
-import { generateOrganizationCertificate } from '../../../server/briefings/signing/organization-certificate';
-import { verifyPdf } from '../../../server/briefings/signing/verify-pdf';
+import { startFakeSmtpServer, type FakeSmtpServer } from '../../../server/services/briefings/mail/fake-smtp-server';
+import { attachmentName, BRIEFING_HEADER, createMailer, distributionMessage, signOffRequestMessage, type Mailer } from '../../../server/services/briefings/mail/mailer';
+import { decodeEncodedWords, parseMessage, parseParameters } from '../../../server/services/briefings/mail/parse-message';
+import { signBriefing } from '../../../server/services/briefings/sign-briefing';
+import { generateOrganizationCertificate } from '../../../server/services/briefings/signing/organization-certificate';
+import { verifyPdf } from '../../../server/services/briefings/signing/verify-pdf';
 import { briefingInput, signer } from '../../fixtures/briefing/demo-town-briefing';
 
 const from = 'Cutline <briefings@cutline.example>';

@@ -7,10 +7,10 @@ import { createHash } from 'node:crypto';
 import { fileURLToPath } from 'node:url';
 import { statSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { renderBriefing, type RenderedBriefing } from '../../../server/briefings/render-briefing';
-import { signBriefing } from '../../../server/briefings/sign-briefing';
-import { generateOrganizationCertificate } from '../../../server/briefings/signing/organization-certificate';
-import { storedBriefingContent } from '../../../server/briefings/content-fingerprint';
+import { renderBriefing, type RenderedBriefing } from '../../../server/services/briefings/render-briefing';
+import { signBriefing } from '../../../server/services/briefings/sign-briefing';
+import { generateOrganizationCertificate } from '../../../server/services/briefings/signing/organization-certificate';
+import { storedBriefingContent } from '../../../server/services/briefings/content-fingerprint';
 import { briefingInput, result, signer } from '../../fixtures/briefing/demo-town-briefing';
 import { pdfInfo, pdfToPng, pdfToText, squeeze } from './support/poppler';
 

@@ -7,8 +7,8 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import forge from 'node-forge';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { signBriefing, type SignedBriefing } from '../../../server/briefings/sign-briefing';
-import { renderBriefing } from '../../../server/briefings/render-briefing';
+import { signBriefing, type SignedBriefing } from '../../../server/services/briefings/sign-briefing';
+import { renderBriefing } from '../../../server/services/briefings/render-briefing';
 import {
   CertificateError,
   generateOrganizationCertificate,
@@ -16,8 +16,8 @@ import {
   readConfiguredCertificate,
   resolveOrganizationCertificate,
   type OrganizationCertificate,
-} from '../../../server/briefings/signing/organization-certificate';
-import { verifyPdf } from '../../../server/briefings/signing/verify-pdf';
+} from '../../../server/services/briefings/signing/organization-certificate';
+import { verifyPdf } from '../../../server/services/briefings/signing/verify-pdf';
 import { briefingInput, signer } from '../../fixtures/briefing/demo-town-briefing';
 import { pdfSig, pdfToText } from './support/poppler';
 

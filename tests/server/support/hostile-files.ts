@@ -4,7 +4,7 @@
 // endpoints must take, so that the valid documents the others break are known to be valid.
 import { gzipSync } from 'node:zlib';
 import fc from 'fast-check';
-import { drivableRoadClasses } from '../../../shared/api/network';
+import { drivableRoadClasses } from '../../../shared/api/road-attributes';
 
 export type UploadTarget = 'roads' | 'zones' | 'shelters';
 export type HostileFile = { kind: string; bytes: Buffer; fileName: string };

@@ -9,7 +9,7 @@ import { seedOrganization } from '../../../server/seed/seed-organization';
 import { demoAccounts } from '../../../server/seed/demo-accounts';
 import { createTestDatabase, type TestDatabase } from './database';
 import { startRunQueue } from '../../../server/queue/run-queue';
-import { createRunExecutor } from '../../../server/runs/run-executor';
+import { createRunExecutor } from '../../../server/run-execution/run-executor';
 
 export const otherAccounts = [
   { role: 'admin' as Role, email: 'admin@other.example', displayName: 'Other Admin', password: 'other-admin-2026' },

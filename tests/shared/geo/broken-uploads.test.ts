@@ -3,8 +3,8 @@
 import { readFileSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import type { ImportFailure } from '../../../shared/api/network';
-import { importFailureSchema } from '../../../shared/api/network';
+import type { ImportFailure } from '../../../shared/api/road-attributes';
+import { importFailureSchema } from '../../../shared/api/road-attributes';
 import { buildRoadNetwork, RoadImportError } from '../../../shared/geo';
 import { importRoadLayer } from '../../../server/import/import-road-layer';
 

@@ -1,8 +1,8 @@
-// What the importer returns is exactly what the API contract (shared/api/network.ts) accepts,
+// What the importer returns is exactly what the API contract (shared/api/road-attributes.ts) accepts,
 // for every kind of input: the demo town, a real OSM extract, a GIS layer, synthetic OSM.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { importReportSchema, networkNodeSchema, networkSegmentSchema, propertyMappingSchema } from '../../../shared/api/network';
+import { importReportSchema, networkNodeSchema, networkSegmentSchema, propertyMappingSchema } from '../../../shared/api/road-attributes';
 import { importRoadLayer } from '../../../server/import/import-road-layer';
 
 const read = (path: string) => readFileSync(new URL(path, import.meta.url));

@@ -1,7 +1,7 @@
 // Zones attach at the nodes inside them (else the nearest), shelters at the nearest node,
 // with an error naming each one that is too far; uploads are validated feature by feature.
 import { describe, expect, it } from 'vitest';
-import type { ImportFailure } from '../../../shared/api/network';
+import type { ImportFailure } from '../../../shared/api/road-attributes';
 import { attachShelters, attachZones, buildRoadNetwork, indexNodes, readShelters, readZones, RoadImportError } from '../../../shared/geo';
 import { ZONE_DEFAULTS } from '../../../shared/model';
 

@@ -4,7 +4,7 @@
 import type { ArcFlow, Bottleneck, Fix, RoadRef, RunResult } from '../../shared/api/runs';
 import type { EvacuationResult } from '../../shared/flow';
 import { ENGINE_VERSION } from './engine-version';
-import type { RunInput } from './run-input';
+import type { RunInput } from '../../shared/model/run-input';
 
 export type SolvedRun = { result: EvacuationResult; solveMs: number; peakMemoryBytes: number };
 

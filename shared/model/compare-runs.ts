@@ -1,6 +1,6 @@
 // Comparing runs: headline differences against the first run, and which choke points appear,
 // vanish or stay between them. Pure, so the comparison page and any export agree.
-import type { RunHeadline, RunResult } from './runs';
+import type { RunHeadline, RunResult } from '../api/runs';
 
 export type ChokePointPresence = {
   segmentId: number;

@@ -1,5 +1,5 @@
 // CSV forms of a run's tables, shared so the server's downloads and any client preview agree.
-import type { RunResult } from './runs';
+import type { RunResult } from '../api/runs';
 
 function csvCell(v: string | number | boolean | null): string {
   if (v === null) return '';

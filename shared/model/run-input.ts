@@ -1,8 +1,8 @@
 // The self-contained input of one run: the engine problem plus the labels that turn engine
 // indices back into segments, zones and shelters.
-import type { EvacuationProblem } from '../../shared/flow';
-import type { AlgorithmChoice } from '../../shared/api/runs';
-import type { RoadOrigin } from '../../shared/model/build-evacuation-problem';
+import type { EvacuationProblem } from '../flow';
+import type { AlgorithmChoice } from '../api/runs';
+import type { RoadOrigin } from './build-evacuation-problem';
 
 export type RunInput = {
   problem: EvacuationProblem;

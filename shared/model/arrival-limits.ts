@@ -1,7 +1,7 @@
 // What holds arrivals down at the moment of the time-expanded cut (ArrivalLimits), in the words
 // the workspace and the briefing both use. By max-flow/min-cut the cut's capacity bounds what can
 // have arrived by then; raising anything that is not part of the cut cannot raise that bound.
-import type { ArrivalLimits } from './runs';
+import type { ArrivalLimits } from '../api/runs';
 
 export type ArrivalLimitKey = keyof ArrivalLimits['parts'];
 export type ArrivalLimitPart = { key: ArrivalLimitKey; label: string; detail: string; vehicles: number; share: number };

@@ -2,7 +2,7 @@
 // ranking of fixes.
 import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
-import { arrivalLimitParts, arrivalLimitSummary } from '../../../shared/api/arrival-limits';
+import { arrivalLimitParts, arrivalLimitSummary } from '../../../../shared/model/arrival-limits';
 import { formatCount, formatDuration, formatPercent } from '../format';
 import { mapSvg } from '../map-svg';
 import { chokePointRanks, rankBottlenecks, rankFixes, shareOfLimit } from '../rankings';

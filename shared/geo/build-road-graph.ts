@@ -8,9 +8,9 @@ import {
   type NetworkNode,
   type NetworkSegment,
   type RoadClass,
-} from '../api/network';
+} from '../api/road-attributes';
 import { cutIntoSegments } from './cut-into-segments';
-import { connectedComponents } from './network-components';
+import { connectedComponents } from './road-graph-components';
 import { readRoadFeatures } from './read-road-features';
 import { RoadImportError } from './road-import-error';
 import { joinDanglingEnds, snapDanglingEnds } from './snap-dangling-ends';

@@ -6,15 +6,15 @@ import { createWriteStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import { parseArgs } from 'node:util';
-import { propertyMappingSchema, type ImportOptionsInput } from '../../shared/api/network';
+import { propertyMappingSchema, type ImportOptionsInput } from '../../shared/api/road-attributes';
 import { dimacsMaxFlowChunks } from '../../shared/flow';
 import { indexNodes } from '../../shared/geo/node-index';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import { defaultCapacityTable } from '../../shared/model';
 import { importRoadLayerFile } from '../import/import-road-layer';
 import { importShelters, importZones } from '../import/import-zones-and-shelters';
-import { staticNetworkDimacs } from './static-network-dimacs';
-import { summariseNetwork } from './summarise-network';
+import { staticNetworkDimacs } from './static-dimacs';
+import { summariseNetwork } from './summarise-road-graph';
 
 const USAGE = `usage: npm run --silent network -- FILE [--snap-meters M] [--split-crossings | --no-split-crossings]
        [--tiny-meters M] [--mapping MAPPING.json]

@@ -1,7 +1,7 @@
 // Roads as an official reads them: "Mill Bridge Road (eastbound)" rather than segment 17 forward.
 // The compass direction comes from the segment's geometry (first to last vertex, reversed for
 // "backward"); without geometry the stored direction is named as such.
-import type { RoadRef } from '../../shared/api/runs';
+import type { RoadRef } from '../../../shared/api/runs';
 import type { BriefingMapInput, LonLat } from './briefing-input';
 import { bearingDegrees, equirectangularAbout, travelDirection } from './map-projection';
 

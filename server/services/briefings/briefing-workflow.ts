@@ -8,27 +8,27 @@
 // briefing's recipients and each delivery is recorded.
 import { randomUUID } from 'node:crypto';
 import { and, eq, inArray, max, ne, sql } from 'drizzle-orm';
-import type { Config } from '../config';
-import { limitPlusOne, type Page } from '../../shared/api/pagination';
-import type { Database, Tx } from '../db/client';
-import { briefingDistributions, briefingFiles, briefingReviews, briefingStatusChanges, briefings, memberships, users } from '../db/schema';
-import type { BriefingCreate, BriefingStepResponse, BriefingUpdate, BriefingVersionCreate, MailReport, Official, Recipient, SignOffRequest } from '../../shared/api/briefings';
-import { roleLabels } from '../../shared/api/roles';
-import type { BriefingReturn, BriefingSignature, BriefingStatus } from '../briefings/briefing-input';
-import { storedBriefingContent, type StoredBriefingContent } from '../briefings/content-fingerprint';
-import { renderBriefing } from '../briefings/render-briefing';
-import { signBriefing as signBriefingPdf } from '../briefings/sign-briefing';
-import { attachmentName, type Mailer } from '../briefings/mail/mailer';
-import { verifyPdf } from '../briefings/signing/verify-pdf';
-import { BadRequestError, ConflictError, ForbiddenError, HttpError, NotFoundError } from '../errors';
-import { recordAudit } from './audit';
-import { distributeSignedCopy, mailerFor, sendSignOffRequests, type BriefingRef } from './briefings/briefing-mail';
-import { finishedRun, gatherBriefingInput } from './briefings/briefing-source';
-import { briefingDetail, visibleBriefing, type BriefingActor, type BriefingRow } from './briefings/briefing-views';
-import { signingKeyFor } from './briefings/signing-key';
-import { ContentMismatchError, inputFromStored } from './briefings/stored-input';
+import type { Config } from '../../config';
+import { limitPlusOne, type Page } from '../../../shared/api/pagination';
+import type { Database, Tx } from '../../db/client';
+import { briefingDistributions, briefingFiles, briefingReviews, briefingStatusChanges, briefings, memberships, users } from '../../db/schema';
+import type { BriefingCreate, BriefingStepResponse, BriefingUpdate, BriefingVersionCreate, MailReport, Official, Recipient, SignOffRequest } from '../../../shared/api/briefings';
+import { roleLabels } from '../../../shared/api/roles';
+import type { BriefingReturn, BriefingSignature, BriefingStatus } from './briefing-input';
+import { storedBriefingContent, type StoredBriefingContent } from './content-fingerprint';
+import { renderBriefing } from './render-briefing';
+import { signBriefing as signBriefingPdf } from './sign-briefing';
+import { attachmentName, type Mailer } from './mail/mailer';
+import { verifyPdf } from './signing/verify-pdf';
+import { BadRequestError, ConflictError, ForbiddenError, HttpError, NotFoundError } from '../../errors';
+import { recordAudit } from '../audit';
+import { distributeSignedCopy, mailerFor, sendSignOffRequests, type BriefingRef } from './briefing-mail';
+import { finishedRun, gatherBriefingInput } from './briefing-source';
+import { briefingDetail, visibleBriefing, type BriefingActor, type BriefingRow } from './briefing-views';
+import { signingKeyFor } from './signing-key';
+import { ContentMismatchError, inputFromStored } from './stored-input';
 
-export { briefingDetail, listBriefings } from './briefings/briefing-views';
+export { briefingDetail, listBriefings } from './briefing-views';
 
 /** The app's own address (PUBLIC_BASE_URL, else the address it listens on), without a trailing slash. */
 export function publicBaseUrl(config: Config): string {

@@ -1,7 +1,7 @@
 // The CLI's one-object summary of a built network: counts, what was kept and dropped, what
 // the class defaults filled in (with the values and their sources), and topology problems.
-import type { CapacityTable } from '../../shared/api/network';
-import type { RoadNetwork } from '../../shared/geo/build-road-network';
+import type { CapacityTable } from '../../shared/api/road-attributes';
+import type { RoadNetwork } from '../../shared/geo/build-road-graph';
 import { capacityRowFor } from '../../shared/model';
 
 const round = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** digits;

@@ -1,7 +1,7 @@
 // Run comparison: choke points that appear, vanish or stay; headline differences (common practice:
 // differences are against the first, reference run).
 import { describe, expect, it } from 'vitest';
-import { chokePointPresence, headlineDifferences } from '../../../shared/api/compare-runs';
+import { chokePointPresence, headlineDifferences } from '../../../shared/model/compare-runs';
 import type { Bottleneck, RunResult } from '../../../shared/api/runs';
 
 const bottleneck = (segmentId: number): Bottleneck => ({

@@ -1,6 +1,6 @@
 // Everything a briefing prints, gathered by the caller (the briefing service) from the database.
 // The document builder reads nothing else: no clock, no database, no files.
-import type { Run, RunResult } from '../../shared/api/runs';
+import type { Run, RunResult } from '../../../shared/api/runs';
 
 export type BriefingStatus = 'draft' | 'awaiting-sign-off' | 'signed' | 'returned';
 

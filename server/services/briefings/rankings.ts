@@ -1,7 +1,7 @@
 // The order in which a briefing lists limiting roads and fixes, shared by the tables, the map
 // badges and the summary so that "rank 1" means the same road everywhere.
-import { cutShare } from '../../shared/api/cut-share';
-import type { Bottleneck, Fix, RunResult } from '../../shared/api/runs';
+import { cutShare } from '../../../shared/model/cut-share';
+import type { Bottleneck, Fix, RunResult } from '../../../shared/api/runs';
 
 /** A limiting road's share of the limit, as the workspace shows it. */
 export function shareOfLimit(result: RunResult, b: Bottleneck): number {

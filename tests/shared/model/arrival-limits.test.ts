@@ -1,8 +1,8 @@
 // The words for what holds arrivals down. The bound itself is checked against the engine in
 // tests/server/runs.test.ts (max-flow/min-cut on the time-expanded network).
 import { describe, expect, it } from 'vitest';
-import { arrivalLimitParts, arrivalLimitSummary } from '../../shared/api/arrival-limits';
-import type { ArrivalLimits } from '../../shared/api/runs';
+import { arrivalLimitParts, arrivalLimitSummary } from '../../../shared/model/arrival-limits';
+import type { ArrivalLimits } from '../../../shared/api/runs';
 
 const formats = { count: (n: number) => n.toLocaleString('en-US'), share: (s: number) => `${Math.round(s * 100)} %`, duration: (m: number) => `${m} min` };
 const limits = (parts: Partial<ArrivalLimits['parts']>): ArrivalLimits => {
