@@ -8,6 +8,7 @@ import {
   DimacsParseError,
   FlowInputError,
   MAX_FLOW_ALGORITHMS,
+  UNBOUNDED_CAPACITY,
   buildNetworkFromArrays,
   maxFlow,
   parseDimacsMaxFlow,
@@ -16,7 +17,12 @@ import {
 } from '../../shared/flow';
 
 const CHOICES: readonly string[] = ['auto', ...MAX_FLOW_ALGORITHMS];
-const USAGE = `usage: npm run --silent flow -- FILE [--algorithm ${CHOICES.join('|')}] [--verify] [--cut]`;
+const USAGE = [
+  `usage: npm run --silent flow -- FILE [--algorithm ${CHOICES.join('|')}] [--verify] [--cut]`,
+  'FILE: a DIMACS max-flow instance ("p max", "n … s|t", "a FROM TO CAPACITY").',
+  `Capacities are integers from 0 to ${UNBOUNDED_CAPACITY} (2^31 - 1, which stands for "no limit");`,
+  'a larger capacity is refused with its line number (vehicle counts never come near it).',
+].join('\n');
 
 async function main(): Promise<number> {
   let parsed;

@@ -9,6 +9,7 @@
 // raiseCapacity() adds capacity to one arc; both wake the tree nodes next to the change, and
 // the next maximise() continues from there. This is how the evacuation curve stays incremental.
 
+import { raisedResidual } from './capacity';
 import { FlowAbortedError } from './errors';
 import type { FlowNetwork } from './flow-network';
 import type { MaxFlowStats, SolveContext } from './solve-context';
@@ -297,7 +298,7 @@ export function createBoykovKolmogorov(
       }
     },
     raiseCapacity(r: number, amount: number): void {
-      residual[r]! += amount;
+      residual[r] = raisedResidual(residual, mate, r, amount);
       const tail = head[mate[r]!]!;
       if (tree[tail] !== FREE) activate(tail);
       if (tree[head[r]!] !== FREE) activate(head[r]!);

@@ -3,6 +3,8 @@
 // capacity of the arc it belongs to (arcs are never merged), so no per-arc overflow can occur as
 // long as every capacity is at most UNBOUNDED_CAPACITY.
 
+import { FlowInputError } from './errors';
+
 /**
  * Capacity that stands for "no limit": 2^31 − 1 vehicles, the largest value an Int32Array holds.
  * A maximum flow whose minimum cut contains an arc of this capacity is reported as unbounded.
@@ -37,4 +39,15 @@ export function ceilWithTolerance(x: number): number {
 /** True when x is an integer capacity the engine accepts: 0 ≤ x ≤ UNBOUNDED_CAPACITY. */
 export function isValidCapacity(x: number): boolean {
   return Number.isInteger(x) && x >= 0 && x <= UNBOUNDED_CAPACITY;
+}
+
+/**
+ * Residual capacity of residual arc r after its arc gains `amount`: the pair's residuals sum to
+ * the arc's capacity, so the raise stops where that capacity reaches UNBOUNDED_CAPACITY (an arc
+ * raised that far has no limit, like any other arc of that capacity) and never wraps the Int32.
+ */
+export function raisedResidual(residual: Int32Array, mate: Int32Array, r: number, amount: number): number {
+  if (!Number.isInteger(amount) || amount < 0) throw new FlowInputError(`a capacity can only grow by a non-negative integer, got ${amount}`);
+  const ceiling = UNBOUNDED_CAPACITY - residual[mate[r]!]!;
+  return Math.min(residual[r]! + amount, ceiling);
 }

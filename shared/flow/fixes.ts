@@ -3,7 +3,7 @@
 // whose reopening could help, the gain from reopening it. Each what-if augments from the current
 // maximum flow (only paths through the changed road can appear) and is then undone.
 
-import { floorCapacity } from './capacity';
+import { floorCapacity, raisedResidual } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';
 import { FlowAbortedError } from './errors';
 import { copyFlowState, netOutflow } from './flow-state';
@@ -77,7 +77,8 @@ export function rankFixes(
   } else {
     chosen.forEach((candidate, k) => {
       const work = copyFlowState(result.state);
-      work.residual[network.residualOfArc[candidate.road]!]! += candidate.addedVehPerHour;
+      const r = network.residualOfArc[candidate.road]!;
+      work.residual[r] = raisedResidual(work.residual, network.mate, r, candidate.addedVehPerHour);
       maximiseInPlace(network, source, sink, work, { algorithm: options.algorithm, shouldAbort: options.shouldAbort });
       // Road arcs never touch the super source, so its net outflow still reads correctly.
       fixes.push({ ...candidate, gainVehPerHour: netOutflow(network, work, source) - base });

@@ -14,6 +14,7 @@
 // Capacities that only grow keep the trees valid, so the solver can be resumed after more nodes
 // become visible (the next horizon) or after an arc gains capacity (a what-if run).
 
+import { raisedResidual } from './capacity';
 import { FlowAbortedError } from './errors';
 import type { FlowNetwork } from './flow-network';
 import type { MaxFlowStats, SolveContext } from './solve-context';
@@ -210,7 +211,9 @@ export function createIncrementalBfs(
       const pu = parent[u]!;
       if (pu === NO_PARENT || pu === ORPHAN) continue; // an unrepaired orphan is no reference
       if (pu >= 0 && (fromSource ? head[mate[pu]!]! : head[pu]!) === v) {
-        children[childCount++] = u;
+        // A child is listed once, at its own parent arc: parallel arcs repeat the neighbour, and
+        // a list sized by node count must never receive more entries than there are nodes.
+        if (pu === (fromSource ? r : mate[r]!)) children[childCount++] = u;
         continue;
       }
       const link = fromSource ? mate[r]! : r;
@@ -232,18 +235,14 @@ export function createIncrementalBfs(
       label[v] = next;
       for (let k = 0; k < childCount; k++) {
         const c = children[k]!;
-        // Parallel arcs list a child twice; queueing it twice would corrupt its bucket list.
-        if (label[c]! <= next && parent[c] !== ORPHAN) addOrphan(c);
+        if (label[c]! <= next) addOrphan(c);
       }
       addOrphan(v);
       return;
     }
     // Nothing of this tree leads into v any more: v becomes free; neighbours that could reach it
     // later are woken so the tree can grow back into it.
-    for (let k = 0; k < childCount; k++) {
-      const c = children[k]!;
-      if (parent[c] !== ORPHAN) addOrphan(c);
-    }
+    for (let k = 0; k < childCount; k++) addOrphan(children[k]!);
     tree[v] = FREE;
     parent[v] = NO_PARENT;
     for (let r = start; r < end; r++) {
@@ -355,7 +354,7 @@ export function createIncrementalBfs(
       }
     },
     raiseCapacity(r: number, amount: number): void {
-      residual[r]! += amount;
+      residual[r] = raisedResidual(residual, mate, r, amount);
       const tail = head[mate[r]!]!;
       if (tree[tail] !== FREE) activate(tail);
       if (tree[head[r]!] !== FREE) activate(head[r]!);

@@ -48,4 +48,21 @@ describe('maximum flow against the glpk.js linear program', () => {
       { numRuns: 150, seed: 7 },
     );
   });
+
+  it('matches with bundles of at least n parallel and antiparallel arcs, shuffled', () => {
+    // A node may then have more residual arcs to one child than the graph has nodes (an
+    // incremental-BFS repair once dropped children past that count and never finished).
+    fc.assert(
+      fc.property(randomGraph({ maxNodes: 10, maxArcs: 25, maxCapacity: 4, bundles: 2 }), (graph) => {
+        const network = buildNetwork(graph.nodeCount, graph.arcs);
+        const lp = solveFlowLp(glpk, graph.nodeCount, graph.arcs, graph.source, graph.sink);
+        for (const algorithm of MAX_FLOW_ALGORITHMS) {
+          const result = maxFlow(network, graph.source, graph.sink, { algorithm });
+          expect(result.value).toBe(Math.round(lp.value));
+          expect(verify(network, result).problems).toEqual([]);
+        }
+      }),
+      { numRuns: 300, seed: 1411 },
+    );
+  }, 120_000);
 });

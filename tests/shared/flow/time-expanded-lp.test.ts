@@ -30,7 +30,7 @@ describe('time-expanded evacuation model against glpk.js', () => {
       }),
       { numRuns: 200, seed: 1982 },
     );
-  });
+  }, 120_000);
 
   it('gives the same curve with every algorithm (incremental trees and warm restarts alike)', () => {
     fc.assert(
@@ -49,5 +49,5 @@ describe('time-expanded evacuation model against glpk.js', () => {
       }),
       { numRuns: 120, seed: 2011 },
     );
-  });
+  }, 120_000);
 });
