@@ -13,7 +13,7 @@ import type { Config } from './config';
 import type { Database } from './db/client';
 import { configurePassport } from './auth/passport';
 import { createSessionStore } from './auth/session-store';
-import { configureAuthUserCache } from './auth/auth-user-cache';
+import { configureAuthUserCache } from './services/auth-user-cache';
 import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';

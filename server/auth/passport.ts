@@ -6,8 +6,8 @@ import type { Database } from '../db/client';
 import type { Config } from '../config';
 import { findUserForSignIn, loadAuthUser } from '../services/users';
 import { recordFailedSignIn, clearFailedSignIns } from '../services/sign-in-lockout';
-import { unknownUserHash, verifyPassword } from './password';
-import { cachedAuthUser } from './auth-user-cache';
+import { unknownUserHash, verifyPassword } from '../services/password';
+import { cachedAuthUser } from '../services/auth-user-cache';
 
 /** Why a sign-in was refused, for the route's message: locked accounts say until when. */
 export type SignInRefusal = { message: 'locked' | 'refused'; lockedUntil?: Date };

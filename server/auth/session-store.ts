@@ -8,7 +8,7 @@
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import type pg from 'pg';
-import { createRecentCache } from './recent-cache';
+import { createRecentCache } from '../services/recent-cache';
 
 export function createSessionStore(pool: pg.Pool, touchIntervalMs = 60_000, readCacheMs = 0): session.Store {
   const PgStore = connectPgSimple(session);

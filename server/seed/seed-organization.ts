@@ -4,7 +4,7 @@ import { eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { memberships, organizations, users } from '../db/schema';
 import type { Role } from '../../shared/api/roles';
-import { hashPassword, verifyPassword } from '../auth/password';
+import { hashPassword, verifyPassword } from '../services/password';
 
 export type SeedAccount = { role: Role; email: string; displayName: string; password: string };
 

@@ -5,8 +5,8 @@ import { memberships, organizations, users } from '../db/schema';
 import type { Member, MemberCreate } from '../../shared/api/users';
 import type { Role } from '../../shared/api/roles';
 import { ConflictError, NotFoundError } from '../errors';
-import { hashPassword } from '../auth/password';
-import { forgetAuthUser } from '../auth/auth-user-cache';
+import { hashPassword } from './password';
+import { forgetAuthUser } from './auth-user-cache';
 import { recordAudit, type Actor } from './audit';
 import { limitPlusOne, type Page } from '../../shared/api/pagination';
 

@@ -1,6 +1,6 @@
 // The time-limited map behind the session and user caches.
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { createRecentCache } from '../../server/auth/recent-cache';
+import { createRecentCache } from '../../server/services/recent-cache';
 
 afterEach(() => vi.useRealTimers());
 
