@@ -9,6 +9,8 @@ CUTLINE_PG_FAST=1 docker-free-scripts/pg-start.sh
 export CUTLINE_TEST_DATABASE_BASE_URL="$(database_url '')"
 say "auditing the shipped dependencies"
 docker-free-scripts/audit.sh
+say "checking the dependency rules (.dependency-cruiser.cjs)"
+npm run --silent lint:deps
 say "type-checking"
 npx vue-tsc --build --force
 say "building the client"

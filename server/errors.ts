@@ -1,5 +1,7 @@
 // Errors a service may throw; the error handler turns each into its HTTP status and envelope.
-import type { ErrorCode } from '../shared/api/errors';
+import type { ZodError } from 'zod';
+import type { ErrorCode, FieldError } from '../shared/api/errors';
+import { issueMessage } from '../shared/api/issue-message';
 import type { ImportFailure } from '../shared/api/road-attributes';
 
 export class HttpError extends Error {
@@ -48,4 +50,12 @@ export class ImportRefusedError extends HttpError {
   constructor(failure: ImportFailure) {
     super(400, 'invalid_request', failure.message, undefined, failure);
   }
+}
+
+/** A zod error's issues as the envelope's field errors (path joined with dots). */
+export function zodFields(error: ZodError): FieldError[] {
+  return error.issues.map((issue) => ({
+    path: issue.path.map(String).join('.') || '(body)',
+    message: issueMessage(issue),
+  }));
 }

@@ -3,15 +3,7 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { ErrorEnvelope, FieldError } from '../../shared/api/errors';
-import { issueMessage } from '../../shared/api/issue-message';
-import { HttpError } from '../errors';
-
-export function zodFields(error: ZodError): FieldError[] {
-  return error.issues.map((issue) => ({
-    path: issue.path.map(String).join('.') || '(body)',
-    message: issueMessage(issue),
-  }));
-}
+import { HttpError, zodFields } from '../errors';
 
 function envelope(
   code: ErrorEnvelope['error']['code'],

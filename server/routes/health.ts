@@ -2,6 +2,7 @@
 // not shutting down (so a load balancer stops sending it requests first).
 import { Router } from 'express';
 import type pg from 'pg';
+import { readinessChecks } from '../services/readiness';
 
 export function healthRouter(pool: pg.Pool, log: (err: unknown) => void, isStopping: () => boolean = () => false): Router {
   const router = Router();
@@ -13,19 +14,7 @@ export function healthRouter(pool: pg.Pool, log: (err: unknown) => void, isStopp
       res.status(503).json({ status: 'stopping', checks: {} });
       return;
     }
-    const checks: Record<string, string> = {};
-    try {
-      await pool.query('SELECT 1');
-      checks.database = 'ok';
-      // pg-boss keeps its tables in the pgboss schema; the queue is reachable when they are.
-      const { rows } = await pool.query("SELECT to_regclass('pgboss.job') IS NOT NULL AS ok");
-      checks.queue = rows[0]?.ok ? 'ok' : 'not initialised';
-    } catch (e) {
-      // The cause goes to the log; an unauthenticated probe learns no addresses or names.
-      log(e);
-      checks.database ??= 'unreachable';
-      checks.queue ??= 'unknown';
-    }
+    const checks = await readinessChecks(pool, log);
     const ready = Object.values(checks).every((v) => v === 'ok');
     res.status(ready ? 200 : 503).json({ status: ready ? 'ready' : 'not ready', checks });
   });

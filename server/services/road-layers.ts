@@ -7,8 +7,7 @@ import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, ty
 import type { RoadLayer, Segment, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
 import type { RoadNetwork } from '../../shared/geo/build-road-graph';
 import type { z } from 'zod';
-import { BadRequestError, NotFoundError } from '../errors';
-import { zodFields } from '../middleware/error-handler';
+import { BadRequestError, NotFoundError, zodFields } from '../errors';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization, bumpDataVersion } from './plan-access';
 

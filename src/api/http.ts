@@ -1,21 +1,10 @@
 // The one way the client talks to the server: JSON over fetch, the CSRF header on every change,
 // responses parsed with the shared zod schemas, failures turned into ApiError.
 import type { z } from 'zod';
-import { errorEnvelopeSchema, type ErrorCode, type FieldError } from '@shared/api/errors';
-import type { ImportFailure } from '@shared/api/road-attributes';
+import { errorEnvelopeSchema } from '@shared/api/errors';
+import { ApiError } from './api-error';
 
-export class ApiError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: ErrorCode,
-    message: string,
-    readonly fields: FieldError[] = [],
-    // A refused upload names every bad feature, so the planner can fix the file.
-    readonly importFailure: ImportFailure | null = null,
-  ) {
-    super(message);
-  }
-}
+export { ApiError };
 
 let csrfToken = '';
 export function setCsrfToken(token: string) {

@@ -11,7 +11,7 @@ import { getRoadLayer } from '@/api/road-layers';
 import { listZones } from '@/api/zones';
 import { listShelters } from '@/api/shelters';
 import { getRun, listRuns } from '@/api/runs';
-import { ApiError } from '@/api/http';
+import { ApiError } from '@/api/api-error';
 import { emptyOverlay, validateOverlay } from '@/forms/scenario-overlay';
 import type { FieldErrors } from '@/forms/zod-errors';
 import { runIsActive } from '@/format/run-result';

@@ -8,7 +8,7 @@ import type { Shelter } from '@shared/api/zones-shelters';
 import { L } from '@/map/leaflet';
 import { bearingDegrees } from '@/map/compass';
 import { dominantChange, pickedRoadRing, scenarioCasing, scenarioChangeLooks } from '@/map/scenario-style';
-import { changesBySegment } from '@/forms/scenario-overlay';
+import { changesBySegment } from '@/map/scenario-style';
 import type { WorkspaceMap } from './use-leaflet-map';
 
 type Coordinates = [number, number][];

@@ -1,5 +1,5 @@
 // One sentence for any failure, as the panels show it.
-import { ApiError } from '@/api/http';
+import { ApiError } from '@/api/api-error';
 
 export function messageOf(e: unknown): string {
   if (e instanceof ApiError) return e.message;

@@ -87,18 +87,6 @@ export function validateOverlay(overlay: ScenarioOverlay): { ok: true; value: Sc
   return parseForm(scenarioOverlaySchema, overlay);
 }
 
-export type SegmentChange = 'closed' | 'lanes' | 'corridor';
-
-/** What the scenario does to each road it touches, for the map. */
-export function changesBySegment(overlay: ScenarioOverlay): Map<number, SegmentChange[]> {
-  const out = new Map<number, SegmentChange[]>();
-  const add = (id: number, change: SegmentChange) => out.set(id, [...(out.get(id) ?? []), change]);
-  for (const c of overlay.closures) add(c.segmentId, 'closed');
-  for (const l of overlay.laneChanges) add(l.segmentId, 'lanes');
-  for (const c of overlay.contraflow) for (const id of c.segmentIds) add(id, 'corridor');
-  return out;
-}
-
 /** When a closure holds, in words: "closed throughout", "closed from 3 h", "closed until 1 h". */
 export function closureText(c: { fromMinutes: number; untilMinutes: number | null }): string {
   if (c.fromMinutes === 0 && c.untilMinutes === null) return 'closed throughout';

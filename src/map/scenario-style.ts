@@ -2,7 +2,19 @@
 // changes blue, contraflow corridors teal with an arrow for the direction served; each over a
 // white casing so it reads on any road colour. Pure: path options only.
 import type { LineStyle } from './road-style';
-import type { SegmentChange } from '@/forms/scenario-overlay';
+import type { ScenarioOverlay } from '@shared/api/scenarios';
+
+export type SegmentChange = 'closed' | 'lanes' | 'corridor';
+
+/** What the scenario does to each road it touches, for the map. */
+export function changesBySegment(overlay: ScenarioOverlay): Map<number, SegmentChange[]> {
+  const out = new Map<number, SegmentChange[]>();
+  const add = (id: number, change: SegmentChange) => out.set(id, [...(out.get(id) ?? []), change]);
+  for (const c of overlay.closures) add(c.segmentId, 'closed');
+  for (const l of overlay.laneChanges) add(l.segmentId, 'lanes');
+  for (const c of overlay.contraflow) for (const id of c.segmentIds) add(id, 'corridor');
+  return out;
+}
 
 export const scenarioChangeLooks: Record<SegmentChange, { label: string; line: LineStyle }> = {
   closed: { label: 'Closed in this scenario', line: { color: '#8e0000', weight: 7, opacity: 1, dashArray: '10 5', lineCap: 'butt' } },

@@ -7,7 +7,7 @@ import type { CapacityTable, ImportFailure, SegmentAttributesPatch } from '@shar
 import type { RoadLayer, Segment } from '@shared/api/road-layers';
 import * as roadApi from '@/api/road-layers';
 import { getCapacityTable } from '@/api/capacity-table';
-import { ApiError } from '@/api/http';
+import { ApiError } from '@/api/api-error';
 import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
 import { useZonesSheltersStore } from './zones-shelters';

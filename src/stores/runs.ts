@@ -5,7 +5,7 @@ import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
 import type { Run, RunWithResult } from '@shared/api/runs';
 import * as runsApi from '@/api/runs';
-import { ApiError } from '@/api/http';
+import { ApiError } from '@/api/api-error';
 import { defaultParameterValues, validateRunParameters, type RunParameterValues } from '@/forms/run-parameters';
 import type { FieldErrors } from '@/forms/zod-errors';
 import { runIsActive } from '@/format/run-result';

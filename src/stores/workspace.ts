@@ -6,7 +6,7 @@ import { computed, ref } from 'vue';
 import type { Plan } from '@shared/api/plans';
 import type { ZoneGeometry } from '@shared/api/zones-shelters';
 import { getPlan } from '@/api/plans';
-import { ApiError } from '@/api/http';
+import { ApiError } from '@/api/api-error';
 import type { Bbox } from '@/map/viewport';
 import { messageOf } from '../format/error-message';
 import { useRoadLayerStore } from './road-layer';

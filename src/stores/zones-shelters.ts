@@ -5,7 +5,7 @@ import { ref } from 'vue';
 import type { Attachments, Shelter, ShelterCreate, ShelterUpdate, Zone, ZoneCreate, ZoneUpdate } from '@shared/api/zones-shelters';
 import * as zonesApi from '@/api/zones';
 import * as sheltersApi from '@/api/shelters';
-import { ApiError } from '@/api/http';
+import { ApiError } from '@/api/api-error';
 import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
 

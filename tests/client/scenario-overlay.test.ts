@@ -3,7 +3,6 @@
 import { describe, expect, it } from 'vitest';
 import {
   addShelter,
-  changesBySegment,
   closureText,
   emptyOverlay,
   nextCorridorName,
@@ -19,7 +18,7 @@ import {
   toggleRemovedShelter,
   validateOverlay,
 } from '../../src/forms/scenario-overlay';
-import { dominantChange } from '../../src/map/scenario-style';
+import { changesBySegment, dominantChange } from '../../src/map/scenario-style';
 
 describe('closures', () => {
   it('closes a road from the start and reopens it on a second toggle, leaving the input alone', () => {

@@ -25,7 +25,7 @@
 //     FOR EACH ROW WHEN (OLD.kind = 'signed') EXECUTE FUNCTION briefing_files_keep_signed();
 import { sql } from 'drizzle-orm';
 import { bigserial, check, customType, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
-import type { StoredBriefingContent } from '../../services/briefings/content-fingerprint';
+import type { StoredBriefingContent } from './briefing-content';
 import { timestamps } from './columns';
 import { organizations, users } from './organizations';
 import { plans } from './plans';

@@ -11,9 +11,11 @@
 // file is stored and shown by the verification page, which can also recompute the content hash
 // from the stored content and compare it with the one read back from the file's metadata.
 import { createHash } from 'node:crypto';
+import { BRIEFING_CONTENT_FORMAT, type StoredBriefingContent } from '../../db/schema/briefing-content';
 import type { BriefingInput } from './briefing-input';
 
-export const CONTENT_FORMAT = 'cutline-briefing-content/1';
+export type { StoredBriefingContent };
+export const CONTENT_FORMAT = BRIEFING_CONTENT_FORMAT;
 
 export type BriefingContent = {
   format: typeof CONTENT_FORMAT;
@@ -62,9 +64,6 @@ export function sha256Hex(data: string | Uint8Array): string {
 export function contentSha256(input: BriefingInput): string {
   return sha256Hex(canonicalJson(briefingContent(input)));
 }
-
-/** The content as JSON (Dates as ISO strings): what the database keeps. */
-export type StoredBriefingContent = Record<string, unknown> & { format: typeof CONTENT_FORMAT; briefingId: string };
 
 export function storedBriefingContent(input: BriefingInput): StoredBriefingContent {
   return JSON.parse(canonicalJson(briefingContent(input))) as StoredBriefingContent;
