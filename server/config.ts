@@ -34,6 +34,12 @@ const configSchema = z.object({
   RUNS_IN_FLIGHT_PER_ORGANIZATION: z.coerce.number().int().min(1).default(40),
   // The public signature check reads whole PDFs for anyone: so many a minute per address.
   VERIFY_PER_MINUTE: z.coerce.number().int().min(1).default(30),
+  // Each check runs in a worker thread (server/services/briefings/signing/verify-in-worker.ts): the time
+  // it may take once started, its heap, threads per process, and checks that may wait for one.
+  VERIFY_TIME_BUDGET_MILLISECONDS: z.coerce.number().int().min(1).default(1500),
+  VERIFY_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(16).default(256),
+  VERIFY_THREADS: z.coerce.number().int().min(1).max(16).default(1),
+  VERIFY_QUEUE: z.coerce.number().int().min(0).default(8),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),

@@ -49,7 +49,7 @@ export function briefingsRouter(db: Database, config: Config): Router {
   });
   router.post('/verify', verifyLimiter, upload, async (req, res) => {
     const viewerOrganization = req.isAuthenticated() ? (currentMembership(req)?.organizationId ?? null) : null;
-    res.json(await verifyUpload(db, req.file!.buffer, viewerOrganization));
+    res.json(await verifyUpload(db, config, req.file!.buffer, viewerOrganization));
   });
 
   router.get('/officials', requireMember('plans:write'), async (req, res) => {

@@ -6,12 +6,23 @@
 import { eq } from 'drizzle-orm';
 import type { Database } from '../../db/client';
 import { briefingFiles, briefings, organizationSigningKeys, organizations, plans } from '../../db/schema';
-import { verifyPdf } from './signing/verify-pdf';
+import { verifyInWorker, type VerifierBudget } from './signing/verify-in-worker';
+import type { Config } from '../../config';
 import type { Verification } from '../../../shared/api/briefings';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-export async function verifyUpload(db: Database, pdf: Buffer, viewerOrganizationId: string | null): Promise<Verification> {
+export function verifierBudget(config: Config): VerifierBudget {
+  return {
+    timeMilliseconds: config.VERIFY_TIME_BUDGET_MILLISECONDS,
+    memoryMegabytes: config.VERIFY_MEMORY_BUDGET_MEGABYTES,
+    threads: config.VERIFY_THREADS,
+    queue: config.VERIFY_QUEUE,
+  };
+}
+
+/** Anyone may upload here: the file is read in a worker thread with a time and memory budget. */
+export async function verifyUpload(db: Database, config: Config, pdf: Buffer, viewerOrganizationId: string | null): Promise<Verification> {
   // Retired keys too: briefings they signed must still verify.
   const keys = await db
     .select({
@@ -24,7 +35,7 @@ export async function verifyUpload(db: Database, pdf: Buffer, viewerOrganization
     })
     .from(organizationSigningKeys)
     .innerJoin(organizations, eq(organizations.id, organizationSigningKeys.organizationId));
-  const v = verifyPdf(pdf, keys.map((k) => k.pem));
+  const v = await verifyInWorker(pdf, keys.map((k) => k.pem), verifierBudget(config));
   const key = keys.find((k) => k.fingerprint === v.signer.certificateFingerprintSha256) ?? null;
   const problems = [...v.problems];
 

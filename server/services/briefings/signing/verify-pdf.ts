@@ -8,7 +8,7 @@
 import { createHash, verify as cryptoVerify, X509Certificate } from 'node:crypto';
 import forge from 'node-forge';
 import { INFO_KEYS } from '../briefing-document';
-import { dictOf, openPdf, pdfDate, pdfText, PdfReadError, resolve, type PdfDocument, type PdfValue } from './pdf-objects';
+import { dictOf, openPdf, pdfDate, pdfText, PdfReadError, PdfTooComplexError, resolve, type PdfDocument, type PdfValue } from './pdf-objects';
 
 export type PdfVerification = {
   /** Every check below passed. */
@@ -63,31 +63,50 @@ function fingerprintOfPem(pem: string): string {
 
 type SignatureDictionary = { dict: Map<string, PdfValue> };
 
+/** Form fields looked at, at most: a briefing has one; a form that is larger is not one of ours. */
+const MAX_FIELDS = 1000;
+
 /** Signature dictionaries: the values of the AcroForm's signature fields, else any /Type /Sig object. */
 function signatureDictionaries(doc: PdfDocument): SignatureDictionary[] {
   const found: SignatureDictionary[] = [];
-  const root = dictOf(resolve(doc, doc.trailer.get('Root')));
-  const form = dictOf(resolve(doc, root?.get('AcroForm')));
-  const fields = resolve(doc, form?.get('Fields'));
-  const visit = (v: PdfValue | undefined, depth: number) => {
-    const field = dictOf(resolve(doc, v));
-    if (!field || depth > 4) return;
-    const ft = field.get('FT');
-    const value = dictOf(resolve(doc, field.get('V')));
-    if (ft?.kind === 'name' && ft.value === 'Sig' && value?.has('ByteRange')) found.push({ dict: value });
-    const kids = resolve(doc, field.get('Kids'));
-    if (kids?.kind === 'array') kids.items.forEach((k) => visit(k, depth + 1));
+  const tolerant = <T>(read: () => T, otherwise: T): T => {
+    try {
+      return read();
+    } catch (err) {
+      // A malformed part is no signature; a file that needs too much work is refused whole.
+      if (err instanceof PdfTooComplexError) throw err;
+      return otherwise;
+    }
   };
-  if (fields?.kind === 'array') fields.items.forEach((f) => visit(f, 0));
+  const root = tolerant(() => dictOf(resolve(doc, doc.trailer.get('Root'))), null);
+  const form = tolerant(() => dictOf(resolve(doc, root?.get('AcroForm'))), null);
+  const fields = tolerant(() => resolve(doc, form?.get('Fields')), null);
+  // The field tree may name the same object twice or itself among its kids: each object is
+  // visited once, and the walk stops after MAX_FIELDS fields however the tree is shaped.
+  const visited = new Set<number>();
+  let budget = MAX_FIELDS;
+  const visit = (v: PdfValue | undefined, depth: number) => {
+    if (depth > 4 || budget <= 0 || !v) return;
+    if (v.kind === 'ref') {
+      if (visited.has(v.num)) return;
+      visited.add(v.num);
+    }
+    budget--;
+    const field = tolerant(() => dictOf(resolve(doc, v)), null);
+    if (!field) return;
+    const ft = field.get('FT');
+    const value = tolerant(() => dictOf(resolve(doc, field.get('V'))), null);
+    if (ft?.kind === 'name' && ft.value === 'Sig' && value?.has('ByteRange')) found.push({ dict: value });
+    const kids = tolerant(() => resolve(doc, field.get('Kids')), null);
+    if (kids?.kind === 'array') for (const k of kids.items) visit(k, depth + 1);
+  };
+  if (fields?.kind === 'array') for (const f of fields.items) visit(f, 0);
   if (found.length > 0) return found;
   for (const num of doc.offsets.keys()) {
-    try {
-      const d = dictOf(resolve(doc, { kind: 'ref', num, gen: 0 }));
-      const type = d?.get('Type');
-      if (d?.has('ByteRange') && d.has('Contents') && type?.kind === 'name' && type.value === 'Sig') found.push({ dict: d });
-    } catch {
-      // An object this reader cannot parse (e.g. a stream) is not a signature dictionary.
-    }
+    // An object this reader cannot parse (e.g. a stream) is not a signature dictionary.
+    const d = tolerant(() => dictOf(resolve(doc, { kind: 'ref', num, gen: 0 })), null);
+    const type = d?.get('Type');
+    if (d?.has('ByteRange') && d.has('Contents') && type?.kind === 'name' && type.value === 'Sig') found.push({ dict: d });
   }
   return found;
 }
@@ -203,11 +222,18 @@ function checkCms(cmsBytes: Buffer, signedData: Buffer): CmsCheck {
 }
 
 function infoOf(doc: PdfDocument) {
-  const info = dictOf(resolve(doc, doc.trailer.get('Info')));
+  let info: Map<string, PdfValue> | null = null;
+  try {
+    info = dictOf(resolve(doc, doc.trailer.get('Info')));
+  } catch (err) {
+    // A malformed Info object only means the file does not say which briefing it is.
+    if (err instanceof PdfTooComplexError) throw err;
+  }
   const text = (key: string) => {
     try {
       return pdfText(resolve(doc, info?.get(key)) ?? undefined);
-    } catch {
+    } catch (err) {
+      if (err instanceof PdfTooComplexError) throw err;
       return null;
     }
   };
@@ -231,9 +257,27 @@ function infoOf(doc: PdfDocument) {
  *   (retired ones too, so that older briefings still verify)
  */
 export function verifyPdf(pdf: Buffer, organizationCertificates: string[]): PdfVerification {
-  const result: PdfVerification = {
+  const fileSha256 = createHash('sha256').update(pdf).digest('hex');
+  try {
+    return check(pdf, fileSha256, organizationCertificates);
+  } catch (err) {
+    // Whatever the file does to the reader, the answer is "not valid" with a reason, never a crash.
+    const result = emptyResult(fileSha256);
+    result.problems.push(
+      err instanceof PdfTooComplexError
+        ? 'This file is too complex for the check: it is not a briefing this check can confirm.'
+        : err instanceof PdfReadError
+          ? `This is not a readable PDF file (${err.message}).`
+          : 'This is not a readable PDF file.',
+    );
+    return result;
+  }
+}
+
+function emptyResult(fileSha256: string): PdfVerification {
+  return {
     valid: false,
-    fileSha256: createHash('sha256').update(pdf).digest('hex'),
+    fileSha256,
     signaturePresent: false,
     signatureCount: 0,
     coversWholeFile: false,
@@ -247,11 +291,15 @@ export function verifyPdf(pdf: Buffer, organizationCertificates: string[]): PdfV
     briefing: { id: null, version: null, contentSha256: null, status: null, organization: null },
     problems: [],
   };
+}
 
+function check(pdf: Buffer, fileSha256: string, organizationCertificates: string[]): PdfVerification {
+  const result = emptyResult(fileSha256);
   let doc: PdfDocument;
   try {
     doc = openPdf(pdf);
   } catch (err) {
+    if (err instanceof PdfTooComplexError) throw err;
     result.problems.push(err instanceof PdfReadError ? `This is not a readable PDF file (${err.message}).` : 'This is not a readable PDF file.');
     return result;
   }

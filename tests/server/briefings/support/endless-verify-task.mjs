@@ -1,0 +1,5 @@
+// A stand-in for the verifier's task that never finishes, to show the time budget stops it.
+export default function endless({ started }) {
+  started?.postMessage('started');
+  for (;;);
+}
