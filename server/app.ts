@@ -28,7 +28,7 @@ import { zonesSheltersRouter } from './routes/zones-shelters';
 import { settingsRouter } from './routes/settings';
 import { createSettings } from './services/settings';
 import { runsRouter } from './routes/runs';
-import type { RunEnqueuer } from './routes/runs';
+import type { RunEnqueuer } from './queue/run-enqueuer';
 import { healthRouter } from './routes/health';
 import { randomUUID } from 'node:crypto';
 import { pinoHttp } from 'pino-http';

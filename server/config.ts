@@ -52,6 +52,11 @@ const configSchema = z.object({
   // A job still active this long after its time budget belongs to a dead worker and is retried.
   RUN_EXPIRY_SLACK_SECONDS: z.coerce.number().int().min(1).default(30),
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
+  // A briefing PDF is laid out in a worker thread within these (server/briefings/render-in-worker.ts).
+  BRIEFING_RENDER_SECONDS: z.coerce.number().positive().default(120),
+  BRIEFING_RENDER_MEGABYTES: z.coerce.number().int().min(32).default(1024),
+  // How often each worker looks for runs with no live job (server/queue/run-reconciler.ts).
+  RUN_RECONCILE_SECONDS: z.coerce.number().int().min(1).default(60),
   // A worker's CPU priority (Unix niceness, 0 to 19): where workers share a machine with the API,
   // people's requests come first and solves take the time left. 0 on a machine of their own.
   WORKER_NICENESS: z.coerce.number().int().min(0).max(19).default(10),

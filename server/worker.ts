@@ -4,6 +4,7 @@ import { hostname } from 'node:os';
 import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { startRunQueue } from './queue/run-queue';
+import { startRunReconciler } from './queue/run-reconciler';
 import { createRunExecutor } from './run-execution/run-executor';
 import { lowerProcessPriority } from './run-execution/lower-priority';
 
@@ -11,12 +12,15 @@ const config = loadConfig();
 if (config.WORKER_NICENESS > 0) lowerProcessPriority(config.WORKER_NICENESS);
 const { db, pool } = createDatabase(config.DATABASE_URL);
 const queue = await startRunQueue(config);
-const executor = createRunExecutor(db, config, (e) => console.error('[worker]', e));
-await queue.work(config.WORKER_CONCURRENCY, async ({ runId }) => {
-  console.log(`[worker] pid ${process.pid} took run ${runId}`);
-  await executor.execute(runId);
-  console.log(`[worker] pid ${process.pid} finished run ${runId}`);
+const log = (e: unknown) => console.error('[worker]', e);
+const executor = createRunExecutor(db, config, log, queue);
+await queue.work(config.WORKER_CONCURRENCY, async (job) => {
+  const what = 'runId' in job ? `run ${job.runId}` : `sweep ${job.batchId}`;
+  console.log(`[worker] pid ${process.pid} took ${what}`);
+  await executor.execute(job);
+  console.log(`[worker] pid ${process.pid} finished ${what}`);
 });
+const reconciler = startRunReconciler(db, queue, config.RUN_RECONCILE_SECONDS, log);
 console.log(`[worker] ${hostname()} pid ${process.pid}: taking runs from the queue (${config.WORKER_CONCURRENCY} at a time)`);
 
 let stopping = false;
@@ -28,6 +32,7 @@ async function shutdown(signal: string) {
   stopping = true;
   const grace = config.WORKER_SHUTDOWN_GRACE_SECONDS;
   console.log(`[worker] pid ${process.pid} ${signal}: taking no new runs; ${executor.activeCount()} in hand, waiting up to ${grace} s`);
+  reconciler.stop();
   await queue.stopTaking();
   if (!(await executor.drain(grace * 1000))) {
     for (const runId of executor.interruptAll()) console.log(`[worker] pid ${process.pid} returned run ${runId} to the queue`);

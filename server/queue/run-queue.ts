@@ -3,9 +3,9 @@
 // expires and is retried by another.
 import PgBoss from 'pg-boss';
 import type { Config } from '../config';
+import { jobKey, type QueueSql, type RunEnqueuer, type RunJob } from './run-enqueuer';
 
 export const RUN_QUEUE = 'runs';
-export type RunJob = { runId: string };
 
 export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_TIME_BUDGET_SECONDS' | 'QUEUE_MAINTENANCE_SECONDS' | 'RUN_EXPIRY_SLACK_SECONDS'>) {
   const boss = new PgBoss({
@@ -35,16 +35,18 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
 
   return {
     boss,
-    async enqueue(runId: string): Promise<void> {
-      const id = await boss.send(RUN_QUEUE, { runId } satisfies RunJob, {
-        singletonKey: runId,
+    async enqueue(job: RunJob, within: QueueSql): Promise<void> {
+      const id = await boss.send(RUN_QUEUE, job, {
+        // The caller's transaction: the job exists exactly when the run rows that need it do.
+        db: within,
+        singletonKey: jobKey(job),
         // Retries follow a worker's death or shutdown, never a solve's own failure (that is final).
         retryLimit: 5,
         retryDelay: 1,
         // A job still active after the budget (plus slack) belongs to a dead worker: retry it.
         expireInSeconds: Math.ceil(config.RUN_TIME_BUDGET_SECONDS + config.RUN_EXPIRY_SLACK_SECONDS),
       });
-      if (id === null) throw new Error(`run ${runId} could not be queued`);
+      if (id === null) throw new Error(`${jobKey(job)} could not be queued`);
     },
     async work(concurrency: number, handler: (job: RunJob) => Promise<void>): Promise<void> {
       for (let i = 0; i < concurrency; i++) {
@@ -60,6 +62,6 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
     async stop(): Promise<void> {
       await boss.stop({ graceful: true, wait: true, timeout: 10_000 });
     },
-  };
+  } satisfies RunEnqueuer & Record<string, unknown>;
 }
 export type RunQueue = Awaited<ReturnType<typeof startRunQueue>>;

@@ -6,9 +6,9 @@ import { planParamsSchema } from '../../shared/api/road-layers';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { assertRunQuota } from '../services/run-quota';
-import { createBatch, getBatch, listBatches } from '../services/batches';
-import type { RunEnqueuer } from './runs';
+import { getBatch, listBatches } from '../services/batches';
+import { startRuns, sweepStart } from '../services/start-runs';
+import type { RunEnqueuer } from '../queue/run-enqueuer';
 import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from '../http/list-page';
 
@@ -18,10 +18,8 @@ export function batchesRouter(db: Database, config: Config, queue: RunEnqueuer):
   const router = Router({ mergeParams: true });
   router.post('/batches', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    const input = batchCreateSchema.parse(req.body);
-    await assertRunQuota(db, actorOf(req), input.sweep.values.length, config);
-    const id = await createBatch(db, actorOf(req), planId, input, config.RUN_MAX_EXPANDED_ARCS, queue.enqueue);
-    res.status(202).json(await getBatch(db, actorOf(req).organizationId, planId, id));
+    const { batchId } = await startRuns(db, queue, config, actorOf(req), planId, sweepStart(batchCreateSchema.parse(req.body)));
+    res.status(202).json(await getBatch(db, actorOf(req).organizationId, planId, batchId!));
   });
   router.get('/batches', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);

@@ -1,4 +1,4 @@
-// /api/plans/:planId/runs: start (202, solved in the background), list, poll, cancel, export.
+// /api/plans/:planId/runs: start (202: recorded and queued; prepared and solved by a worker), list, poll, cancel, export.
 import { Router } from 'express';
 import { z } from 'zod';
 import { runParametersSchema } from '../../shared/api/runs';
@@ -9,9 +9,9 @@ import type { Database } from '../db/client';
 import { ConflictError } from '../errors';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { arcsGeoJson } from '../services/run-exports';
-import { assertRunQuota } from '../services/run-quota';
-import { getScenario } from '../services/scenarios';
-import { createRun, getRunHead, getRunRow, isFinishedRun, listRuns, markCancelled, prepareRun, runWithResultJson, toRun } from '../services/runs';
+import { getRunHead, getRunRow, isFinishedRun, listRuns, markCancelled, runWithResultJson } from '../services/runs';
+import { startRuns } from '../services/start-runs';
+import type { RunEnqueuer } from '../queue/run-enqueuer';
 import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from '../http/list-page';
 import type { AnswerCache } from '../http/answer-cache';
@@ -19,21 +19,13 @@ import type { AnswerCache } from '../http/answer-cache';
 const runParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.'), runId: z.string().uuid('Not a valid identifier.') });
 const startRunSchema = z.object({ parameters: runParametersSchema, scenarioId: z.string().uuid('Not a valid identifier.').nullable().default(null) });
 
-export type RunEnqueuer = { enqueue: (runId: string) => Promise<void> };
-
 export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, answers: AnswerCache): Router {
   const router = Router({ mergeParams: true });
 
   router.post('/runs', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
-    const { parameters, scenarioId } = startRunSchema.parse(req.body);
-    const actor = actorOf(req);
-    await assertRunQuota(db, actor, 1, config);
-    const scenario = scenarioId ? await getScenario(db, actor.organizationId, planId, scenarioId) : null;
-    const prepared = await prepareRun(db, actor.organizationId, planId, parameters, config.RUN_MAX_EXPANDED_ARCS, scenario);
-    const { row, reused } = await createRun(db, actor, planId, parameters, prepared, scenarioId);
-    if (!reused) await queue.enqueue(row.id);
-    res.status(202).json(toRun(row));
+    const started = await startRuns(db, queue, config, actorOf(req), planId, startRunSchema.parse(req.body));
+    res.status(202).json(started.runs[0]);
   });
 
   router.get('/runs', requireMember('plans:read'), async (req, res) => {

@@ -1,16 +1,27 @@
-// Executes one queued run: loads its stored input, solves it in a worker thread within the
-// budget, writes progress (throttled) and the mapped result. Safe to call again for the same
-// run after a crash: a run that already finished is left alone, so no result is stored twice.
-import { and, eq, inArray } from 'drizzle-orm';
+// Executes one job of the run queue. A run: prepares it if it has no stored input yet
+// (prepare-runs.ts: snapshot, problem, hash, or an identical result reused), then solves it in a
+// worker thread within the budget, writing progress (throttled) and the mapped result. A sweep:
+// prepares all its runs from one snapshot and queues each for its solve. Safe to call again for
+// the same job after a crash: a run that already finished is left alone, so no result is stored
+// twice.
+import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { runInputs, runs } from '../db/schema';
 import type { Config } from '../config';
+import { queueSqlOf, type RunEnqueuer, type RunJob } from '../queue/run-enqueuer';
+import { prepareRuns } from './prepare-runs';
 import { solveInWorker, SolveFailure } from './solve-in-worker';
 import { toRunResult } from './to-run-result';
 
 const cancelPollMs = 1000;
 
-export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_BUDGET_SECONDS' | 'RUN_MEMORY_BUDGET_MEGABYTES'>, log: (err: unknown) => void) {
+export function createRunExecutor(
+  db: Database,
+  config: Pick<Config, 'RUN_TIME_BUDGET_SECONDS' | 'RUN_MEMORY_BUDGET_MEGABYTES' | 'RUN_MAX_EXPANDED_ARCS'>,
+  log: (err: unknown) => void,
+  // Where a sweep's prepared runs are queued for their solve.
+  queue: RunEnqueuer,
+) {
   const active = new Map<string, { cancel: () => void; interrupt: () => void }>();
 
   /** Updates the run only while it is still queued or running; false when it is not (cancelled, finished). */
@@ -23,10 +34,30 @@ export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_B
     return rows.length > 0;
   }
 
-  async function execute(runId: string): Promise<void> {
+  async function execute(queued: RunJob): Promise<void> {
+    if ('batchId' in queued) return prepareSweep(queued.batchId);
+    const { runId } = queued;
+    if (!(await setState(runId, { status: 'running', phase: 'preparing', progress: 0, startedAt: new Date() }))) return;
+    // In hand while it is prepared too: a stopping worker waits for it, then gives it back rather
+    // than start its solve. (A cancel is seen in the database: a cancelled run is not prepared.)
+    let interrupted = false;
+    active.set(runId, { cancel: () => undefined, interrupt: () => void (interrupted = true) });
+    let ready: string[];
+    try {
+      ready = await prepareRuns(db, [runId], {
+        maxExpandedArcs: config.RUN_MAX_EXPANDED_ARCS,
+        onPhase: async (id, phase) => void (await setState(id, { phase })),
+      });
+    } finally {
+      active.delete(runId);
+    }
+    if (!ready.includes(runId)) return;
+    if (interrupted) {
+      await setState(runId, { status: 'queued', phase: 'back in the queue: its worker stopped', progress: 0, startedAt: null });
+      throw new SolveFailure('Interrupted: the worker is stopping.', 'interrupted');
+    }
     const [row] = await db.select({ input: runInputs.input }).from(runInputs).where(eq(runInputs.runId, runId));
-    if (!row) return;
-    if (!(await setState(runId, { status: 'running', phase: 'starting', progress: 0, startedAt: new Date() }))) return;
+    if (!row || !(await setState(runId, { phase: 'starting' }))) return;
     let lastWrite = 0;
     const job = solveInWorker(
       { problem: row.input.problem, options: { algorithm: row.input.algorithm } },
@@ -62,6 +93,22 @@ export function createRunExecutor(db: Database, config: Pick<Config, 'RUN_TIME_B
       clearInterval(watch);
       active.delete(runId);
     }
+  }
+
+  /** A sweep's first phase: one snapshot for all its runs, each queued for its solve once prepared. */
+  async function prepareSweep(batchId: string): Promise<void> {
+    const members = await db
+      .select({ id: runs.id })
+      .from(runs)
+      .where(and(eq(runs.batchId, batchId), inArray(runs.status, ['queued', 'running'])))
+      .orderBy(asc(runs.sweepValue));
+    const ids = members.map((m) => m.id);
+    await prepareRuns(db, ids, {
+      maxExpandedArcs: config.RUN_MAX_EXPANDED_ARCS,
+      onPhase: async (id, phase) => void (await setState(id, { phase })),
+      queueSolve: (runId, tx) => queue.enqueue({ runId }, queueSqlOf(tx)),
+    });
+    // Runs prepared by an earlier attempt of this job were queued in the same transaction as their input.
   }
 
   function cancel(runId: string): void {

@@ -21,7 +21,7 @@ const start = (who: SignedInAgent, plan = planId) =>
 
 beforeAll(async () => {
   ctx = await createTestContext({ RUN_STARTS_PER_MINUTE: '3', RUNS_IN_FLIGHT_PER_ORGANIZATION: '5' });
-  app = createApp({ config: ctx.config, db: ctx.db, pool: ctx.pool, clientDir: '/nonexistent', log: (e) => ctx.errors.push(e), runQueue: { enqueue: async (id) => void queued.push(id) } });
+  app = createApp({ config: ctx.config, db: ctx.db, pool: ctx.pool, clientDir: '/nonexistent', log: (e) => ctx.errors.push(e), runQueue: { enqueue: async (job) => void queued.push('runId' in job ? job.runId : job.batchId) } });
   planner = await signInAs(app, 'planner');
   admin = await signInAs(app, 'admin');
   planId = (await planner.agent.get('/api/plans').expect(200)).body.plans[0].id;

@@ -109,12 +109,16 @@ describe('a run of the demo plan', () => {
     expect(geo.body.features[0].geometry.coordinates.length).toBeGreaterThanOrEqual(2);
   });
 
-  it('reuses the stored result for identical inputs', async () => {
+  it('reuses the stored result for identical inputs (found by the worker when it prepares the run)', async () => {
     const res = await start({ ...defaultRunParameters, horizonMinutes: 240, timeStepSeconds: 60 }).expect(202);
-    expect(res.body.status).toBe('succeeded');
-    expect(res.body.phase).toContain(run.id);
+    expect(res.body.status).toBe('queued');
     const again = await waitForRun(res.body.id);
+    expect(again.status).toBe('succeeded');
+    expect(again.phase).toContain(run.id);
     expect(again.result).toEqual(run.result);
+    // Reused: no input of its own was stored.
+    const { rows } = await ctx.pool.query('SELECT count(*)::int AS n FROM run_inputs WHERE run_id = $1', [res.body.id]);
+    expect(rows[0].n).toBe(0);
   });
 });
 

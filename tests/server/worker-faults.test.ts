@@ -1,5 +1,5 @@
 // Real worker processes sharing the queue on the real database: a worker killed mid-run
-// (SIGKILL) leaves the run to another, which finishes it once; a worker stopped with SIGTERM
+// (SIGKILL), or while it prepares the run, leaves the run to another, which finishes it once; a worker stopped with SIGTERM
 // puts the run in hand back in the queue after its grace period and exits cleanly, and another
 // worker finishes it; two workers never take the same run twice.
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -61,6 +61,9 @@ async function getRun(id: string): Promise<RunWithResult> {
   return runWithResultSchema.parse((await planner.agent.get(`/api/plans/${planId}/runs/${id}`).expect(200)).body);
 }
 
+// Past its first phase (preparation, prepare-runs.ts): the solver is at work.
+const solving = (r: RunWithResult) => r.status === 'running' && !/^(preparing|prepared|starting)/.test(r.phase);
+
 async function startRun(parameters: object): Promise<string> {
   return (await planner.agent.post(`/api/plans/${planId}/runs`).set('x-csrf-token', planner.csrf).send({ parameters }).expect(202)).body.id;
 }
@@ -85,7 +88,7 @@ describe('worker faults', () => {
     // Long enough to be caught mid-solve: 4 hours in 10-second steps at half capacity.
     const id = await startRun({ ...defaultRunParameters, horizonMinutes: 4 * 60, timeStepSeconds: 10, capacityFactor: 0.5 });
     const victim = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id)));
-    await until('the solve to be under way', 20_000, async () => ((await getRun(id)).status === 'running' ? true : undefined));
+    await until('the solve to be under way', 30_000, async () => (solving(await getRun(id)) ? true : undefined));
     victim.proc.kill('SIGKILL');
     const survivor = workers.find((w) => w !== victim)!;
     const done = await until('the run to finish elsewhere', 90_000, async () => {
@@ -97,6 +100,37 @@ describe('worker faults', () => {
     expect(victim.finished).not.toContain(id);
     const stored = await ctx.pool.query("SELECT count(*)::int AS n FROM runs WHERE id = $1 AND status = 'succeeded' AND result IS NOT NULL", [id]);
     expect(stored.rows[0].n).toBe(1);
+  }, 150_000);
+
+  it('a run whose worker is killed while preparing it is prepared and finished once by the other worker', async () => {
+    await startWorker(ctx.url);
+    const id = await startRun({ ...defaultRunParameters, horizonMinutes: 120, timeStepSeconds: 60, capacityFactor: 0.8 });
+    // Hold the worker inside its first phase: reading the zones waits for this lock.
+    const blocker = await ctx.pool.connect();
+    try {
+      await blocker.query('BEGIN');
+      await blocker.query('LOCK TABLE zones IN ACCESS EXCLUSIVE MODE');
+      const victim = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id) && w.proc.exitCode === null));
+      await until('the run to be in preparation', 20_000, async () => {
+        const r = await getRun(id);
+        return r.status === 'running' && r.phase.startsWith('preparing') ? true : undefined;
+      });
+      victim.proc.kill('SIGKILL');
+      await victim.exited;
+      await blocker.query('COMMIT');
+      const done = await until('the run to finish elsewhere', 90_000, async () => {
+        const r = await getRun(id);
+        return r.status === 'succeeded' || r.status === 'failed' ? r : undefined;
+      });
+      expect(done.status, done.failureReason ?? '').toBe('succeeded');
+      expect(victim.finished).not.toContain(id);
+      expect(workers.filter((w) => w !== victim).flatMap((w) => w.finished.filter((f) => f === id))).toEqual([id]);
+      const stored = await ctx.pool.query("SELECT (SELECT count(*)::int FROM run_inputs WHERE run_id = $1) AS inputs, (SELECT count(*)::int FROM runs WHERE id = $1 AND result IS NOT NULL) AS results", [id]);
+      expect(stored.rows[0]).toEqual({ inputs: 1, results: 1 });
+    } finally {
+      await blocker.query('ROLLBACK').catch(() => undefined);
+      blocker.release();
+    }
   }, 150_000);
 
   it('several runs shared by the workers are each taken once', async () => {
@@ -117,7 +151,7 @@ describe('worker faults', () => {
   it('a worker stopped with SIGTERM mid-run returns the run to the queue, exits cleanly, and another finishes it', async () => {
     const id = await startRun({ ...defaultRunParameters, horizonMinutes: 4 * 60, timeStepSeconds: 10, capacityFactor: 0.45 });
     const taker = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id) && w.proc.exitCode === null));
-    await until('the solve to be under way', 20_000, async () => ((await getRun(id)).status === 'running' ? true : undefined));
+    await until('the solve to be under way', 30_000, async () => (solving(await getRun(id)) ? true : undefined));
     taker.proc.kill('SIGTERM');
     // Grace of 1 s, then the run goes back: the process ends well before the job would expire (42 s).
     expect(await taker.exited).toBe(0);

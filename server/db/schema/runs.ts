@@ -26,7 +26,8 @@ export const runs = pgTable(
     // The plan's data version and road layer the run read; the hash identifies its exact input.
     dataVersion: integer().notNull(),
     roadLayerId: integer().references(() => roadLayers.id, { onDelete: 'set null' }),
-    inputHash: text().notNull(),
+    // Null until a worker has prepared the run (built its problem and hashed it).
+    inputHash: text(),
     result: jsonb().$type<RunResult>(),
     failureReason: text(),
     createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),

@@ -20,8 +20,8 @@ export async function startLiveServer(): Promise<LiveServer> {
   const config = loadConfig({ NODE_ENV: 'test', DATABASE_URL: database.url, PASSWORD_HASH_ROUNDS: '4' });
   await seedDemo(database.db, config.PASSWORD_HASH_ROUNDS);
   const runQueue = await startRunQueue(config);
-  const executor = createRunExecutor(database.db, config, console.error);
-  await runQueue.work(1, ({ runId }) => executor.execute(runId));
+  const executor = createRunExecutor(database.db, config, console.error, runQueue);
+  await runQueue.work(1, (job) => executor.execute(job));
   const app = createApp({ config, db: database.db, pool: database.pool, clientDir, runQueue });
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, '127.0.0.1', () => resolve(s));

@@ -10,6 +10,7 @@ import { demoAccounts } from '../../../server/seed/demo-accounts';
 import { createTestDatabase, type TestDatabase } from './database';
 import { startRunQueue } from '../../../server/queue/run-queue';
 import { createRunExecutor } from '../../../server/run-execution/run-executor';
+import type { RunEnqueuer } from '../../../server/queue/run-enqueuer';
 
 export const otherAccounts = [
   { role: 'admin' as Role, email: 'admin@other.example', displayName: 'Other Admin', password: 'other-admin-2026' },
@@ -36,7 +37,7 @@ export type TestContextOptions = {
   withRunWorker?: boolean;
 };
 
-const noQueue = {
+const noQueue: RunEnqueuer = {
   enqueue: async () => {
     throw new Error('this test context has no run queue: pass { withRunWorker: true }');
   },
@@ -51,8 +52,8 @@ export async function createTestContext(env: Record<string, string> = {}, option
   const log = (e: unknown) => errors.push(e);
   const queue = options.withRunWorker ? await startRunQueue(config) : null;
   if (queue) {
-    const executor = createRunExecutor(database.db, config, log);
-    await queue.work(1, ({ runId }) => executor.execute(runId));
+    const executor = createRunExecutor(database.db, config, log, queue);
+    await queue.work(1, (job) => executor.execute(job));
   }
   const app = createApp({ config, db: database.db, pool: database.pool, log, clientDir: '/nonexistent', runQueue: queue ?? noQueue });
   return {

@@ -1,0 +1,1 @@
+ALTER TABLE "runs" ALTER COLUMN "input_hash" DROP NOT NULL;
