@@ -1,7 +1,7 @@
 // Starting runs: the one service behind a single run, a run under a scenario and a sweep.
 // The request records what defines each run (plan, parameters, scenario, sweep value) and queues
 // it in the same transaction; a worker then prepares it (snapshot, attachments, problem, hash,
-// reuse of an identical result: server/runs/prepare-runs.ts) and solves it. What is checked here
+// reuse of an identical result: server/run-execution/prepare-runs.ts) and solves it. What is checked here
 // is cheap and bounded (counts and indexed look-ups), so the request answers at once on a county.
 import { and, count, eq, inArray } from 'drizzle-orm';
 import type { z } from 'zod';

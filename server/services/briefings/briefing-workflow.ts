@@ -58,6 +58,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
   const verificationUrl = `${base}/verify`;
   const reviewUrl = (id: string) => `${base}/briefings/${id}/review`;
   const timeZone = config.BRIEFING_TIME_ZONE;
+  const renderBudget = { seconds: config.BRIEFING_RENDER_SECONDS, megabytes: config.BRIEFING_RENDER_MEGABYTES };
 
   const content = (row: BriefingRow) => row.content as StoredBriefingContent & { organizationName: string; planName: string; scenarioName: string | null };
   const ref = (row: BriefingRow): BriefingRef => ({
@@ -116,7 +117,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
       timeZone,
       verificationUrl,
     });
-    const rendered = await renderBriefing(input);
+    const rendered = await renderBriefing(input, renderBudget);
     await guarded(() =>
       db.transaction(async (tx) => {
         await tx.insert(briefings).values({
@@ -230,7 +231,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
           const row = await visibleBriefing(tx, actor, id, true);
           refuseSigned(row);
           if (row.status === 'awaiting-sign-off') throw new ConflictError('Sign-off has already been requested for this briefing.');
-          const rendered = await renderBriefing(render(row, 'awaiting-sign-off'));
+          const rendered = await renderBriefing(render(row, 'awaiting-sign-off'), renderBudget);
           const now = new Date();
           for (const official of reviewers as Official[]) {
             await tx
@@ -270,7 +271,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
           const row = await visibleBriefing(tx, actor, id, true);
           refuseSigned(row);
           if (row.status !== 'awaiting-sign-off') throw new ConflictError('No sign-off request is open for this briefing.');
-          const rendered = await renderBriefing(render(row, 'draft'));
+          const rendered = await renderBriefing(render(row, 'draft'), renderBudget);
           await tx.update(briefingReviews).set({ decision: 'withdrawn', decidedAt: new Date() }).where(and(eq(briefingReviews.briefingId, id), eq(briefingReviews.decision, 'pending')));
           await storeFile(tx, id, 'draft', rendered.pdf, rendered.fileSha256);
           await statusChange(tx, actor, id, row.status, 'draft', 'request withdrawn');
@@ -288,7 +289,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
           const [signer] = await tx.select({ name: users.displayName }).from(users).where(eq(users.id, actor.userId));
           const person = { name: signer!.name, role: roleLabels[actor.role] };
           const key = await signingKeyFor(tx, config, actor);
-          const pdf = await signBriefingPdf(render(row, 'awaiting-sign-off'), person, key.certificate, new Date());
+          const pdf = await signBriefingPdf(render(row, 'awaiting-sign-off'), person, key.certificate, new Date(), renderBudget);
           // Our own check of what is about to become the record, before it is stored.
           const check = verifyPdf(pdf.pdf, [key.certificate.certificatePem]);
           if (!check.valid) throw new Error(`the freshly signed briefing ${id} does not verify: ${check.problems.join(' ')}`);
@@ -335,7 +336,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
           const row = await decidable(tx, actor, id);
           const [official] = await tx.select({ name: users.displayName }).from(users).where(eq(users.id, actor.userId));
           const now = new Date();
-          const rendered = await renderBriefing(render(row, 'returned', { returned: { name: official!.name, role: roleLabels[actor.role], returnedAt: now, comment } }));
+          const rendered = await renderBriefing(render(row, 'returned', { returned: { name: official!.name, role: roleLabels[actor.role], returnedAt: now, comment } }), renderBudget);
           await tx
             .update(briefingReviews)
             .set({ decision: 'returned', comment, decidedAt: now })

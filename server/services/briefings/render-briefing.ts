@@ -1,8 +1,7 @@
 // A briefing from input to PDF bytes, with the two hashes a caller stores.
 import type { BriefingInput } from './briefing-input';
-import { buildBriefingDocument } from './briefing-document';
 import { contentSha256, sha256Hex } from './content-fingerprint';
-import { renderPdf } from './render-pdf';
+import { renderBriefingPdfInWorker, type RenderBudget } from './render-in-worker';
 
 export type RenderedBriefing = {
   pdf: Buffer;
@@ -12,7 +11,7 @@ export type RenderedBriefing = {
   fileSha256: string;
 };
 
-export async function renderBriefing(input: BriefingInput): Promise<RenderedBriefing> {
-  const pdf = await renderPdf(buildBriefingDocument(input));
+export async function renderBriefing(input: BriefingInput, budget?: RenderBudget): Promise<RenderedBriefing> {
+  const pdf = await renderBriefingPdfInWorker(input, budget);
   return { pdf, contentSha256: contentSha256(input), fileSha256: sha256Hex(pdf) };
 }

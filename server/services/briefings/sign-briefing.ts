@@ -2,8 +2,7 @@
 // file's metadata), then embed the digital signature over those bytes.
 import type { BriefingInput, BriefingPerson } from './briefing-input';
 import { contentSha256, sha256Hex } from './content-fingerprint';
-import { buildBriefingDocument } from './briefing-document';
-import { renderPdf } from './render-pdf';
+import { renderBriefingPdfInWorker, type RenderBudget } from './render-in-worker';
 import type { OrganizationCertificate } from './signing/organization-certificate';
 import { signPdf } from './signing/sign-pdf';
 
@@ -14,11 +13,12 @@ export async function signBriefing(
   signer: BriefingPerson,
   certificate: OrganizationCertificate,
   signedAt: Date = new Date(),
+  budget?: RenderBudget,
 ): Promise<SignedBriefing> {
   // PDF dates and the CMS signingTime carry whole seconds; the page should say the same.
   const at = new Date(Math.floor(signedAt.getTime() / 1000) * 1000);
   const signedInput: BriefingInput = { ...input, status: 'signed', returned: undefined, signature: { ...signer, signedAt: at } };
-  const unsigned = await renderPdf(buildBriefingDocument(signedInput));
+  const unsigned = await renderBriefingPdfInWorker(signedInput, budget);
   const pdf = await signPdf(unsigned, {
     certificate,
     signerName: signer.name,
