@@ -17,6 +17,7 @@ import { roleLabels } from '../../../shared/api/roles';
 import type { BriefingReturn, BriefingSignature, BriefingStatus } from './briefing-input';
 import { storedBriefingContent, type StoredBriefingContent } from './content-fingerprint';
 import { renderBriefing } from './render-briefing';
+import { warmRenderer } from './render-in-worker';
 import { signBriefing as signBriefingPdf } from './sign-briefing';
 import { attachmentName, type Mailer } from './mail/mailer';
 import { verifyPdf } from './signing/verify-pdf';
@@ -59,6 +60,7 @@ export function createBriefingService(db: Database, config: Config, mailer: Mail
   const reviewUrl = (id: string) => `${base}/briefings/${id}/review`;
   const timeZone = config.BRIEFING_TIME_ZONE;
   const renderBudget = { seconds: config.BRIEFING_RENDER_SECONDS, megabytes: config.BRIEFING_RENDER_MEGABYTES };
+  warmRenderer(renderBudget);
 
   const content = (row: BriefingRow) => row.content as StoredBriefingContent & { organizationName: string; planName: string; scenarioName: string | null };
   const ref = (row: BriefingRow): BriefingRef => ({

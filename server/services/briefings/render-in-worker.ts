@@ -11,22 +11,28 @@ export const defaultRenderBudget: RenderBudget = { seconds: 120, megabytes: 1024
 
 export class RenderFailure extends Error {}
 
-// One small pool per memory budget (a pool's threads share their resource limits); threads
-// stay warm for a while, then leave.
+// One small pool per memory budget (a pool's threads share their resource limits). One thread
+// is started with the pool and kept: loading the renderer (pdfmake, fonts, the page code) takes
+// seconds, which a planner should not wait for at each briefing.
 const pools = new Map<number, Piscina>();
 function poolFor(megabytes: number): Piscina {
   let pool = pools.get(megabytes);
   if (!pool) {
     pool = new Piscina({
       filename: new URL('./render-worker-entry.mjs', import.meta.url).href,
-      minThreads: 0,
+      minThreads: 1,
       maxThreads: 2,
-      idleTimeout: 30_000,
+      idleTimeout: 60_000,
       resourceLimits: { maxOldGenerationSizeMb: megabytes, maxYoungGenerationSizeMb: Math.min(64, Math.max(8, megabytes / 8)) },
     });
     pools.set(megabytes, pool);
   }
   return pool;
+}
+
+/** Starts the renderer's thread for this budget now, so the first briefing does not wait for it. */
+export function warmRenderer(budget: RenderBudget = defaultRenderBudget): void {
+  poolFor(budget.megabytes);
 }
 
 /** The briefing's PDF, rendered off this thread; RenderFailure (with the reason) past a budget. */
