@@ -2,7 +2,7 @@
 import type { ZodError } from 'zod';
 import type { ErrorCode, FieldError } from '../shared/api/errors';
 import { issueMessage } from '../shared/api/issue-message';
-import type { ImportFailure } from '../shared/api/road-attributes';
+import type { ImportFailure } from '../shared/api/road-import';
 
 export class HttpError extends Error {
   constructor(

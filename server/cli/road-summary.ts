@@ -6,7 +6,7 @@ import { createWriteStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import { parseArgs } from 'node:util';
-import { propertyMappingSchema, type ImportOptionsInput } from '../../shared/api/road-attributes';
+import { propertyMappingSchema, type ImportOptionsInput } from '../../shared/api/road-import';
 import { dimacsMaxFlowChunks } from '../../shared/flow';
 import { indexNodes } from '../../shared/geo/node-index';
 import { RoadImportError } from '../../shared/geo/road-import-error';

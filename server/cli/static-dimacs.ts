@@ -1,12 +1,12 @@
 // The static s–t network of a road layer with its zones and shelters, in the DIMACS
 // max-flow format (the engine's writer): capacities in veh/h from the given capacity table,
 // super source feeding the zones, super sink fed by the shelters (the engine's layout).
-import type { CapacityTable } from '../../shared/api/road-attributes';
+import type { CapacityTable } from '../../shared/api/capacity-table';
 import { buildSteadyStateNetwork, networkToDimacs, type DimacsMaxFlow } from '../../shared/flow';
-import type { RoadNetwork } from '../../shared/geo/build-road-graph';
+import type { RoadGraph } from '../../shared/geo/build-road-graph';
 import type { ShelterFeature } from '../../shared/geo/read-shelters';
 import type { ZoneFeature } from '../../shared/geo/read-zones';
-import type { ShelterAttachment, ZoneAttachment } from '../../shared/api/road-attributes';
+import type { ShelterAttachment, ZoneAttachment } from '../../shared/api/zone-shelter-attributes';
 import { buildEvacuationProblem, type BuiltEvacuationProblem } from '../../shared/model';
 
 export interface StaticDimacs {
@@ -17,7 +17,7 @@ export interface StaticDimacs {
 }
 
 export function staticNetworkDimacs(
-  network: Pick<RoadNetwork, 'nodes' | 'segments'>,
+  network: Pick<RoadGraph, 'nodes' | 'segments'>,
   table: CapacityTable,
   zones: { zones: ZoneFeature[]; attachments: ZoneAttachment[] },
   shelters: { shelters: ShelterFeature[]; attachments: ShelterAttachment[] },

@@ -1,12 +1,12 @@
 // The CLI's one-object summary of a built network: counts, what was kept and dropped, what
 // the class defaults filled in (with the values and their sources), and topology problems.
-import type { CapacityTable } from '../../shared/api/road-attributes';
-import type { RoadNetwork } from '../../shared/geo/build-road-graph';
+import type { CapacityTable } from '../../shared/api/capacity-table';
+import type { RoadGraph } from '../../shared/geo/build-road-graph';
 import { capacityRowFor } from '../../shared/model';
 
 const round = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** digits;
 
-export function summariseNetwork(network: RoadNetwork, table: CapacityTable) {
+export function summariseNetwork(network: RoadGraph, table: CapacityTable) {
   const r = network.report;
   return {
     format: r.sourceFormat,

@@ -1,13 +1,13 @@
 // Zone and shelter uploads, read and attached to a built road network in one call.
-import type { ShelterAttachment, ZoneAttachment } from '../../shared/api/road-attributes';
+import type { ShelterAttachment, ZoneAttachment } from '../../shared/api/zone-shelter-attributes';
 import { attachShelters, attachZones, type AttachOptions } from '../../shared/geo/attach-zones-and-shelters';
-import type { RoadNetwork } from '../../shared/geo/build-road-graph';
+import type { RoadGraph } from '../../shared/geo/build-road-graph';
 import { indexNodes, type NodeIndex } from '../../shared/geo/node-index';
 import { readShelters, type ShelterFeature } from '../../shared/geo/read-shelters';
 import { readZones, type ZoneFeature } from '../../shared/geo/read-zones';
 import { readGeoJsonUpload } from './decode-upload';
 
-type AttachableNetwork = Pick<RoadNetwork, 'nodes' | 'segments'> | NodeIndex;
+type AttachableNetwork = Pick<RoadGraph, 'nodes' | 'segments'> | NodeIndex;
 
 function indexOf(network: AttachableNetwork): NodeIndex {
   return 'grid' in network ? network : indexNodes(network);

@@ -5,7 +5,7 @@
 // osmtogeojson would join the remaining nodes with a straight line across the gap.
 import type { FeatureCollection, Geometry } from 'geojson';
 import osmtogeojson from 'osmtogeojson';
-import type { ImportReport } from '../../shared/api/road-attributes';
+import type { ImportReport } from '../../shared/api/road-import';
 import type { RoadSourceContext } from '../../shared/geo/build-road-graph';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { OsmElement, OsmJson, OsmNode, OsmWay } from './osm-json';

@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { batchCreateSchema } from '../../shared/api/batches';
-import { planParamsSchema } from '../../shared/api/road-layers';
+import { planParamsSchema } from '../../shared/api/plans';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';

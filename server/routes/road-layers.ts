@@ -1,14 +1,14 @@
 // /api/plans/:planId/road-layer and /segments: upload, read for the map and table, edit.
 import { Router } from 'express';
-import { importOptionsSchema } from '../../shared/api/road-attributes';
+import { importOptionsSchema } from '../../shared/api/road-import';
 import {
-  planParamsSchema,
   segmentBulkUpdateSchema,
   segmentMapQuerySchema,
   segmentPageQuerySchema,
   segmentParamsSchema,
 } from '../../shared/api/road-layers';
 import { segmentAttributesPatchSchema } from '../../shared/api/road-attributes';
+import { planParamsSchema } from '../../shared/api/plans';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { Config } from '../config';
 import type { Database } from '../db/client';

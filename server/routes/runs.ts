@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { runParametersSchema } from '../../shared/api/runs';
-import { planParamsSchema } from '../../shared/api/road-layers';
+import { planParamsSchema } from '../../shared/api/plans';
 import { bottlenecksCsv, curveCsv } from '../../shared/model/run-export-csv';
 import type { Config } from '../config';
 import type { Database } from '../db/client';

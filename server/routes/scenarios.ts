@@ -1,6 +1,6 @@
 // /api/plans/:planId/scenarios
 import { Router } from 'express';
-import { planParamsSchema } from '../../shared/api/road-layers';
+import { planParamsSchema } from '../../shared/api/plans';
 import { scenarioCreateSchema, scenarioParamsSchema, scenarioUpdateSchema } from '../../shared/api/scenarios';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';

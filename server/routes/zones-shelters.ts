@@ -1,7 +1,7 @@
 // /api/plans/:planId/zones, /shelters and /capacity-table.
 import { Router } from 'express';
-import { capacityTableSchema } from '../../shared/api/road-attributes';
-import { planParamsSchema } from '../../shared/api/road-layers';
+import { capacityTableSchema } from '../../shared/api/capacity-table';
+import { planParamsSchema } from '../../shared/api/plans';
 import {
   shelterCreateSchema,
   shelterParamsSchema,

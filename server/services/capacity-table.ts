@@ -2,7 +2,7 @@
 import { eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { capacityTables } from '../db/schema';
-import type { CapacityTable } from '../../shared/api/road-attributes';
+import type { CapacityTable } from '../../shared/api/capacity-table';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization, bumpDataVersion } from './plan-access';

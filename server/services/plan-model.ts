@@ -3,7 +3,9 @@
 import { eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { plans } from '../db/schema';
-import type { CapacityTable, NetworkSegment, ZoneAttachment, ShelterAttachment } from '../../shared/api/road-attributes';
+import type { CapacityTable } from '../../shared/api/capacity-table';
+import type { NetworkSegment } from '../../shared/api/road-attributes';
+import type { ZoneAttachment, ShelterAttachment } from '../../shared/api/zone-shelter-attributes';
 import type { Attachments, Shelter, Zone } from '../../shared/api/zones-shelters';
 import type { Segment } from '../../shared/api/road-layers';
 import { attachShelters, attachZones } from '../../shared/geo/attach-zones-and-shelters';

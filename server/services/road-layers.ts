@@ -3,9 +3,10 @@
 import { and, asc, count, desc, eq, ilike, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Database, Tx } from '../db/client';
 import { plans, roadLayers, roadNodes, roadSegments } from '../db/schema';
-import { segmentAttributesSchema, type ImportOptions, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/road-attributes';
+import { segmentAttributesSchema, type SegmentAttributes, type SegmentAttributesPatch } from '../../shared/api/road-attributes';
+import { type ImportOptions } from '../../shared/api/road-import';
 import type { RoadLayer, Segment, SegmentPage, SegmentBulkUpdate, segmentPageQuerySchema } from '../../shared/api/road-layers';
-import type { RoadNetwork } from '../../shared/geo/build-road-graph';
+import type { RoadGraph } from '../../shared/geo/build-road-graph';
 import type { z } from 'zod';
 import { BadRequestError, NotFoundError, zodFields } from '../errors';
 import { recordAudit, type Actor } from './audit';
@@ -21,7 +22,7 @@ function lineWkt(coordinates: readonly (readonly [number, number])[]): string {
 }
 
 // unnest() over parallel arrays: one statement per batch instead of one per row.
-async function insertNodes(tx: Tx, layerId: number, network: RoadNetwork) {
+async function insertNodes(tx: Tx, layerId: number, network: RoadGraph) {
   for (let start = 0; start < network.nodes.length; start += insertBatch) {
     const slice = network.nodes.slice(start, start + insertBatch);
     await tx.execute(sql`
@@ -32,7 +33,7 @@ async function insertNodes(tx: Tx, layerId: number, network: RoadNetwork) {
   }
 }
 
-async function insertSegments(tx: Tx, layerId: number, network: RoadNetwork) {
+async function insertSegments(tx: Tx, layerId: number, network: RoadGraph) {
   for (let start = 0; start < network.segments.length; start += insertBatch) {
     const s = network.segments.slice(start, start + insertBatch);
     const a = s.map((x) => x.attributes);
@@ -58,7 +59,7 @@ export async function saveRoadLayer(
   db: Database,
   actor: Actor,
   planId: string,
-  network: RoadNetwork,
+  network: RoadGraph,
   meta: { name: string; sourceFileName: string; importOptions: ImportOptions },
 ): Promise<RoadLayer> {
   const layerId = await db.transaction(async (tx) => {

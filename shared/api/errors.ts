@@ -1,6 +1,6 @@
 // The one error envelope every API failure uses; the client parses it with this schema.
 import { z } from 'zod';
-import { importFailureSchema } from './road-attributes';
+import { importFailureSchema } from './road-import';
 
 export const errorCodeSchema = z.enum([
   'invalid_request',

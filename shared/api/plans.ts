@@ -1,6 +1,9 @@
 // Plans: a plan gathers one area's road layer, zones, shelters, scenarios, runs and briefings.
 import { z } from 'zod';
 
+/** `:planId` in every plan-scoped route. */
+export const planParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.') });
+
 const planName = z.string().trim().min(1, 'Give the plan a name.').max(120);
 const planDescription = z.string().trim().max(2000);
 

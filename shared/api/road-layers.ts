@@ -1,7 +1,8 @@
 // The road-layer endpoints: the active layer's summary, segments for the map and the table,
 // and planners' edits. Attributes and the import report are defined in ./network.
 import { z } from 'zod';
-import { importReportSchema, roadClassSchema, segmentAttributesObjectSchema } from './road-attributes';
+import { importReportSchema } from './road-import';
+import { roadClassSchema, segmentAttributesObjectSchema } from './road-attributes';
 
 export const roadLayerSchema = z.object({
   id: z.number().int(),
@@ -94,4 +95,3 @@ export const segmentBulkUpdateSchema = z.object({
 });
 export type SegmentBulkUpdate = z.infer<typeof segmentBulkUpdateSchema>;
 
-export const planParamsSchema = z.object({ planId: z.string().uuid('Not a valid identifier.') });

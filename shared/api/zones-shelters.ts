@@ -1,7 +1,8 @@
 // Zones (where evacuees leave from) and shelters or exits (where they go), as the endpoints and
 // the workspace forms exchange them. Attributes are defined in ./network.
 import { z } from 'zod';
-import { lonLatSchema, shelterAttributesSchema, zoneAttributesSchema } from './road-attributes';
+import { lonLatSchema } from './road-attributes';
+import { shelterAttributesSchema, zoneAttributesSchema } from './zone-shelter-attributes';
 
 function ringClosed(ring: [number, number][]): boolean {
   const first = ring[0];

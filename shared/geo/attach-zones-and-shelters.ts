@@ -2,7 +2,8 @@
 // take vehicles at their nearest node. Either fails loudly when nothing is close enough.
 import { bbox as turfBbox, booleanPointInPolygon, pointToPolygonDistance } from '@turf/turf';
 import type { MultiPolygon, Polygon } from 'geojson';
-import type { BadFeature, ShelterAttachment, ZoneAttachment } from '../api/road-attributes';
+import type { BadFeature } from '../api/road-import';
+import type { ShelterAttachment, ZoneAttachment } from '../api/zone-shelter-attributes';
 import { nearestNode, type NodeIndex } from './node-index';
 import type { ShelterFeature } from './read-shelters';
 import type { ZoneFeature } from './read-zones';

@@ -1,14 +1,7 @@
 // The front door of road import: a parsed GeoJSON FeatureCollection (from a GIS or from
 // OpenStreetMap via osmtogeojson) → nodes, segments and a report of everything assumed.
-import {
-  importOptionsSchema,
-  type DropReason,
-  type ImportOptionsInput,
-  type ImportReport,
-  type NetworkNode,
-  type NetworkSegment,
-  type RoadClass,
-} from '../api/road-attributes';
+import { importOptionsSchema, type DropReason, type ImportOptionsInput, type ImportReport } from '../api/road-import';
+import { type NetworkNode, type NetworkSegment, type RoadClass } from '../api/road-attributes';
 import { cutIntoSegments } from './cut-into-segments';
 import { connectedComponents } from './road-graph-components';
 import { readRoadFeatures } from './read-road-features';
@@ -19,7 +12,7 @@ import { splitAtCrossings } from './split-at-crossings';
 import type { TopoLine } from './topology-lines';
 import { LocalPlane, VertexStore } from './vertex-store';
 
-export interface RoadNetwork {
+export interface RoadGraph {
   /** Index = node id. */
   nodes: NetworkNode[];
   segments: NetworkSegment[];
@@ -52,11 +45,11 @@ function splitKey(key: string): [string, string] {
  * @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` (every bad feature
  *   listed) | `noDrivableRoads`.
  */
-export function buildRoadNetwork(
+export function buildRoadGraph(
   input: unknown,
   options: ImportOptionsInput = {},
   context: RoadSourceContext = { sourceFormat: 'geojson' },
-): RoadNetwork {
+): RoadGraph {
   const opts = importOptionsSchema.parse(options);
   const reading = readRoadFeatures(input, opts.propertyMapping);
   if (reading.lines.length === 0) {

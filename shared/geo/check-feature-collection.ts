@@ -1,6 +1,7 @@
 // Structural checks shared by road, zone and shelter uploads: a FeatureCollection in WGS84
 // longitude/latitude, positions that are numbers in range.
-import type { BadFeature, LonLat } from '../api/road-attributes';
+import type { BadFeature } from '../api/road-import';
+import type { LonLat } from '../api/road-attributes';
 import { RoadImportError } from './road-import-error';
 
 /** CRS names that mean WGS84 longitude/latitude (RFC 7946 §4; the 2008 GeoJSON `crs` member). */

@@ -1,6 +1,6 @@
 // Road layers, zones and shelters → the routable network. Pure (turf for geodesy); file
 // reading and OSM decoding live in server/import.
-export { buildRoadNetwork, type RoadNetwork, type RoadSourceContext } from './build-road-graph';
+export { buildRoadGraph, type RoadGraph, type RoadSourceContext } from './build-road-graph';
 export { RoadImportError } from './road-import-error';
 export { readRoadTags, type RoadReading, type Tags } from './read-road-tags';
 export { readMappedProperties, tagsOf } from './read-mapped-properties';

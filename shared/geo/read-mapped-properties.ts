@@ -1,5 +1,6 @@
 // GIS properties named by the planner's mapping → the OSM tag form read-road-tags.ts reads.
-import { drivableRoadClasses, type PropertyMapping } from '../api/road-attributes';
+import { drivableRoadClasses } from '../api/road-attributes';
+import { type PropertyMapping } from '../api/road-import';
 import type { RoadReading, Tags } from './read-road-tags';
 import { readRoadTags } from './read-road-tags';
 import { parseText } from './parse-tag-values';

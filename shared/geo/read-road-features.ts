@@ -1,6 +1,7 @@
 // Uploaded road features → lines with resolved attributes, plus what was dropped and why.
 // Malformed geometry is collected per feature; the caller fails the whole import on it.
-import type { BadFeature, DropReason, LonLat, PropertyMapping, RoadClass, SegmentAttributes } from '../api/road-attributes';
+import type { BadFeature, DropReason, PropertyMapping } from '../api/road-import';
+import type { LonLat, RoadClass, SegmentAttributes } from '../api/road-attributes';
 import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition } from './check-feature-collection';
 import { readMappedProperties, tagsOf } from './read-mapped-properties';
 import { readRoadTags, type RoadReading } from './read-road-tags';

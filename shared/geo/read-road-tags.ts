@@ -1,7 +1,8 @@
 // OpenStreetMap tags → segment attributes, or the reason the way is left out. GIS data with
 // a property mapping is first turned into the same tag form (read-mapped-properties.ts), so
 // one set of rules decides for both.
-import { drivableRoadClasses, type DropReason, type RoadClass, type SegmentAttributes } from '../api/road-attributes';
+import { drivableRoadClasses, type RoadClass, type SegmentAttributes } from '../api/road-attributes';
+import { type DropReason } from '../api/road-import';
 import { preview } from './check-feature-collection';
 import { parseFlag, parseLaneCount, parseLayer, parseOneway, parseSpeedKmh, parseText, type OnewayValue } from './parse-tag-values';
 

@@ -1,5 +1,7 @@
 // Shelter and exit uploads: GeoJSON points with a name and a capacity in persons.
-import { shelterAttributesSchema, type BadFeature, type LonLat, type ShelterAttributes } from '../api/road-attributes';
+import { shelterAttributesSchema, type ShelterAttributes } from '../api/zone-shelter-attributes';
+import { type BadFeature } from '../api/road-import';
+import { type LonLat } from '../api/road-attributes';
 import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition } from './check-feature-collection';
 import { issues, nameOf, numeric, present } from './read-zones';
 import { RoadImportError } from './road-import-error';

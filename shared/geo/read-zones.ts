@@ -1,7 +1,8 @@
 // Zone uploads: GeoJSON polygons with their attributes in properties. Every bad feature is
 // listed; one bad feature fails the upload.
 import type { MultiPolygon, Polygon } from 'geojson';
-import { zoneAttributesSchema, type BadFeature, type DepartureCurve, type ZoneAttributes } from '../api/road-attributes';
+import { zoneAttributesSchema, type DepartureCurve, type ZoneAttributes } from '../api/zone-shelter-attributes';
+import { type BadFeature } from '../api/road-import';
 import { ZONE_DEFAULTS } from '../model/zone-defaults';
 import { issueMessage } from '../api/issue-message';
 import { failOnBadFeatures, geometryTypeName, preview, readFeatureCollection, readPosition, type RawFeature } from './check-feature-collection';

@@ -2,7 +2,8 @@
 // their attributes, and the report's findings (dangling ends, joined ends, tiny segments,
 // small components) as features a layer can colour by `finding`.
 import type { Feature, FeatureCollection, LineString, Point } from 'geojson';
-import type { ImportReport, NetworkNode, NetworkSegment } from '../api/road-attributes';
+import type { ImportReport } from '../api/road-import';
+import type { NetworkNode, NetworkSegment } from '../api/road-attributes';
 
 export function segmentsToGeoJson(segments: readonly NetworkSegment[]): FeatureCollection<LineString> {
   return {

@@ -1,6 +1,6 @@
 // The one error an import throws. It carries the whole failure (every bad feature), so the
 // caller can show it and save nothing.
-import type { BadFeature, ImportFailure, ImportFailureCode } from '../api/road-attributes';
+import type { BadFeature, ImportFailure, ImportFailureCode } from '../api/road-import';
 
 export class RoadImportError extends Error {
   readonly failure: ImportFailure;

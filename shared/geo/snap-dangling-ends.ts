@@ -1,7 +1,7 @@
 // A road that stops just short of another (or just past it) is a digitising slip far more
 // often than a real dead end. Ends used by one line only ("dangling") are joined to nearby
 // ends, vertices or edges of other lines within the tolerance, in two passes around the
-// crossing split (see buildRoadNetwork):
+// crossing split (see buildRoadGraph):
 //   1. before splitting: line ends within the tolerance of one another become one node (at
 //      their centroid), and a lone dangling end joins the nearest vertex of another line;
 //   2. after splitting: a dangling end joins the nearest vertex or edge point (an undershoot

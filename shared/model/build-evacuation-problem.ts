@@ -1,16 +1,9 @@
 // Plan data → the flow engine's EvacuationProblem, plus the way back from engine road
 // indices to segments. The arithmetic is DOMAIN.md §1: capacity = lanes × veh/h/lane ×
 // factor, travel time = length / speed, storage = jam density × lanes × length.
-import {
-  segmentAttributesSchema,
-  type CapacityTable,
-  type NetworkSegment,
-  type RoadClass,
-  type SegmentAttributes,
-  type SegmentOverride,
-  type ShelterAttributes,
-  type ZoneAttributes,
-} from '../api/road-attributes';
+import { segmentAttributesSchema, type NetworkSegment, type RoadClass, type SegmentAttributes, type SegmentOverride } from '../api/road-attributes';
+import { type CapacityTable } from '../api/capacity-table';
+import { type ShelterAttributes, type ZoneAttributes } from '../api/zone-shelter-attributes';
 import type { EvacuationProblem, EvacuationRoad } from '../flow';
 import { capacityRowFor } from './capacity-defaults';
 import { cumulativeShareByStep } from './departure-curves';

@@ -2,7 +2,8 @@
 // come from DOMAIN.md §2–3: C = confirmed in a published source, CP = common practice with
 // no source, X = computed from a C value. Each row repeats its source so that the planner
 // sees it next to the number.
-import type { CapacityTable, CapacityTableRow, RoadClass } from '../api/road-attributes';
+import type { CapacityTable, CapacityTableRow } from '../api/capacity-table';
+import type { RoadClass } from '../api/road-attributes';
 import { freewayBaseCapacity, JAM_DENSITY_PC_PER_KM_PER_LANE, KM_PER_MILE, multilaneBaseCapacity, PLANNING_GREEN_RATIO, signalisedLaneCapacity } from './hcm';
 
 /** Heavy-vehicle allowance used to turn pc/h into veh/h for the derived rows (CP). */

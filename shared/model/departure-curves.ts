@@ -1,7 +1,7 @@
 // Departure (mobilisation) curves: the cumulative share of a zone's evacuating vehicles that
 // have left by time t after the order. Formulas are stated on departureCurveSchema
-// (shared/api/road-attributes.ts); the S-shaped forms follow Li, Ozbay, Bartin et al. (2013), TRR 2376.
-import type { DepartureCurve } from '../api/road-attributes';
+// (shared/api/zone-shelter-attributes.ts); the S-shaped forms follow Li, Ozbay, Bartin et al. (2013), TRR 2376.
+import type { DepartureCurve } from '../api/zone-shelter-attributes';
 
 /** Share still to leave below which a curve's tail is closed off (release the rest at once). */
 export const CURVE_TAIL_SHARE = 1e-6;

@@ -1,5 +1,5 @@
 // Persons ↔ vehicles. The engine counts vehicles; briefings report persons.
-import type { ZoneAttributes } from '../api/road-attributes';
+import type { ZoneAttributes } from '../api/zone-shelter-attributes';
 
 // Products like 100 × 0.7 come out as 70.00000000000001 in binary floating point; without
 // this slack, rounding up would add a phantom vehicle.

@@ -1,5 +1,5 @@
 // Values a zone gets when an upload leaves them out. The planner sees and can change them.
-import type { DepartureCurve } from '../api/road-attributes';
+import type { DepartureCurve } from '../api/zone-shelter-attributes';
 
 export const ZONE_DEFAULTS = {
   /** > 80 % of residents who heard a mandatory order left (C, Baker 1991, Int. J. Mass

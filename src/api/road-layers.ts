@@ -1,6 +1,7 @@
 // The plan's road layer: summary and import report, segments for the map and the table, edits.
 import { z } from 'zod';
-import type { ImportOptionsInput, SegmentAttributesPatch } from '@shared/api/road-attributes';
+import type { ImportOptionsInput } from '@shared/api/road-import';
+import type { SegmentAttributesPatch } from '@shared/api/road-attributes';
 import {
   roadLayerResponseSchema,
   segmentMapSchema,

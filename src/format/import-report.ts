@@ -1,7 +1,7 @@
 // The import report as sections a planner reads top to bottom: what was kept, what was dropped
 // and why, where defaults were applied, and the problems with a place on the map (dangling
 // ends, snapped ends, separate parts of the network). Pure: the component only lists them.
-import type { BadFeature, DropReason, ImportReport } from '@shared/api/road-attributes';
+import type { BadFeature, DropReason, ImportReport } from '@shared/api/road-import';
 import { roadClassLooks } from '@/map/road-style';
 import type { Bbox } from '@/map/viewport';
 import { formatCount, formatMeters, formatShare } from './numbers';

@@ -1,13 +1,7 @@
 // Editing road segments: the form's values, the patch of what changed, and validation with the
 // server's schemas (the patch schema, then the merged attributes, which catch a one-way road
 // that still has lanes backward). Empty lane, speed and capacity fields mean "class default".
-import {
-  roadClassSchema,
-  segmentAttributesPatchSchema,
-  segmentAttributesSchema,
-  type RoadClass,
-  type SegmentAttributesPatch,
-} from '@shared/api/road-attributes';
+import { roadClassSchema, segmentAttributesPatchSchema, segmentAttributesSchema, type RoadClass, type SegmentAttributesPatch } from '@shared/api/road-attributes';
 import type { Segment } from '@shared/api/road-layers';
 import { roadClassLooks } from '@/map/road-style';
 import { optionalNumberFrom, parseForm, type FieldErrors } from './zod-errors';

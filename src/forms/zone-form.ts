@@ -1,6 +1,6 @@
 // The zone form: people, participation, vehicles and departure curve, validated with the
 // server's zoneCreateSchema; defaults and their sources from shared/model/zone-defaults.
-import { departureCurveSchema, type DepartureCurve } from '@shared/api/road-attributes';
+import { departureCurveSchema, type DepartureCurve } from '@shared/api/zone-shelter-attributes';
 import { zoneCreateSchema, type Zone, type ZoneCreate, type ZoneGeometry } from '@shared/api/zones-shelters';
 import { ZONE_DEFAULTS } from '@shared/model/zone-defaults';
 import { numberFrom, parseForm, type FieldErrors } from './zod-errors';

@@ -3,7 +3,9 @@
 // so that the map reloads what it shows.
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { CapacityTable, ImportFailure, SegmentAttributesPatch } from '@shared/api/road-attributes';
+import type { CapacityTable } from '@shared/api/capacity-table';
+import type { ImportFailure } from '@shared/api/road-import';
+import type { SegmentAttributesPatch } from '@shared/api/road-attributes';
 import type { RoadLayer, Segment } from '@shared/api/road-layers';
 import * as roadApi from '@/api/road-layers';
 import { getCapacityTable } from '@/api/capacity-table';

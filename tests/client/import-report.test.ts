@@ -1,13 +1,13 @@
 // The import report of the demo town's roads (built by the same code the server uses), as the
 // Roads tab lists it: kept and dropped features, dead ends with a place to show on the map.
 import { describe, expect, it } from 'vitest';
-import { buildRoadNetwork } from '../../shared/geo/build-road-graph';
-import { importReportSchema, type ImportReport } from '../../shared/api/road-attributes';
+import { buildRoadGraph } from '../../shared/geo/build-road-graph';
+import { importReportSchema, type ImportReport } from '../../shared/api/road-import';
 import roadsText from '../../server/seed/demo-town/roads.geojson?raw';
 import { badFeatureLines, dropReasonWords, importReportSections, importSummary } from '../../src/format/import-report';
 
 const roads: unknown = JSON.parse(roadsText);
-const report: ImportReport = importReportSchema.parse(buildRoadNetwork(roads).report);
+const report: ImportReport = importReportSchema.parse(buildRoadGraph(roads).report);
 
 describe('import report sections', () => {
   it('summarises the import in one sentence', () => {

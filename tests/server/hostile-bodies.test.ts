@@ -18,7 +18,8 @@ import {
   briefingVersionCreateSchema,
   signOffRequestSchema,
 } from '../../shared/api/briefings';
-import { capacityTableSchema, segmentAttributesPatchSchema } from '../../shared/api/road-attributes';
+import { capacityTableSchema } from '../../shared/api/capacity-table';
+import { segmentAttributesPatchSchema } from '../../shared/api/road-attributes';
 import { planCreateSchema, planUpdateSchema } from '../../shared/api/plans';
 import { segmentBulkUpdateSchema } from '../../shared/api/road-layers';
 import { defaultRunParameters, runParametersSchema } from '../../shared/api/runs';

@@ -7,7 +7,7 @@ import { sql } from 'drizzle-orm';
 import { createTestDatabase, type TestDatabase } from './support/database';
 import { seedDemo } from '../../server/seed/seed-demo';
 import { defaultCapacityTable, MOTORWAY_LINK_CAPACITY_SOURCE } from '../../shared/model/capacity-defaults';
-import type { CapacityTable } from '../../shared/api/road-attributes';
+import type { CapacityTable } from '../../shared/api/capacity-table';
 
 const MIGRATION = new URL('../../drizzle/0011_ramp-capacity-source.sql', import.meta.url);
 // The earlier default began like this; what followed named the lookup it was taken from.

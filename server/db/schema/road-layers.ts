@@ -1,7 +1,9 @@
 // A plan's road data: road layers (one active at a time; older ones stay so that past runs can
 // still be drawn), their nodes and segments, the plan's capacity table, zones and shelters.
 import { bigserial, boolean, doublePrecision, index, integer, jsonb, pgTable, primaryKey, real, serial, text, timestamp, uuid } from 'drizzle-orm/pg-core';
-import type { CapacityTable, DepartureCurve, ImportOptions, ImportReport } from '../../../shared/api/road-attributes';
+import type { CapacityTable } from '../../../shared/api/capacity-table';
+import type { DepartureCurve } from '../../../shared/api/zone-shelter-attributes';
+import type { ImportOptions, ImportReport } from '../../../shared/api/road-import';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
 import { plans } from './plans';
 import { users } from './organizations';

@@ -3,9 +3,9 @@
 import { readFileSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import type { ImportFailure } from '../../../shared/api/road-attributes';
-import { importFailureSchema } from '../../../shared/api/road-attributes';
-import { buildRoadNetwork, RoadImportError } from '../../../shared/geo';
+import type { ImportFailure } from '../../../shared/api/road-import';
+import { importFailureSchema } from '../../../shared/api/road-import';
+import { buildRoadGraph, RoadImportError } from '../../../shared/geo';
 import { importRoadLayer } from '../../../server/import/import-road-layer';
 
 const fixture = (name: string) => readFileSync(new URL(`../../fixtures/${name}`, import.meta.url));
@@ -62,7 +62,7 @@ describe('coordinate reference systems', () => {
   it('accepts the WGS84 names (CRS84, EPSG:4326)', () => {
     const line = { type: 'Feature', properties: { highway: 'residential' }, geometry: { type: 'LineString', coordinates: [[0, 0], [0.001, 0]] } };
     for (const name of ['urn:ogc:def:crs:OGC:1.3:CRS84', 'EPSG:4326', 'urn:ogc:def:crs:EPSG::4326']) {
-      expect(buildRoadNetwork({ type: 'FeatureCollection', crs: { type: 'name', properties: { name } }, features: [line] }).segments).toHaveLength(1);
+      expect(buildRoadGraph({ type: 'FeatureCollection', crs: { type: 'name', properties: { name } }, features: [line] }).segments).toHaveLength(1);
     }
   });
 });

@@ -5,7 +5,7 @@
 // the drawing in make-fixtures.ts.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { propertyMappingSchema } from '../../../shared/api/road-attributes';
+import { propertyMappingSchema } from '../../../shared/api/road-import';
 import { importRoadLayer } from '../../../server/import/import-road-layer';
 
 const fixture = (name: string) => readFileSync(new URL(`../../fixtures/geo/${name}`, import.meta.url));

@@ -2,7 +2,8 @@
 // for every kind of input: the demo town, a real OSM extract, a GIS layer, synthetic OSM.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { importReportSchema, networkNodeSchema, networkSegmentSchema, propertyMappingSchema } from '../../../shared/api/road-attributes';
+import { importReportSchema, propertyMappingSchema } from '../../../shared/api/road-import';
+import { networkNodeSchema, networkSegmentSchema } from '../../../shared/api/road-attributes';
 import { importRoadLayer } from '../../../server/import/import-road-layer';
 
 const read = (path: string) => readFileSync(new URL(path, import.meta.url));

@@ -1,8 +1,8 @@
 // Zones attach at the nodes inside them (else the nearest), shelters at the nearest node,
 // with an error naming each one that is too far; uploads are validated feature by feature.
 import { describe, expect, it } from 'vitest';
-import type { ImportFailure } from '../../../shared/api/road-attributes';
-import { attachShelters, attachZones, buildRoadNetwork, indexNodes, readShelters, readZones, RoadImportError } from '../../../shared/geo';
+import type { ImportFailure } from '../../../shared/api/road-import';
+import { attachShelters, attachZones, buildRoadGraph, indexNodes, readShelters, readZones, RoadImportError } from '../../../shared/geo';
 import { ZONE_DEFAULTS } from '../../../shared/model';
 
 // Local metres around lon 0, lat 0 (1 m ≈ 8.98e-6°).
@@ -11,7 +11,7 @@ const pt = (x: number, y: number) => [x * D, y * D];
 const line = (tags: Record<string, string>, ...p: [number, number][]) => ({ type: 'Feature', properties: tags, geometry: { type: 'LineString', coordinates: p.map(([x, y]) => pt(x, y)) } });
 // A residential street along y = 0 (nodes at x = 0, 100, 200) and a motorway along y = 50
 // that touches nothing else.
-const network = buildRoadNetwork({
+const network = buildRoadGraph({
   type: 'FeatureCollection',
   features: [
     line({ highway: 'residential' }, [0, 0], [100, 0]),

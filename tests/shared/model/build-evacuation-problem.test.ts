@@ -2,7 +2,8 @@
 // one-bottleneck check of DOMAIN.md §6 (13 vehicles, 2 per step, τ = 3 → last arrives at
 // step 9) solved by the engine on the problem this module builds.
 import { describe, expect, it } from 'vitest';
-import type { SegmentAttributes, ZoneAttributes } from '../../../shared/api/road-attributes';
+import type { SegmentAttributes } from '../../../shared/api/road-attributes';
+import type { ZoneAttributes } from '../../../shared/api/zone-shelter-attributes';
 import { expandOverTime, maxFlow, perStepCapacity, travelSteps, validateEvacuationProblem } from '../../../shared/flow';
 import { buildEvacuationProblem, defaultCapacityTable, ModelInputError, zoneVehicles, shelterVehicles, meanPersonsPerVehicle } from '../../../shared/model';
 

@@ -1,7 +1,8 @@
 // Default capacities against the published table they cite (DOMAIN.md §2–3: HCM 6th/7th ed.
 // transcriptions, FHWA HPMS Field Manual 2002 App. N); the ramp and minor rows are common practice.
 import { describe, expect, it } from 'vitest';
-import { capacityTableSchema, drivableRoadClasses } from '../../../shared/api/road-attributes';
+import { capacityTableSchema } from '../../../shared/api/capacity-table';
+import { drivableRoadClasses } from '../../../shared/api/road-attributes';
 import {
   ASSUMED_HEAVY_VEHICLE_FACTOR,
   CAPACITY_FACTOR_PRESETS,
