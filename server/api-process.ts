@@ -5,6 +5,8 @@ import type { Config } from './config';
 import { createDatabase } from './db/client';
 import { createApp } from './app';
 import { demoAccounts } from './seed/demo-accounts';
+import { demoWanted } from './seed/seed-command';
+import { organizations } from './db/schema';
 import { startRunQueue } from './queue/run-queue';
 import { startDevOutbox } from './services/briefings/outbox';
 
@@ -16,6 +18,8 @@ export async function startApiProcess(config: Config): Promise<void> {
   let stopping = false;
   const app = createApp({ config: outbox ? { ...config, SMTP_URL: outbox.url } : config, db, pool, runQueue, isStopping: () => stopping });
 
+  // A fresh production installation has no organization and no demo: say how to make the first.
+  const noOrganization = config.NODE_ENV === 'production' && (await db.select({ id: organizations.id }).from(organizations).limit(1)).length === 0;
   const server = app.listen(config.PORT, config.HOST, () => {
     // Of several API processes, the first one speaks for all.
     if (cluster.isWorker && cluster.worker?.id !== 1) return;
@@ -24,10 +28,11 @@ export async function startApiProcess(config: Config): Promise<void> {
       '',
       `Cutline is running at ${url}${config.API_PROCESSES > 1 ? ` (${config.API_PROCESSES} API processes)` : ''}`,
       '',
-      // The demo's published passwords, never printed by a production server.
-      ...(config.NODE_ENV === 'production'
-        ? []
-        : ['Demo sign-ins (an invented organization; change these before real use):', ...demoAccounts.map((a) => `  ${a.role.padEnd(9)} ${a.email.padEnd(32)} password: ${a.password}`), '']),
+      // The demo's published passwords, printed only where the demo is seeded (never in production unless asked for).
+      ...(demoWanted(config, false)
+        ? ['Demo sign-ins (an invented organization, for trying Cutline out; not for real use):', ...demoAccounts.map((a) => `  ${a.role.padEnd(9)} ${a.email.padEnd(32)} password: ${a.password}`), '']
+        : []),
+      ...(noOrganization ? ['No organization yet: create yours and its first administrator with `npm run org:create`.', ''] : []),
       ...(outbox ? [`E-mail is kept in the development outbox (${outbox.url}, admins: ${url}outbox), never delivered.`, ''] : []),
       'Stop with Ctrl+C.',
     ];

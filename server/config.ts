@@ -19,6 +19,8 @@ const configSchema = z.object({
   COOKIE_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
   SIGN_IN_ATTEMPTS_PER_WINDOW: z.coerce.number().int().positive().default(10),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+  // Failed sign-ins per address in that window, whatever the e-mail (password spraying).
+  SIGN_IN_ATTEMPTS_PER_ADDRESS: z.coerce.number().int().positive().default(50),
   // Failed sign-ins in a row (from any address) that lock an account, and for how long.
   SIGN_IN_LOCKOUT_FAILURES: z.coerce.number().int().min(1).default(10),
   SIGN_IN_LOCKOUT_MINUTES: z.coerce.number().positive().default(15),
@@ -40,6 +42,9 @@ const configSchema = z.object({
   VERIFY_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(16).default(256),
   VERIFY_THREADS: z.coerce.number().int().min(1).max(16).default(1),
   VERIFY_QUEUE: z.coerce.number().int().min(0).default(8),
+  // The demo organization (invented town, published passwords): seeded by `npm start` and
+  // `npm run db:seed` where NODE_ENV is not production ('auto'), always ('yes') or never ('no').
+  SEED_DEMO: z.enum(['auto', 'yes', 'no']).default('auto'),
   PASSWORD_HASH_ROUNDS: z.coerce.number().int().min(4).max(15).default(11),
   TILE_URL: z.string().default(''),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),

@@ -23,14 +23,44 @@ function decodeEntities(s: string): string {
   });
 }
 
-const ATTRIBUTE = /([^\s=]+)\s*=\s*(?:"([^"]*)"|'([^']*)')/g;
-
-function attributes(inner: string): Record<string, string> {
+/**
+ * name="value" and name='value' pairs, in one pass: a regular expression here backtracked over
+ * a long run of characters without "=", quadratic in the tag's length.
+ */
+function attributes(inner: string, work: { scanned: number }): Record<string, string> {
   const out: Record<string, string> = {};
-  ATTRIBUTE.lastIndex = 0;
-  for (let m = ATTRIBUTE.exec(inner); m; m = ATTRIBUTE.exec(inner)) {
-    out[m[1]!] = decodeEntities(m[2] ?? m[3] ?? '');
+  const n = inner.length;
+  let i = 0;
+  let steps = 0;
+  const isSpace = (c: number) => c === 32 || c === 9 || c === 10 || c === 13;
+  while (i < n) {
+    const stepFrom = i;
+    while (i < n && isSpace(inner.charCodeAt(i))) i++;
+    const nameStart = i;
+    while (i < n && !isSpace(inner.charCodeAt(i)) && inner.charCodeAt(i) !== 61 /* = */) i++;
+    const name = inner.slice(nameStart, i);
+    let j = i;
+    while (j < n && isSpace(inner.charCodeAt(j))) j++;
+    steps += j - stepFrom + 1;
+    if (name === '' || inner.charCodeAt(j) !== 61) {
+      // Not a pair: skip this character and go on, as a search for the next pair would.
+      i = Math.max(i, nameStart + 1);
+      continue;
+    }
+    j++;
+    while (j < n && isSpace(inner.charCodeAt(j))) j++;
+    const quote = inner.charCodeAt(j);
+    if (quote !== 34 && quote !== 39) {
+      i = j;
+      continue;
+    }
+    const close = inner.indexOf(quote === 34 ? '"' : "'", j + 1);
+    steps += (close < 0 ? n : close) - j;
+    if (close < 0) break;
+    out[name] = decodeEntities(inner.slice(j + 1, close));
+    i = close + 1;
   }
+  work.scanned += steps;
   return out;
 }
 
@@ -44,15 +74,28 @@ function number(value: string | undefined, what: string): number {
   return n;
 }
 
+/** The longest element tag accepted, in characters (a real one is a few hundred at most). */
+export const MAX_TAG_CHARACTERS = 64 * 1024;
+/** The longest comment, processing instruction or declaration accepted. */
+export const MAX_MARKUP_CHARACTERS = 1024 * 1024;
+
 /** Incremental reader: push() byte chunks as they come, then end() for the document. */
 export class OsmXmlReader {
   // Fatal: OSM XML is UTF-8, and a Latin-1 or UTF-16 file read as UTF-8 would garble names.
   private readonly decoder = new TextDecoder('utf-8', { fatal: true });
   private pending = '';
+  // Where the scan of an unfinished tag at the start of `pending` goes on, and whether it is
+  // inside a quoted value there: each character is looked at once, however the chunks fall.
+  private resumeAt = 0;
+  private resumeQuote = 0;
+  private openMarkup: 'comment' | 'declaration' | null = null;
+  private markupLength = 0;
   private readonly elements: OsmElement[] = [];
   private current: { type: 'node' | 'way' | 'relation'; attrs: Record<string, string>; tags: Record<string, string>; nodes: number[] } | null = null;
   private sawRoot = false;
   private sawRootEnd = false;
+  /** Characters looked at while finding tags and reading attributes: linear in the text, for tests. */
+  scanned = 0;
 
   push(chunk: Uint8Array): void {
     this.pending += this.decode(chunk, true);
@@ -62,6 +105,7 @@ export class OsmXmlReader {
   end(): OsmJson {
     this.pending += this.decode(new Uint8Array(0), false);
     this.drain();
+    if (this.openMarkup) fail(`the file ends inside a ${this.openMarkup}`);
     if (this.pending.includes('<')) fail('the file ends inside a tag');
     if (!this.sawRoot) fail('no <osm> element: this is not an OpenStreetMap XML file');
     if (this.current) fail(`the file ends inside <${this.current.type} id="${this.current.attrs['id'] ?? '?'}">`);
@@ -82,32 +126,72 @@ export class OsmXmlReader {
     return text;
   }
 
+  /** Finds `needle` at or after `from`, counting the characters passed. */
+  private find(s: string, needle: string, from: number): number {
+    const at = s.indexOf(needle, from);
+    this.scanned += (at < 0 ? s.length : at + needle.length) - from;
+    return at;
+  }
+
   private drain(): void {
-    const s = this.pending;
+    let s = this.pending;
     let pos = 0;
+    // Inside a comment or declaration left open by the last chunk: its text is not kept (only
+    // the last two characters, where "-->" may begin), just its length, for the cap.
+    if (this.openMarkup) {
+      const close = this.openMarkup === 'comment' ? '-->' : '>';
+      const end = this.find(s, close, 0);
+      if (end < 0) {
+        this.markupLength += s.length - 2;
+        if (this.markupLength > MAX_MARKUP_CHARACTERS) this.tooLong(s, 0, MAX_MARKUP_CHARACTERS, this.openMarkup);
+        this.pending = s.slice(-2);
+        return;
+      }
+      if (this.markupLength + end > MAX_MARKUP_CHARACTERS) this.tooLong(s, 0, MAX_MARKUP_CHARACTERS, this.openMarkup);
+      this.openMarkup = null;
+      pos = end + close.length;
+    }
+    // A tag left unfinished by the last chunk starts `pending`: its scan goes on where it stopped.
+    let resumeAt = this.resumeAt;
+    const resumeQuote = this.resumeQuote;
+    this.resumeAt = 0;
+    this.resumeQuote = 0;
     for (;;) {
-      const lt = s.indexOf('<', pos);
+      const lt = this.find(s, '<', pos);
       if (lt < 0) {
         pos = s.length;
         break;
       }
-      let end: number;
-      if (s.startsWith('<!--', lt)) {
-        end = s.indexOf('-->', lt + 4);
-        if (end < 0) break;
-        pos = end + 3;
-        continue;
-      }
-      if (s.startsWith('<?', lt) || s.startsWith('<!', lt)) {
-        end = s.indexOf('>', lt + 2);
-        if (end < 0) break;
-        pos = end + 1;
+      const comment = s.startsWith('<!--', lt);
+      if (comment || s.startsWith('<?', lt) || s.startsWith('<!', lt)) {
+        // "<!-" or "<" alone at the very end may yet become a comment: wait for more.
+        if (s.length - lt < 4 && '<!--'.startsWith(s.slice(lt))) {
+          pos = lt;
+          break;
+        }
+        const close = comment ? '-->' : '>';
+        const from = lt + (comment ? 4 : 2);
+        const end = this.find(s, close, from);
+        if (end < 0) {
+          this.openMarkup = comment ? 'comment' : 'declaration';
+          this.markupLength = s.length - lt - 2;
+          if (this.markupLength > MAX_MARKUP_CHARACTERS) this.tooLong(s, lt, MAX_MARKUP_CHARACTERS, this.openMarkup);
+          pos = Math.max(from, s.length - 2);
+          break;
+        }
+        if (end - lt > MAX_MARKUP_CHARACTERS) this.tooLong(s, lt, MAX_MARKUP_CHARACTERS, comment ? 'comment' : 'declaration');
+        pos = end + close.length;
+        resumeAt = 0;
         continue;
       }
       // Find the closing '>' outside quotes: attribute values may contain '>'.
-      let quote = 0;
-      end = -1;
-      for (let i = lt + 1; i < s.length; i += 1) {
+      const resuming = lt === 0 && resumeAt > 0;
+      let quote = resuming ? resumeQuote : 0;
+      const start = resuming ? resumeAt : lt + 1;
+      resumeAt = 0;
+      let end = -1;
+      let i = start;
+      for (; i < s.length; i += 1) {
         const c = s.charCodeAt(i);
         if (quote !== 0) {
           if (c === quote) quote = 0;
@@ -117,11 +201,24 @@ export class OsmXmlReader {
           break;
         }
       }
-      if (end < 0) break;
+      this.scanned += i - start;
+      if (end < 0) {
+        if (s.length - lt > MAX_TAG_CHARACTERS) this.tooLong(s, lt, MAX_TAG_CHARACTERS, 'tag');
+        this.resumeAt = s.length - lt;
+        this.resumeQuote = quote;
+        pos = lt;
+        break;
+      }
+      if (end - lt > MAX_TAG_CHARACTERS) this.tooLong(s, lt, MAX_TAG_CHARACTERS, 'tag');
       this.element(s.slice(lt + 1, end));
       pos = end + 1;
     }
-    this.pending = s.slice(pos);
+    s = s.slice(pos);
+    this.pending = s;
+  }
+
+  private tooLong(s: string, lt: number, max: number, what: string): never {
+    fail(`a ${what} longer than ${max.toLocaleString('en-US')} characters: ${preview(s.slice(lt, lt + 60))}`);
   }
 
   private element(body: string): void {
@@ -143,16 +240,16 @@ export class OsmXmlReader {
     }
     if (name === 'node' || name === 'way' || name === 'relation') {
       if (this.current) fail(`<${name}> inside <${this.current.type}>`);
-      this.current = { type: name, attrs: attributes(inner.slice(nameEnd)), tags: {}, nodes: [] };
+      this.current = { type: name, attrs: attributes(inner.slice(nameEnd), this), tags: {}, nodes: [] };
       if (selfClosing) this.finish();
       return;
     }
     if (!this.current) return;
     if (name === 'tag') {
-      const a = attributes(inner.slice(nameEnd));
+      const a = attributes(inner.slice(nameEnd), this);
       if (a['k'] !== undefined) this.current.tags[a['k']] = a['v'] ?? '';
     } else if (name === 'nd' && this.current.type === 'way') {
-      this.current.nodes.push(number(attributes(inner.slice(nameEnd))['ref'], 'nd ref'));
+      this.current.nodes.push(number(attributes(inner.slice(nameEnd), this)['ref'], 'nd ref'));
     }
   }
 

@@ -10,6 +10,7 @@ import { currentMembership } from '../middleware/require-member';
 import { recordAudit } from '../services/audit';
 import type { SignInRefusal } from '../auth/passport';
 import type { Database } from '../db/client';
+import { setDeviceCookie } from '../auth/device-cookie';
 
 export type AuthRouterDeps = {
   db: Database;
@@ -46,6 +47,16 @@ function lockedError(until: Date): HttpError {
 export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps): Router {
   const router = Router();
 
+  // Failed attempts per address, whatever the e-mail: without it, rotating e-mails from one
+  // address (password spraying) was never limited, and each attempt costs a bcrypt compare.
+  const addressLimiter = rateLimited({
+    name: 'sign-in-address',
+    windowMs: config.SIGN_IN_WINDOW_MINUTES * 60_000,
+    limit: config.SIGN_IN_ATTEMPTS_PER_ADDRESS,
+    message: 'Too many failed sign-in attempts from this address. Wait a few minutes and try again.',
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
+    skipSuccessfulRequests: true,
+  });
   // Counted per address and account, so one person's typos do not lock out a whole office.
   const signInLimiter = rateLimited({
     name: 'sign-in',
@@ -62,7 +73,7 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
     res.json(sessionBody(req, csrfToken(req)));
   });
 
-  router.post('/sign-in', signInLimiter, (req, res, next) => {
+  router.post('/sign-in', addressLimiter, signInLimiter, (req, res, next) => {
     const input = signInRequestSchema.parse(req.body);
     req.body = input;
     passport.authenticate('local', (err: unknown, user: Express.User | false, refusal?: SignInRefusal) => {
@@ -73,6 +84,7 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
       req.login(user, (loginError) => {
         if (loginError) return next(loginError);
         req.session.organizationId = user.memberships[0]?.organizationId;
+        setDeviceCookie(res, user.id, config.SESSION_SECRET, config.COOKIE_SECURE);
         const organizationId = req.session.organizationId;
         const audit = organizationId
           ? recordAudit(db, { userId: user.id, organizationId }, 'session.sign-in', 'user', user.id)

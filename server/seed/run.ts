@@ -1,14 +1,14 @@
-// `npm run db:seed`: the demo organization, its accounts and its ready plan.
+// `npm run db:seed [-- --demo]`: the demo organization, its accounts and its ready plan, where
+// wanted (server/seed/seed-command.ts).
 import { loadConfig } from '../config';
 import { createDatabase } from '../db/client';
-import { demoAccounts, demoOrganization } from './demo-accounts';
-import { seedDemo } from './seed-demo';
+import { runSeed } from './seed-command';
 
 const config = loadConfig();
 const { db, pool } = createDatabase(config.DATABASE_URL);
 try {
-  await seedDemo(db, config.PASSWORD_HASH_ROUNDS);
-  console.log(`Seeded "${demoOrganization.name}" with ${demoAccounts.length} accounts.`);
+  const { message } = await runSeed(db, config, process.argv.includes('--demo'));
+  console.log(message);
 } finally {
   await pool.end();
 }

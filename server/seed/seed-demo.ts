@@ -1,11 +1,12 @@
 // The demo organization, its accounts and its ready plan: Veltmoor, an invented river town
 // (server/seed/demo-town/), with its roads, zones and shelters, so a new user sees the main
-// job working at once. Idempotent: an existing demo plan is left as it is.
+// job working at once. Made once: when the demo organization exists it is left as it is, so
+// accounts its administrator removed, demoted or gave new passwords stay that way.
 import { readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
-import { plans } from '../db/schema';
+import { memberships, organizations, plans, users } from '../db/schema';
 import { readShelters } from '../../shared/geo/read-shelters';
 import { readZones } from '../../shared/geo/read-zones';
 import { importRoadLayerFile } from '../import/import-road-layer';
@@ -19,12 +20,20 @@ export const demoPlanName = 'Veltmoor river crossings';
 const townFile = (name: string) => fileURLToPath(new URL(`./demo-town/${name}`, import.meta.url));
 
 export async function seedDemo(db: Database, rounds: number) {
+  const [organization] = await db.select({ id: organizations.id }).from(organizations).where(eq(organizations.slug, demoOrganization.slug));
+  if (organization) {
+    const members = await db
+      .select({ id: users.id, email: users.email })
+      .from(memberships)
+      .innerJoin(users, eq(users.id, memberships.userId))
+      .where(eq(memberships.organizationId, organization.id));
+    const [plan] = await db
+      .select({ id: plans.id })
+      .from(plans)
+      .where(and(eq(plans.organizationId, organization.id), eq(plans.name, demoPlanName)));
+    return { organizationId: organization.id, userIds: Object.fromEntries(members.map((m) => [m.email, m.id])), planId: plan?.id ?? null, created: false };
+  }
   const { organizationId, userIds } = await seedOrganization(db, demoOrganization, demoAccounts, rounds);
-  const [existing] = await db
-    .select({ id: plans.id })
-    .from(plans)
-    .where(and(eq(plans.organizationId, organizationId), eq(plans.name, demoPlanName)));
-  if (existing) return { organizationId, userIds, planId: existing.id };
 
   const plannerId = userIds['planner@cutline.example'] ?? null;
   const [plan] = await db
@@ -56,5 +65,5 @@ export async function seedDemo(db: Database, rounds: number) {
     shelterFeatures.map((s) => ({ ...s.attributes, lon: s.coordinates[0], lat: s.coordinates[1] })),
     'shelters.geojson',
   );
-  return { organizationId, userIds, planId };
+  return { organizationId, userIds, planId: planId as string | null, created: true };
 }

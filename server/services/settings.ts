@@ -7,17 +7,9 @@ import type { Database } from '../db/client';
 import { appSettings } from '../db/schema';
 import { mapSettingsSchema, type MapSettings } from '../../shared/api/settings';
 import { recordAudit, type Actor } from './audit';
+import { cspImageOrigin as originOf } from './tile-origin';
 
 const cacheMs = 10_000;
-
-function originOf(tileUrl: string): string | null {
-  if (!tileUrl) return null;
-  try {
-    return new URL(tileUrl.replaceAll(/\{[a-z]\}/g, 'a')).origin;
-  } catch {
-    return null;
-  }
-}
 
 export function createSettings(db: Database, environmentTileUrl: string, log: (err: unknown) => void = () => undefined) {
   const fallback: MapSettings = { tileUrl: environmentTileUrl, attribution: '' };

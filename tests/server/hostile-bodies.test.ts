@@ -201,7 +201,7 @@ const sent = { malformed: 0, toRoutesWithoutBody: 0 };
 beforeAll(async () => {
   // Sign-in is fuzzed with an unknown address; the per-address limit would otherwise answer
   // 429 before the body is read.
-  ctx = await createTestContext({ SIGN_IN_ATTEMPTS_PER_WINDOW: '1000000' });
+  ctx = await createTestContext({ SIGN_IN_ATTEMPTS_PER_WINDOW: '1000000', SIGN_IN_ATTEMPTS_PER_ADDRESS: '1000000' });
   for (const role of ['planner', 'admin', 'official'] as const) agents.set(role, await signInAs(ctx.app, role));
   const anonymous = request.agent(ctx.app);
   agents.set('signed-out', { agent: anonymous, csrf: await csrfFor(anonymous) });

@@ -41,7 +41,7 @@ export async function startBriefingServer(): Promise<BriefingServer> {
     url,
     smtp,
     organizationId: demo.organizationId,
-    planId: demo.planId,
+    planId: demo.planId!,
     userIds: demo.userIds,
     stop: async () => {
       server.closeAllConnections();
