@@ -17,7 +17,7 @@ import { configureAuthUserCache } from './services/auth-user-cache';
 import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
-import { uploadSlots } from './middleware/upload-slots';
+import { uploadLimits } from './middleware/upload-slots';
 import { createAnswerCache } from './http/answer-cache';
 import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
@@ -113,7 +113,8 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
     errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'Invalid CSRF token' },
   });
   app.use('/api', csrfSynchronisedProtection);
-  app.use('/api', uploadSlots(config.UPLOADS_AT_ONCE));
+  // Upload slots and the body-read time limit, taken by the upload middleware after each route's own checks.
+  app.locals.uploadLimits = uploadLimits(config.UPLOADS_AT_ONCE, config.VERIFY_UPLOADS_AT_ONCE, config.UPLOAD_READ_TIMEOUT_SECONDS);
 
   const answers = createAnswerCache(config.ANSWER_CACHE_MEGABYTES);
   app.use('/api/auth', authRouter({ db, config, passport, csrfToken: generateToken }));

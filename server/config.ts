@@ -75,6 +75,10 @@ const configSchema = z.object({
   UPLOAD_MAX_MEGABYTES: z.coerce.number().positive().max(2048).default(256),
   // Uploads read and imported at once by one process: each is held in memory while it is read.
   UPLOADS_AT_ONCE: z.coerce.number().int().min(1).default(4),
+  // Files the public signature check reads at once per process, apart from members' uploads.
+  VERIFY_UPLOADS_AT_ONCE: z.coerce.number().int().min(1).default(2),
+  // An upload's body must arrive within this time (408 beyond), so a slow sender cannot hold a slot.
+  UPLOAD_READ_TIMEOUT_SECONDS: z.coerce.number().positive().default(120),
   // Briefing e-mail. Empty SMTP_URL with the development outbox on: the server starts its own
   // fake SMTP server on loopback and keeps every message (server/services/briefings/outbox.ts).
   SMTP_URL: z.string().default(''),

@@ -37,7 +37,8 @@ function sendPdf(res: Response, pdf: Buffer, filename: string, download: boolean
 export function briefingsRouter(db: Database, config: Config): Router {
   const router = Router();
   const service = createBriefingService(db, config);
-  const upload = singleFileUpload(Math.min(config.UPLOAD_MAX_MEGABYTES, 32));
+  // Slots of their own: anonymous checks never keep members' uploads waiting.
+  const upload = singleFileUpload(Math.min(config.UPLOAD_MAX_MEGABYTES, 32), 'public');
 
   // Open to anyone, signed in or not: a recipient outside the organisation checks a copy here.
   // Rate-limited per address, before the upload is read, since no account stands behind it.
