@@ -78,3 +78,47 @@ it('backs up, wipes, restores: plans, runs and signed briefings intact, signatur
   expect(after.signed.map((s) => s.sha256)).toEqual(before.signed.map((s) => s.sha256));
   expect(pdfSig(after.signed[0].pdf)).toMatch(/Signature is Valid/);
 }, 120_000);
+
+it('leaves the database intact when the backup is truncated, corrupt or not a backup at all', async () => {
+  const before = await snapshot(ctx.url);
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'cutline-backup-'));
+  const good = path.join(dir, 'good.dump');
+  script('backup.sh', ctx.name, good);
+  const bytes = fs.readFileSync(good);
+  const bad: Record<string, Buffer> = {
+    // The table of contents is whole but the data stops halfway: only restoring finds out.
+    'truncated.dump': bytes.subarray(0, Math.floor(bytes.length * 0.6)),
+    'header-only.dump': bytes.subarray(0, 64),
+    'garbage.dump': Buffer.from('this is not a backup\n'.repeat(100)),
+    // Bytes overwritten in the middle of the compressed data.
+    'corrupt.dump': Buffer.concat([bytes.subarray(0, Math.floor(bytes.length / 2)), Buffer.alloc(4096, 0x5a), bytes.subarray(Math.floor(bytes.length / 2) + 4096)]),
+  };
+  for (const [name, content] of Object.entries(bad)) {
+    const file = path.join(dir, name);
+    fs.writeFileSync(file, content);
+    let failed = false;
+    try {
+      script('restore.sh', file, ctx.name);
+    } catch (err) {
+      failed = true;
+      expect((err as { stderr?: string }).stderr ?? '', name).toMatch(/unchanged/);
+    }
+    expect(failed, name).toBe(true);
+    const after = await snapshot(ctx.url);
+    expect(after.plans, name).toEqual(before.plans);
+    expect(after.runs, name).toEqual(before.runs);
+    expect(after.segments, name).toBe(before.segments);
+    expect(after.signed.map((s) => s.sha256), name).toEqual(before.signed.map((s) => s.sha256));
+  }
+  // No scratch database is left behind, and the good backup still restores.
+  const admin = new pg.Client({ connectionString: new URL('/postgres', ctx.url).toString() });
+  await admin.connect();
+  try {
+    const left = await admin.query(`SELECT datname FROM pg_database WHERE datname LIKE $1`, [`${ctx.name.slice(0, 40)}_re%`]);
+    expect(left.rows).toEqual([]);
+  } finally {
+    await admin.end();
+  }
+  script('restore.sh', good, ctx.name);
+  expect((await snapshot(ctx.url)).plans).toEqual(before.plans);
+}, 180_000);
