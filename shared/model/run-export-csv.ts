@@ -35,7 +35,7 @@ export function curveCsv(result: RunResult): string {
   const { stepMinutes, deliveredVehicles } = result.curve;
   const demand = result.headline.demandVehicles;
   return toCsv(
-    ['step', 'minutes', 'delivered_vehicles', 'share_of_demand'],
+    ['step', 'minutes', 'arrived_vehicles', 'share_of_demand'],
     deliveredVehicles.map((v, i) => [i, Number(((i) * stepMinutes).toFixed(3)), v, demand > 0 ? Number((v / demand).toFixed(4)) : null]),
   );
 }

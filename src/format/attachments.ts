@@ -1,6 +1,6 @@
 // Which road junctions a zone feeds and a shelter takes from, in words.
 import type { Attachments } from '@shared/api/zones-shelters';
-import { formatCount, formatMeters } from './numbers';
+import { formatCount, formatMeters } from '@shared/format/numbers';
 
 type ZoneAttachment = Attachments['zones'][number];
 type ShelterAttachment = Attachments['shelters'][number];

@@ -4,7 +4,7 @@
 import type { BadFeature, DropReason, ImportReport } from '@shared/api/road-import';
 import { roadClassLooks } from '@/map/road-style';
 import type { Bbox } from '@/map/viewport';
-import { formatCount, formatMeters, formatShare } from './numbers';
+import { formatCount, formatMeters, formatShare } from '@shared/format/numbers';
 
 export type ReportLocation = { kind: 'point'; lon: number; lat: number } | { kind: 'bbox'; bbox: Bbox };
 export type ReportItem = { text: string; location?: ReportLocation; label?: string };

@@ -4,7 +4,7 @@
 import { headlineDifferences, headlineKeys, type ChokePointPresence } from '@shared/model/compare-runs';
 import type { Run, RunResult } from '@shared/api/runs';
 import type { Scenario } from '@shared/api/scenarios';
-import { formatCount, formatDuration } from './numbers';
+import { formatCount, formatDuration } from '@shared/format/numbers';
 
 const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -28,11 +28,11 @@ type HeadlineKey = (typeof headlineKeys)[number];
 const rowMeta: Record<HeadlineKey, { label: string; kind: 'perHour' | 'count' | 'minutes'; unit: string; better: 'higher' | 'lower' }> = {
   steadyStatePersonsPerHour: { label: 'Evacuees per hour, steady state', kind: 'perHour', unit: 'persons/h', better: 'higher' },
   steadyStateVehiclesPerHour: { label: 'Vehicles per hour, steady state', kind: 'perHour', unit: 'veh/h', better: 'higher' },
-  deliveredPersons: { label: 'Persons safe within the horizon', kind: 'count', unit: 'persons', better: 'higher' },
+  deliveredPersons: { label: 'Persons at a shelter or exit within the horizon', kind: 'count', unit: 'persons', better: 'higher' },
   clearanceMinutes: { label: 'Clearance time', kind: 'minutes', unit: '', better: 'lower' },
-  p50Minutes: { label: 'Half safe after', kind: 'minutes', unit: '', better: 'lower' },
-  p90Minutes: { label: '90 % safe after', kind: 'minutes', unit: '', better: 'lower' },
-  p95Minutes: { label: '95 % safe after', kind: 'minutes', unit: '', better: 'lower' },
+  p50Minutes: { label: 'Half arrived after', kind: 'minutes', unit: '', better: 'lower' },
+  p90Minutes: { label: '90 % arrived after', kind: 'minutes', unit: '', better: 'lower' },
+  p95Minutes: { label: '95 % arrived after', kind: 'minutes', unit: '', better: 'lower' },
 };
 
 export type ComparisonCell = { value: string; difference: string; tone: 'better' | 'worse' | 'same' | 'none' };

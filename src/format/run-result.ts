@@ -1,9 +1,10 @@
 // What the findings show, computed from a stored run result: the headline figures in words,
-// bottlenecks in order of impact, utilisation per road segment for the map, the curve series,
+// utilisation per road segment for the map, the curve series,
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
 import { cutShare } from '@shared/model/cut-share';
 import type { ArcFlow, Bottleneck, RunResult, RunStatus } from '@shared/api/runs';
-import { formatCount, formatDuration, formatPerHour, formatShare, formatWindows } from './numbers';
+import { formatPerHour, formatShare, formatWindows } from '@shared/format/numbers';
+import { headlineFigures, NINETY_PERCENT_NOTE, type HeadlineFigure } from '@shared/format/headline';
 
 export const runStatusLabels: Record<RunStatus, string> = {
   queued: 'Waiting to start',
@@ -19,48 +20,28 @@ export type HeadlineTile = {
   key: string;
   label: string;
   value: string;
-  detail: string;
+  notes: string[];
   /** Labelled values shown as rows instead of one figure (the 50/90/95 % times). */
   rows?: { label: string; value: string }[];
 };
 
+/** Four tiles from the headline figures the briefing prints (shared/format/headline.ts): the
+ *  first three as they are, the 50/90/95 % times as rows of one tile. */
 export function headlineTiles(result: RunResult): HeadlineTile[] {
-  const h = result.headline;
-  const share = h.demandPersons > 0 ? h.deliveredPersons / h.demandPersons : 0;
+  const figures = headlineFigures(result);
+  const byKey = (k: HeadlineFigure['key']) => figures.find((f) => f.key === k)!;
+  const times = (['p50', 'p90', 'p95'] as const).map(byKey);
   return [
-    {
-      key: 'throughput',
-      label: 'Evacuees per hour',
-      value: formatCount(h.steadyStatePersonsPerHour),
-      detail: `${formatPerHour(h.steadyStateVehiclesPerHour)} once traffic is steady (an upper bound)`,
-    },
-    {
-      key: 'delivered',
-      label: `Safe within ${formatDuration(h.horizonMinutes)}`,
-      value: formatCount(h.deliveredPersons),
-      detail: `${formatShare(share)} of ${formatCount(h.demandPersons)} evacuating persons`,
-    },
-    {
-      key: 'clearance',
-      label: 'Clearance time',
-      value: h.clearanceMinutes === null ? `Over ${formatDuration(h.horizonMinutes)}` : formatDuration(h.clearanceMinutes),
-      detail:
-        h.clearanceMinutes === null
-          ? `Not everyone is safe within the ${formatDuration(h.horizonMinutes)} horizon.`
-          : 'until the last vehicle reaches safety',
-    },
+    ...(['throughput', 'arrived', 'clearance'] as const).map((k) => {
+      const f = byKey(k);
+      return { key: f.key, label: f.label, value: f.value, notes: f.notes };
+    }),
     {
       key: 'percentiles',
-      label: 'Share safe after',
-      value: [h.p50Minutes, h.p90Minutes, h.p95Minutes].map((m) => (m === null ? '–' : formatDuration(m))).join(' · '),
-      detail: '',
-      rows: (
-        [
-          ['50 %', h.p50Minutes],
-          ['90 %', h.p90Minutes],
-          ['95 %', h.p95Minutes],
-        ] as const
-      ).map(([label, m]) => ({ label, value: m === null ? 'not within' : formatDuration(m) })),
+      label: 'Share arrived after',
+      value: times.map((f) => f.value).join(' · '),
+      notes: [NINETY_PERCENT_NOTE],
+      rows: times.map((f) => ({ label: f.label.replace(' arrived after', ''), value: f.value })),
     },
   ];
 }
@@ -71,14 +52,6 @@ export { cutShare };
 export function cutWindowsText(b: Bottleneck): string {
   if (b.cutWindows.length > 0) return formatWindows(b.cutWindows);
   return b.inStaticCut ? 'once traffic is steady' : 'none';
-}
-
-/** Largest share of the cut first; equal shares by what one more lane gains. */
-export function bottlenecksByImpact(bottlenecks: readonly Bottleneck[], steadyStateVehiclesPerHour = 0): Bottleneck[] {
-  const share = (b: Bottleneck) => cutShare(b, steadyStateVehiclesPerHour);
-  return [...bottlenecks].sort(
-    (a, b) => share(b) - share(a) || b.gainPerExtraLaneVehiclesPerHour - a.gainPerExtraLaneVehiclesPerHour || a.segmentId - b.segmentId,
-  );
 }
 
 export type SegmentLoad = { utilisation: number; forward: ArcFlow | null; backward: ArcFlow | null };
@@ -97,7 +70,7 @@ export function loadBySegment(arcs: readonly ArcFlow[]): Map<number, SegmentLoad
 
 export const bottleneckKey = (b: Pick<Bottleneck, 'segmentId' | 'direction'>) => `${b.segmentId}:${b.direction}`;
 
-/** Cumulative vehicles safe by each step, as chart points (x in hours after the order; step i
+/** Cumulative vehicles arrived by each step, as chart points (x in hours after the order; step i
  *  is at i × stepMinutes, as in the server's curve.csv). */
 export function curvePoints(result: RunResult): { x: number; y: number }[] {
   const { stepMinutes, deliveredVehicles } = result.curve;

@@ -2,7 +2,7 @@
 // weather presets for the capacity factor, and validation with the server's schema.
 import { algorithmSchema, defaultRunParameters, runParametersSchema, type AlgorithmChoice, type RunParameters } from '@shared/api/runs';
 import { CAPACITY_FACTOR_PRESETS } from '@shared/model/capacity-factors';
-import { formatDuration } from '@/format/numbers';
+import { formatDuration } from '@shared/format/numbers';
 import { numberFrom, parseForm, type FieldErrors } from './zod-errors';
 
 export type RunParameterKey = 'horizonMinutes' | 'timeStepSeconds' | 'capacityFactor';

@@ -4,7 +4,7 @@
 import { scenarioOverlaySchema, type ScenarioOverlay } from '@shared/api/scenarios';
 import type { RoadClass } from '@shared/api/road-attributes';
 import type { ShelterCreate } from '@shared/api/zones-shelters';
-import { formatDuration } from '@/format/numbers';
+import { formatDuration } from '@shared/format/numbers';
 import { parseForm, type FieldErrors } from './zod-errors';
 
 export type Direction = 'forward' | 'backward';

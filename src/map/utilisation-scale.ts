@@ -1,6 +1,7 @@
 // Result colours: a warm sequential ramp for the share of an arc's capacity in use at steady
 // state, and one contrasting look (deep violet over a white casing) for the choke points, so
 // that they read on any part of the ramp. Pure: colours and path options only.
+import { CHOKE_POINT_COLOUR } from '@shared/format/colours';
 import type { LineStyle } from './road-style';
 
 export type UtilisationBand = { from: number; label: string; color: string };
@@ -31,7 +32,7 @@ export function utilisationStyle(utilisation: number, baseWeight: number): LineS
   return { color: utilisationColor(u), weight: Math.round((baseWeight + 3 * u) * 10) / 10, opacity: 0.95, lineCap: 'round' };
 }
 
-export const chokePointColor = '#4a1d7a';
+export const chokePointColor = CHOKE_POINT_COLOUR;
 export const chokePointCasing: LineStyle = { color: '#ffffff', weight: 13, opacity: 0.95, lineCap: 'round' };
 export const chokePointLine: LineStyle = { color: chokePointColor, weight: 7, opacity: 1, lineCap: 'round' };
 /** The one picked in the table: thicker and with a bright edge. */

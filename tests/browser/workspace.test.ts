@@ -105,7 +105,7 @@ it('goes from the plans list to choke points on the map', async () => {
   // Analyse, follow the progress, read the findings.
   await page.locator('[data-test="analyse"]').click();
   await page.locator('[data-test="headline-throughput"]').waitFor({ timeout: 90_000 });
-  const throughput = Number((await page.locator('[data-test="headline-throughput"] [data-test="headline-value"]').innerText()).replaceAll(',', ''));
+  const throughput = Number((await page.locator('[data-test="headline-throughput"] [data-test="headline-value"]').innerText()).replace(/ persons\/h$/, '').replaceAll(',', ''));
   expect(throughput).toBeGreaterThan(0);
   expect(await page.locator('[data-test="caution"]').innerText()).toContain("emergency operations plan");
   expect(await page.locator('[data-test="bottleneck-row"]').count()).toBeGreaterThan(0);

@@ -3,7 +3,9 @@
 import { describe, expect, it } from 'vitest';
 import { runResultSchema, type RunResult } from '../../shared/api/runs';
 import { curveCsv } from '../../shared/model/run-export-csv';
-import { bottlenecksByImpact, chokePointContext, chokePointPopupHtml, curvePoints, cutShare, cutWindowsText, headlineTiles, laneGainText, loadBySegment, roadTitle } from '../../src/format/run-result';
+import { rankChokePoints } from '../../shared/format/choke-points';
+import { extrapolatedClearanceMinutes } from '../../shared/format/headline';
+import { chokePointContext, chokePointPopupHtml, curvePoints, cutShare, cutWindowsText, headlineTiles, laneGainText, loadBySegment, roadTitle } from '../../src/format/run-result';
 
 function result(over: Partial<RunResult['headline']> = {}): RunResult {
   return runResultSchema.parse({
@@ -40,27 +42,45 @@ function result(over: Partial<RunResult['headline']> = {}): RunResult {
 }
 
 describe('run result wording', () => {
-  it('gives the four headline figures in words, "not within the horizon" when clearance is missing', () => {
-    expect(headlineTiles(result({ deliveredPersons: 21_990 }))[1]!.detail).toBe('99.9 % of 22,000 evacuating persons');
+  it('gives the four headline figures in words that claim arrivals, not safety', () => {
+    expect(headlineTiles(result({ deliveredPersons: 21_990 }))[1]!.notes[0]).toBe('99.9 % of 22,000 persons leaving are at a shelter or exit.');
     const tiles = headlineTiles(result());
-    expect(tiles.map((t) => t.key)).toEqual(['throughput', 'delivered', 'clearance', 'percentiles']);
-    expect(tiles[0]!.value).toBe('12,320');
-    expect(tiles[0]!.detail).toContain('5,600 veh/h');
-    expect(tiles[1]!.label).toBe('Safe within 6 h');
-    expect(tiles[1]!.detail).toBe('90 % of 22,000 evacuating persons');
+    expect(tiles.map((t) => t.key)).toEqual(['throughput', 'arrived', 'clearance', 'percentiles']);
+    expect(tiles[0]!.value).toBe('12,320 persons/h');
+    expect(tiles[0]!.notes[0]).toContain('5,600 veh/h');
+    expect(tiles[1]!.label).toBe('Arrived within 6 h');
+    expect(tiles[1]!.notes).toEqual(['90 % of 22,000 persons leaving are at a shelter or exit.', 'Vehicles arrived: 9,000 of 10,000.']);
     expect(tiles[2]!.value).toBe('Over 6 h');
-    expect(tiles[2]!.detail).toBe('Not everyone is safe within the 6 h horizon.');
-    expect(tiles[3]!.value).toBe('1 h 35 min · 4 h 50 min · –');
+    expect(tiles[2]!.notes[0]).toBe('90 % arrived by the 6 h horizon.');
+    expect(tiles[3]!.label).toBe('Share arrived after');
+    expect(tiles[3]!.value).toBe('1 h 35 min · 4 h 50 min · Over 6 h');
     expect(tiles[3]!.rows).toEqual([
       { label: '50 %', value: '1 h 35 min' },
       { label: '90 %', value: '4 h 50 min' },
-      { label: '95 %', value: 'not within' },
+      { label: '95 %', value: 'Over 6 h' },
     ]);
     expect(headlineTiles(result({ clearanceMinutes: 250 }))[2]!.value).toBe('4 h 10 min');
+    for (const t of tiles) expect(JSON.stringify(t)).not.toMatch(/\bsafe/i);
+  });
+
+  it('extrapolates the last clearance from the horizon\'s last hour, and says it is an extrapolation', () => {
+    // 1,000 vehicles still to arrive; the last 60 one-minute steps brought 600 (10 per minute),
+    // so at that rate the rest need 100 min more: 360 + 100 = 460 min = 7 h 40 min.
+    const delivered = Array.from({ length: 361 }, (_, i) => (i <= 300 ? Math.round(i * 28) : 8400 + (i - 300) * 10));
+    const r = { ...result(), curve: { stepMinutes: 1, deliveredVehicles: delivered } };
+    expect(delivered[360]).toBe(9000);
+    expect(extrapolatedClearanceMinutes(r)).toBeCloseTo(460, 9);
+    expect(headlineTiles(r)[2]!.notes[1]).toBe("About 7 h 40 min if the last hour's arrival rate holds (an extrapolation, not a model result).");
+    // A flat last hour: nothing to carry on, and it says so.
+    const flat = { ...r, curve: { stepMinutes: 1, deliveredVehicles: delivered.map((v, i) => (i > 290 ? delivered[290]! : v)) } };
+    expect(extrapolatedClearanceMinutes(flat)).toBeNull();
+    expect(headlineTiles(flat)[2]!.notes[1]).toMatch(/^No arrivals in the horizon's last hour/);
+    // Everyone arrived: no extrapolation.
+    expect(extrapolatedClearanceMinutes({ ...r, headline: { ...r.headline, clearanceMinutes: 300 } })).toBeNull();
   });
 
   it('orders choke points by share of the cut, then by what one more lane gains', () => {
-    expect(bottlenecksByImpact(result().bottlenecks).map((b) => b.segmentId)).toEqual([4, 3, 5]);
+    expect(rankChokePoints(result().bottlenecks, 0).map((b) => b.segmentId)).toEqual([4, 3, 5]);
   });
 
   it('keeps the busier direction per segment for the map colour', () => {
@@ -91,7 +111,7 @@ describe('run result wording', () => {
     expect(shares.reduce((a, b) => a + b, 0)).toBeCloseTo((750 + 2000 + 2000) / 5600, 12);
     expect(cutShare({ ...staticOnly[0]!, inStaticCut: false }, 5600)).toBe(0);
     expect(cutWindowsText(staticOnly[0]!)).toBe('once traffic is steady');
-    expect(bottlenecksByImpact(staticOnly, 5600).map((b) => b.segmentId)).toEqual([4, 3, 5]);
+    expect(rankChokePoints(staticOnly, 5600).map((b) => b.segmentId)).toEqual([4, 3, 5]);
   });
 
   it('tells a gain of nothing from a gain not worked out', () => {

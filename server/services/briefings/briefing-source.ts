@@ -8,7 +8,7 @@ import { organizations, plans, roadLayers, runs, scenarios, shelters, users, zon
 import { roleLabels, type Role } from '../../../shared/api/roles';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
 import type { BriefingInput, LonLat, MapSegment, MapZone } from './briefing-input';
-import { formatCount, formatDate, formatDecimal } from './format';
+import { formatCount, formatDate, formatDecimal } from '../../../shared/format/numbers';
 import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
 import { ConflictError, NotFoundError } from '../../errors';
 import { getCapacityTable } from '../capacity-table';

@@ -1,7 +1,7 @@
 // The one-paragraph summary in plain words, built from the stored figures only.
 import type { BriefingInput } from './briefing-input';
-import { formatCount, formatDuration, formatPercent, formatSpan } from './format';
-import { rankBottlenecks, rankFixes } from './rankings';
+import { formatCount, formatDuration, formatShare, formatSpan } from '../../../shared/format/numbers';
+import { rankedChokePoints, rankFixes } from './rankings';
 import { roadNamer } from './road-labels';
 
 function listInWords(items: string[]): string {
@@ -15,7 +15,7 @@ export function briefingSummary(input: BriefingInput): string {
   const parts: string[] = [];
 
   parts.push(
-    `Under the assumptions set out in this briefing, the roads from the evacuation zones to the shelters can carry at most about ` +
+    `Under the assumptions set out in this briefing, the roads from the evacuation zones to the shelters and exits can carry at most about ` +
       `${formatCount(h.steadyStatePersonsPerHour)} people (${formatCount(h.steadyStateVehiclesPerHour)} vehicles) per hour once traffic is flowing.`,
   );
 
@@ -24,26 +24,26 @@ export function briefingSummary(input: BriefingInput): string {
     parts.push('No one is expected to leave in this run, so there is nothing to clear.');
   } else if (h.clearanceMinutes !== null) {
     parts.push(
-      `All ${formatCount(h.demandPersons)} people expected to leave (${formatCount(h.demandVehicles)} vehicles) reach a shelter within the ${horizon} studied; ` +
+      `All ${formatCount(h.demandPersons)} people expected to leave (${formatCount(h.demandVehicles)} vehicles) arrive at a shelter or exit within the ${horizon} studied; ` +
         `the last arrives ${formatDuration(h.clearanceMinutes)} after the evacuation order.`,
     );
   } else {
     const remainingPersons = Math.max(0, h.demandPersons - h.deliveredPersons);
     parts.push(
-      `Of the ${formatCount(h.demandPersons)} people expected to leave (${formatCount(h.demandVehicles)} vehicles), ${formatCount(h.deliveredPersons)} reach a shelter within the ${horizon} studied; ` +
-        `about ${formatCount(remainingPersons)} (${formatPercent(remainingPersons / h.demandPersons)}) are still on the way when that period ends.`,
+      `Of the ${formatCount(h.demandPersons)} people expected to leave (${formatCount(h.demandVehicles)} vehicles), ${formatCount(h.deliveredPersons)} arrive at a shelter or exit within the ${horizon} studied; ` +
+        `about ${formatCount(remainingPersons)} (${formatShare(remainingPersons / h.demandPersons)}) are still on the way when that period ends.`,
     );
   }
 
   const times: string[] = [];
-  if (h.p50Minutes !== null) times.push(`half are at a shelter after ${formatDuration(h.p50Minutes)}`);
+  if (h.p50Minutes !== null) times.push(`half have arrived after ${formatDuration(h.p50Minutes)}`);
   if (h.p90Minutes !== null) times.push(`90 % after ${formatDuration(h.p90Minutes)}`);
   if (h.p95Minutes !== null) times.push(`95 % after ${formatDuration(h.p95Minutes)}`);
   if (times.length > 0) parts.push(`${times.join(', ').replace(/^./, (c) => c.toUpperCase())}.`);
 
-  const bottlenecks = rankBottlenecks(input.result).slice(0, 3);
+  const bottlenecks = rankedChokePoints(input.result).slice(0, 3);
   if (bottlenecks.length > 0) {
-    parts.push(`The roads that set the limit are ${listInWords(bottlenecks.map((b) => roads.label(b)))}.`);
+    parts.push(`The choke points, the roads that set the limit, are ${listInWords(bottlenecks.map((b) => roads.label(b)))}.`);
   }
   const [best] = rankFixes(input.result);
   if (best) {

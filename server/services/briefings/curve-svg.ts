@@ -1,7 +1,7 @@
-// The evacuation curve as an SVG chart: vehicles at a shelter against minutes after the order,
+// The evacuation curve as an SVG chart: vehicles arrived at a shelter or exit against minutes after the order,
 // the number to move as a dashed line, the 50/90/95 % times and the clearance time marked.
 // A persons axis on the right reads the same curve at the run's persons per vehicle.
-import { formatCount, formatDuration } from './format';
+import { formatCount, formatDuration } from '../../../shared/format/numbers';
 import { n, polylinePoints, svgText } from './svg-text';
 
 export type CurveSvgInput = {
@@ -70,7 +70,7 @@ export function curveSvg(input: CurveSvgInput): string {
     `<line x1="${n(left)}" y1="${n(top + plotH)}" x2="${n(left + plotW)}" y2="${n(top + plotH)}" stroke="${CURVE_COLOURS.axis}" stroke-width="0.8"/>`,
     `<line x1="${n(left)}" y1="${n(top)}" x2="${n(left)}" y2="${n(top + plotH)}" stroke="${CURVE_COLOURS.axis}" stroke-width="0.8"/>`,
     small(left + plotW / 2, height - 8, 'Minutes after the evacuation order'),
-    `<text x="0" y="0" font-family="Roboto" font-size="7.5" fill="${CURVE_COLOURS.text}" text-anchor="middle" transform="translate(${n(14)} ${n(top + plotH / 2)}) rotate(-90)">Vehicles at a shelter</text>`,
+    `<text x="0" y="0" font-family="Roboto" font-size="7.5" fill="${CURVE_COLOURS.text}" text-anchor="middle" transform="translate(${n(14)} ${n(top + plotH / 2)}) rotate(-90)">Vehicles arrived</text>`,
   );
   if (input.personsPerVehicle) {
     const ppv = input.personsPerVehicle;
@@ -129,7 +129,7 @@ export function curveSvg(input: CurveSvgInput): string {
     const roomRight = left + plotW - x > 130;
     out.push(
       `<line x1="${n(x)}" y1="${n(top)}" x2="${n(x)}" y2="${n(top + plotH)}" stroke="${CURVE_COLOURS.clear}" stroke-width="1"/>`,
-      svgText(roomRight ? x + 5 : x - 5, top + 8, `All at a shelter by ${formatDuration(input.clearanceMinutes)}`, {
+      svgText(roomRight ? x + 5 : x - 5, top + 8, `All arrived by ${formatDuration(input.clearanceMinutes)}`, {
         size: 7.5,
         fill: CURVE_COLOURS.clear,
         anchor: roomRight ? 'start' : 'end',
@@ -139,7 +139,7 @@ export function curveSvg(input: CurveSvgInput): string {
     );
   } else {
     out.push(
-      svgText(left + plotW - 4, top + 8, `Not everyone reaches a shelter within ${formatDuration(input.horizonMinutes)}`, {
+      svgText(left + plotW - 4, top + 8, `Not everyone has arrived within ${formatDuration(input.horizonMinutes)}`, {
         size: 7.5,
         fill: CURVE_COLOURS.mark,
         anchor: 'end',

@@ -1,7 +1,7 @@
 // The zones' departure curves in words for the briefing's assumptions: one phrase per distinct
 // curve, naming the zones that use it. Pure.
 import type { DepartureCurve } from '../../../shared/api/zone-shelter-attributes';
-import { formatDecimal } from './format';
+import { formatDecimal } from '../../../shared/format/numbers';
 
 const S_CURVE_SOURCE = 'Li, Ozbay, Bartin et al. 2013, TRR 2376';
 

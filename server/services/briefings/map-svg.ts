@@ -1,10 +1,11 @@
 // The road network as an SVG figure for the briefing: roads by class, evacuation zones,
-// shelters, the limiting roads in red with their rank, a legend and a scale bar.
+// shelters and exits, the choke points with their rank, a legend and a scale bar.
 // Drawn from the stored geometries on the server (no tiles, no screenshot), north up, with the
 // equirectangular projection of map-projection.ts.
 import type { BriefingMapInput, LonLat, MapSegment } from './briefing-input';
 import { boundsOf, equirectangularAbout, fitToBox, type PageFit } from './map-projection';
 import { n, polylinePoints, svgText } from './svg-text';
+import { CHOKE_POINT_COLOUR } from '../../../shared/format/colours';
 
 export type ChokePoint = { segmentId: number; rank: number };
 
@@ -17,7 +18,7 @@ export type MapSvgInput = BriefingMapInput & {
 
 type RoadStyle = { stroke: string; width: number; order: number; legend: 'major' | 'connector' | 'local' };
 
-// Darker and wider for the roads that carry more; the limiting roads are the only red on the page.
+// Darker and wider for the roads that carry more; the choke points are the only violet on the page.
 const roadStyles: Record<string, RoadStyle> = {
   motorway: { stroke: '#3d4852', width: 3.4, order: 6, legend: 'major' },
   trunk: { stroke: '#3d4852', width: 3.0, order: 6, legend: 'major' },
@@ -37,7 +38,7 @@ export function roadStyle(roadClass: string): RoadStyle {
 }
 
 export const MAP_COLOURS = {
-  choke: '#c92a2a',
+  choke: CHOKE_POINT_COLOUR,
   zoneFill: '#364fc7',
   zoneText: '#283a94',
   shelter: '#2b8a3e',
@@ -153,13 +154,13 @@ function drawLegend(x: number, y: number, width: number, scale: number): string 
   out.push(line(x, row2, roadStyle('tertiary').stroke, 1.8), t(x + 28, row2 + 2.6, 'Secondary or tertiary road'));
   const c2 = x + 158;
   out.push(line(c2, row1, localRoad.stroke, 1.1), t(c2 + 28, row1 + 2.6, 'Local street'));
-  out.push(line(c2, row2, MAP_COLOURS.choke, 3.6), badge(c2 + 11, row2, 1), t(c2 + 28, row2 + 2.6, 'Limiting road and its rank'));
+  out.push(line(c2, row2, MAP_COLOURS.choke, 3.6), badge(c2 + 11, row2, 1), t(c2 + 28, row2 + 2.6, 'Choke point and its rank'));
   const c3 = x + 300;
   out.push(
     `<rect x="${n(c3)}" y="${n(row1 - 5)}" width="22" height="10" fill="${MAP_COLOURS.zoneFill}" fill-opacity="0.12" stroke="${MAP_COLOURS.zoneFill}" stroke-width="0.9" stroke-dasharray="3 2"/>`,
     t(c3 + 28, row1 + 2.6, 'Evacuation zone'),
   );
-  out.push(shelterMarker(c3 + 11, row2), t(c3 + 28, row2 + 2.6, 'Shelter'));
+  out.push(shelterMarker(c3 + 11, row2), t(c3 + 28, row2 + 2.6, 'Shelter or exit'));
 
   // Scale bar, right-aligned: two alternating halves so the midpoint can be read off.
   const barM = scaleBarLength(scale, Math.min(120, width * 0.22));
@@ -185,8 +186,8 @@ function northArrow(x: number, y: number): string {
 }
 
 /**
- * The map as an SVG string (width × height in pt). Limiting roads are drawn last, in red, with
- * the rank of their best (lowest) entry in the bottleneck table at their midpoint.
+ * The map as an SVG string (width × height in pt). Choke points are drawn last, in violet, with
+ * the rank of their best (lowest) entry in the choke-point table at their midpoint.
  */
 export function mapSvg(input: MapSvgInput): string {
   const width = input.width ?? 516;

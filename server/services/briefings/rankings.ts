@@ -1,22 +1,18 @@
-// The order in which a briefing lists limiting roads and fixes, shared by the tables, the map
-// badges and the summary so that "rank 1" means the same road everywhere.
+// The order in which a briefing lists choke points and fixes. Choke points are ranked by the
+// same function as the workspace (shared/format/choke-points.ts), so "rank 1" is the same road
+// on the screen, in the tables, the map badges and the summary.
 import { cutShare } from '../../../shared/model/cut-share';
+import { rankChokePoints } from '../../../shared/format/choke-points';
 import type { Bottleneck, Fix, RunResult } from '../../../shared/api/runs';
 
-/** A limiting road's share of the limit, as the workspace shows it. */
+/** A choke point's share of the limit, as the workspace shows it. */
 export function shareOfLimit(result: RunResult, b: Bottleneck): number {
   return cutShare(b, result.headline.steadyStateVehiclesPerHour);
 }
 
-/** Largest share of the limit first; ties by lower capacity, then segment id (stable output). */
-export function rankBottlenecks(result: RunResult): Bottleneck[] {
-  return [...result.bottlenecks].sort(
-    (a, b) =>
-      shareOfLimit(result, b) - shareOfLimit(result, a) ||
-      a.capacityVehiclesPerHour - b.capacityVehiclesPerHour ||
-      a.segmentId - b.segmentId ||
-      a.direction.localeCompare(b.direction),
-  );
+/** The result's choke points in the one shared order. */
+export function rankedChokePoints(result: RunResult): Bottleneck[] {
+  return rankChokePoints(result.bottlenecks, result.headline.steadyStateVehiclesPerHour);
 }
 
 /** The most valuable fix first: the largest gain in vehicles per hour. Fixes gaining nothing are left out. */
@@ -26,7 +22,7 @@ export function rankFixes(result: RunResult): Fix[] {
     .sort((a, b) => b.gainVehiclesPerHour - a.gainVehiclesPerHour || a.segmentId - b.segmentId || a.direction.localeCompare(b.direction));
 }
 
-/** Map badges: each ranked bottleneck's segment with its rank (1-based). */
+/** Map badges: each ranked choke point's segment with its rank (1-based). */
 export function chokePointRanks(result: RunResult): { segmentId: number; rank: number }[] {
-  return rankBottlenecks(result).map((b, i) => ({ segmentId: b.segmentId, rank: i + 1 }));
+  return rankedChokePoints(result).map((b, i) => ({ segmentId: b.segmentId, rank: i + 1 }));
 }

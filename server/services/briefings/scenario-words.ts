@@ -1,7 +1,7 @@
 // A scenario's overlay in words for the briefing's assumptions, so that a scenario run's
 // briefing says what was changed from the plan's own data. Pure.
 import type { ScenarioOverlay } from '../../../shared/api/scenarios';
-import { formatDecimal, formatDuration } from './format';
+import { formatDecimal, formatDuration } from '../../../shared/format/numbers';
 
 export type ScenarioNames = { segment: (id: number) => string; zone: (id: number) => string; shelter: (id: number) => string };
 

@@ -3,10 +3,10 @@
 import { describe, expect, it } from 'vitest';
 import { canonicalJson, contentSha256, sha256Hex, sha256OfStoredContent, storedBriefingContent } from '../../../server/services/briefings/content-fingerprint';
 import { curveSvg, minuteStep, niceStep } from '../../../server/services/briefings/curve-svg';
-import { formatCount, formatDuration, formatPercent, formatSpan, formatStep } from '../../../server/services/briefings/format';
+import { formatCount, formatDuration, formatShare, formatSpan, formatStep } from '../../../shared/format/numbers';
 import { equirectangularAbout, travelDirection } from '../../../server/services/briefings/map-projection';
 import { mapSvg, midpointAlong, scaleBarLength } from '../../../server/services/briefings/map-svg';
-import { chokePointRanks, rankBottlenecks, rankFixes } from '../../../server/services/briefings/rankings';
+import { chokePointRanks, rankedChokePoints, rankFixes } from '../../../server/services/briefings/rankings';
 import { roadNamer } from '../../../server/services/briefings/road-labels';
 import { briefingInput, km, result, segments, shelters, zones } from '../../fixtures/briefing/demo-town-briefing';
 
@@ -84,7 +84,7 @@ describe('map figure', () => {
     const badges = [...svg.matchAll(/fill="#ffffff">(\d)<\/text>/g)].map((m) => m[1]);
     // Rank 1 in the legend, then the three ranked roads.
     expect(badges.sort()).toEqual(['1', '1', '2', '3']);
-    expect((svg.match(/stroke="#c92a2a"/g) ?? []).length).toBe(3 + 1);
+    expect((svg.match(/stroke="#4a1d7a"/g) ?? []).length).toBe(3 + 1);
   });
 
   it('says so when there is no geometry instead of drawing an empty frame', () => {
@@ -105,18 +105,18 @@ describe('curve figure', () => {
   it('marks 50/90/95 % and clearance, or says the horizon was not enough', () => {
     const base = { stepMinutes: 5, deliveredVehicles: result.curve.deliveredVehicles, demandVehicles: 3000, horizonMinutes: 180, p50Minutes: 70, p90Minutes: 110, p95Minutes: 120 };
     const cleared = curveSvg({ ...base, clearanceMinutes: 130, personsPerVehicle: 2.4 });
-    for (const label of ['50 % by 1 h 10 min', '90 % by 1 h 50 min', '95 % by 2 h', 'All at a shelter by 2 h 10 min', 'To move: 3,000 vehicles', 'Persons (at 2.4 per vehicle)']) {
+    for (const label of ['50 % by 1 h 10 min', '90 % by 1 h 50 min', '95 % by 2 h', 'All arrived by 2 h 10 min', 'To move: 3,000 vehicles', 'Persons (at 2.4 per vehicle)']) {
       expect(cleared).toContain(label);
     }
     const open = curveSvg({ ...base, p95Minutes: null, clearanceMinutes: null });
     expect(open).not.toContain('95 % by');
-    expect(open).toContain('Not everyone reaches a shelter within 3 h');
+    expect(open).toContain('Not everyone has arrived within 3 h');
   });
 });
 
 describe('rankings and road names', () => {
   it('ranks limiting roads by share of the limit and fixes by gain', () => {
-    expect(rankBottlenecks(result).map((b) => b.name)).toEqual(['Mill Bridge Road', 'Quarry Lane', 'Harbor Avenue']);
+    expect(rankedChokePoints(result).map((b) => b.name)).toEqual(['Mill Bridge Road', 'Quarry Lane', 'Harbor Avenue']);
     expect(rankFixes(result).map((f) => [f.name, f.gainVehiclesPerHour])).toEqual([
       ['Mill Bridge Road', 600],
       ['Ferry Street', 520],
@@ -147,8 +147,8 @@ describe('number formats', () => {
     expect(formatDuration(130)).toBe('2 h 10 min');
     expect(formatDuration(120)).toBe('2 h');
     expect(formatDuration(45)).toBe('45 min');
-    expect(formatPercent(0.048)).toBe('4.8 %');
-    expect(formatPercent(1)).toBe('100 %');
+    expect(formatShare(0.048)).toBe('4.8 %');
+    expect(formatShare(1)).toBe('100 %');
     expect(formatSpan(180)).toBe('3 hours');
     expect(formatSpan(90)).toBe('90 minutes');
     expect(formatStep(300)).toBe('5 minutes');

@@ -1,6 +1,7 @@
 // Mail through a real SMTP conversation on loopback: nodemailer → the fake SMTP server
 // (smtp-server), which keeps the messages. The distribution message's attachment is the signed
 // PDF, byte for byte, and still verifies after the trip.
+import { CAUTION_LINE } from '../../../shared/api/caution';
 import { createHash } from 'node:crypto';
 import nodemailer from 'nodemailer';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -59,6 +60,9 @@ describe('the fake SMTP server', () => {
     expect(m.parsed.html).toContain('href="http://127.0.0.1:3000/briefings/3c9f0e6a-5b2d-4a17-8e4c-7d1b2a9f6e08/review"');
     expect(m.parsed.html).toContain('Bridges &amp; ramps &lt;as discussed&gt;');
     expect(m.parsed.attachments).toEqual([]);
+    // The sign-off request carries the caution too (a planning aid; defer to the plan, codes, engineer).
+    expect(m.parsed.text).toContain(CAUTION_LINE);
+    expect(m.parsed.html).toContain('licensed traffic engineer');
     expect(m.parsed.headers).toContainEqual([BRIEFING_HEADER.toLowerCase(), ref.briefingId]);
     expect(stored).toContain(m.id);
   });
@@ -87,7 +91,7 @@ describe('the fake SMTP server', () => {
     expect(m.envelopeTo).toEqual(['clerk@cutline.example', 'fire@cutline.example']);
     expect(m.parsed.text).toContain('Mina Ashcombe, Emergency Management Director, signed it on 2 December 2026, 14:05 UTC.');
     expect(m.parsed.text).toContain(`SHA-256 of the attached file: ${signed.fileSha256}`);
-    expect(m.parsed.text).toContain('a planning aid, not an order');
+    expect(m.parsed.text).toContain(CAUTION_LINE);
     expect(m.parsed.attachments).toHaveLength(1);
     const [a] = m.parsed.attachments;
     expect(a).toMatchObject({ filename: 'briefing-larkmoor-river-evacuation-v1-3c9f0e6a.pdf', contentType: 'application/pdf', size: signed.pdf.length, sha256: signed.fileSha256 });

@@ -6,7 +6,8 @@
 import nodemailer from 'nodemailer';
 import type Mail from 'nodemailer/lib/mailer';
 import { escapeXml as escapeHtml } from '../svg-text';
-import { formatDateTime } from '../format';
+import { CAUTION_LINE } from '../../../../shared/api/caution';
+import { formatDateTime } from '../../../../shared/format/numbers';
 
 export type MailAddress = { name: string; email: string };
 
@@ -56,7 +57,7 @@ function checkUrl(url: string): string {
   return u.toString();
 }
 
-/** "briefing-larkmoor-river-evacuation-v1-3c9f0e6a.pdf": readable, safe in every mail client. */
+/** "briefing-larkmoor-river-evacuation-v1-3c9f0e6a.pdf": readable, and plain ASCII for every mail client. */
 export function attachmentName(b: BriefingRef): string {
   const slug = b.planName
     .normalize('NFKD')
@@ -80,6 +81,7 @@ export function signOffRequestMessage(m: SignOffRequest, from: string): Mail.Opt
     ...(m.note ? [`Their note: ${m.note}`] : []),
     `Review it in Cutline: ${url}`,
     'You can sign it there or return it with a comment. The draft is not for distribution until it is signed.',
+    CAUTION_LINE,
     `Briefing ${m.briefingId}`,
   ];
   return {
@@ -93,6 +95,7 @@ export function signOffRequestMessage(m: SignOffRequest, from: string): Mail.Opt
       ...(m.note ? [`Their note: ${escapeHtml(m.note)}`] : []),
       `<a href="${escapeHtml(url)}">Review the briefing in Cutline</a>`,
       'You can sign it there or return it with a comment. The draft is not for distribution until it is signed.',
+      escapeHtml(CAUTION_LINE),
       `<small>Briefing ${escapeHtml(m.briefingId)}</small>`,
     ]),
     headers: { [BRIEFING_HEADER]: m.briefingId, [KIND_HEADER]: 'sign-off-request' },
@@ -104,7 +107,7 @@ export function distributionMessage(m: Distribution, from: string): Mail.Options
   const t = title(m);
   const signed = `${m.signedBy.name}, ${m.signedBy.role}, signed it on ${formatDateTime(m.signedBy.signedAt, m.timeZone)}.`;
   const check = `To check that a copy is unaltered, upload it at ${url}. SHA-256 of the attached file: ${m.fileSha256}`;
-  const caution = 'The briefing is a planning aid, not an order; read its cautions before acting on it.';
+  const caution = `${CAUTION_LINE} Read the briefing's cautions before acting on it.`;
   return {
     from,
     to: m.to.map((a) => ({ name: a.name, address: a.email })),

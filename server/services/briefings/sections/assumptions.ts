@@ -2,7 +2,7 @@
 // vehicle, departure curve, time step, horizon, engine and algorithm, and the method by name.
 import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
-import { formatCount, formatDateTime, formatDecimal, formatSpan, formatStep } from '../format';
+import { formatCount, formatDateTime, formatDecimal, formatSpan, formatStep } from '../../../../shared/format/numbers';
 import { COLOURS, dataTable, td, th } from './document-styles';
 
 const algorithmNames: Record<string, string> = {
@@ -83,7 +83,7 @@ export function assumptionsSection(input: BriefingInput): Content[] {
     { text: 'Method', style: 'h2', margin: [0, 14, 0, 4] },
     {
       text:
-        'Evacuees per hour is the maximum flow from the evacuation zones to the shelters through the road network at steady state; the limiting roads are a minimum cut of that flow (max-flow min-cut theorem, Ford & Fulkerson). ' +
+        'Evacuees per hour is the maximum flow from the evacuation zones to the shelters through the road network at steady state; the choke points are a minimum cut of that flow (max-flow min-cut theorem, Ford & Fulkerson). ' +
         'The evacuation curve and the clearance time come from a time-expanded network, in which each road is copied for every time step and vehicles may wait (Chalmet, Francis & Saunders 1982; Ford & Fulkerson 1958). ' +
         'The maximum flow is computed with the algorithm named above (Edmonds & Karp 1972; Dinic 1970). The curve is the most that any routing could deliver by each minute under these inputs.',
       fontSize: 8.5,

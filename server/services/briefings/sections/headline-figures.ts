@@ -2,13 +2,13 @@
 import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
 import { curveSvg } from '../curve-svg';
-import { formatCount, formatDuration, formatPercent, formatSpan } from '../format';
+import { headlineFigures as figuresInWords } from '../../../../shared/format/headline';
 import { COLOURS } from './document-styles';
 
 function panel(label: string, value: string, notes: string[]): TableCell {
   return {
     stack: [
-      { text: label.toUpperCase(), style: 'figureLabel' },
+      { text: label, style: 'figureLabel' },
       { text: value, style: 'figureValue', margin: [0, 4, 0, 3] },
       ...notes.map((t) => ({ text: t, style: 'figureNote' })),
     ],
@@ -17,34 +17,12 @@ function panel(label: string, value: string, notes: string[]): TableCell {
   };
 }
 
-function timePanel(label: string, minutes: number | null, horizonMinutes: number, note: string): TableCell {
-  if (minutes === null) return panel(label, 'Not reached', [`Not within the ${formatSpan(horizonMinutes)} studied.`, note]);
-  return panel(label, formatDuration(minutes), [`${formatCount(minutes)} minutes after the order.`, note]);
-}
-
 export function headlineFigures(input: BriefingInput): Content[] {
   const h = input.result.headline;
-  const delivered = h.demandPersons > 0 ? formatPercent(h.deliveredPersons / h.demandPersons) : '—';
-  const row1: TableCell[] = [
-    panel('Evacuees per hour', `${formatCount(h.steadyStatePersonsPerHour)} persons/h`, [
-      `${formatCount(h.steadyStateVehiclesPerHour)} vehicles per hour at steady state:`,
-      'the most the roads carry once traffic flows (an upper bound).',
-    ]),
-    panel('Evacuated within the horizon', `${formatCount(h.deliveredPersons)} persons`, [
-      `of ${formatCount(h.demandPersons)} expected to leave (${delivered});`,
-      `${formatCount(h.deliveredVehicles)} of ${formatCount(h.demandVehicles)} vehicles within ${formatSpan(h.horizonMinutes)}.`,
-    ]),
-    panel('Clearance time', h.clearanceMinutes === null ? 'Not reached' : formatDuration(h.clearanceMinutes), [
-      h.clearanceMinutes === null
-        ? `Some evacuees are still on the way at the end of the ${formatSpan(h.horizonMinutes)} studied.`
-        : `${formatCount(h.clearanceMinutes)} minutes from the order until the last vehicle is at a shelter.`,
-    ]),
-  ];
-  const row2: TableCell[] = [
-    timePanel('50 % at a shelter', h.p50Minutes, h.horizonMinutes, 'Half of those leaving have arrived.'),
-    timePanel('90 % at a shelter', h.p90Minutes, h.horizonMinutes, 'Evacuation time estimates are often given at this share.'),
-    timePanel('95 % at a shelter', h.p95Minutes, h.horizonMinutes, 'All but the last one in twenty.'),
-  ];
+  // The same labels, values and notes as the workspace's tiles (shared/format/headline.ts).
+  const figures = figuresInWords(input.result).map((f) => panel(f.label, f.value, f.notes));
+  const row1: TableCell[] = figures.slice(0, 3);
+  const row2: TableCell[] = figures.slice(3, 6);
   const gap = { hLineWidth: () => 0, vLineWidth: () => 0, paddingLeft: (i: number) => (i === 0 ? 0 : 4), paddingRight: (i: number) => (i === 2 ? 0 : 4), paddingTop: () => 4, paddingBottom: () => 4 };
   const ppv = h.demandVehicles > 0 ? h.demandPersons / h.demandVehicles : input.assumptions.personsPerVehicle;
   return [
@@ -56,7 +34,7 @@ export function headlineFigures(input: BriefingInput): Content[] {
       margin: [0, 4, 0, 0],
     },
     { text: 'Evacuation curve', style: 'h2', margin: [0, 16, 0, 2] },
-    { text: 'How many have reached a shelter by each minute, at the best routing the network allows.', style: 'note', margin: [0, 0, 0, 6] },
+    { text: 'How many have arrived at a shelter or exit by each minute, at the best routing the network allows.', style: 'note', margin: [0, 0, 0, 6] },
     {
       svg: curveSvg({
         stepMinutes: input.result.curve.stepMinutes,
@@ -73,8 +51,8 @@ export function headlineFigures(input: BriefingInput): Content[] {
     },
     {
       text:
-        'Figure 1. Cumulative vehicles at shelters (left axis) and persons (right axis). The dashed line is the number to move. ' +
-        'The curve comes from a time-expanded network: by each minute, no routing of the same traffic gets more vehicles to the shelters.',
+        'Figure 1. Cumulative vehicles arrived at shelters or exits (left axis) and persons (right axis). The dashed line is the number to move. ' +
+        'The curve comes from a time-expanded network: by each minute, no routing of the same traffic gets more vehicles to the shelters and exits.',
       style: 'caption',
     },
   ];

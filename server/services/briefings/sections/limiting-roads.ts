@@ -1,13 +1,14 @@
-// The map with the limiting roads, the bottleneck table, what holds arrivals down and the
+// The map with the choke points, the choke-point table, what holds arrivals down and the
 // ranking of fixes.
 import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
 import { arrivalLimitParts, arrivalLimitSummary } from '../../../../shared/model/arrival-limits';
-import { formatCount, formatDuration, formatPercent } from '../format';
+import { formatCount, formatDuration, formatShare } from '../../../../shared/format/numbers';
 import { mapSvg } from '../map-svg';
-import { chokePointRanks, rankBottlenecks, rankFixes, shareOfLimit } from '../rankings';
+import { chokePointRanks, rankedChokePoints, rankFixes, shareOfLimit } from '../rankings';
 import { roadNamer } from '../road-labels';
-import { COLOURS, dataTable, td, th } from './document-styles';
+import { dataTable, td, th } from './document-styles';
+import { CHOKE_POINT_COLOUR } from '../../../../shared/format/colours';
 
 function windows(w: [number, number][]): string {
   if (w.length === 0) return '—';
@@ -23,7 +24,7 @@ export function mapFigure(input: BriefingInput): Content[] {
   return [
     { text: 'Where the roads choke', style: 'h1' },
     {
-      text: 'The red roads are the ones that set the limit on evacuees per hour: together they form the narrowest cross-section between the zones and the shelters. Numbers match the table below.',
+      text: 'The violet roads are the choke points: they set the limit on evacuees per hour and together form the narrowest cross-section between the zones and the shelters or exits. Numbers match the table below.',
       style: 'note',
       margin: [0, 0, 0, 6],
     },
@@ -34,23 +35,23 @@ export function mapFigure(input: BriefingInput): Content[] {
 
 export function bottleneckTable(input: BriefingInput): Content[] {
   const roads = roadNamer(input.map);
-  const ranked = rankBottlenecks(input.result);
+  const ranked = rankedChokePoints(input.result);
   if (ranked.length === 0) {
-    return [{ text: 'Limiting roads', style: 'h2' }, { text: 'This run reported no limiting roads.', style: 'note' }];
+    return [{ text: 'Choke points', style: 'h2' }, { text: 'This run reported no choke points.', style: 'note' }];
   }
   const rows: TableCell[][] = ranked.map((b, i) => [
-    td(String(i + 1), { bold: true, color: COLOURS.warn }),
+    td(String(i + 1), { bold: true, color: CHOKE_POINT_COLOUR }),
     td(roads.name(b)),
     td(roads.direction(b)),
     td(roadClassWords(b.roadClass)),
     td(formatCount(b.capacityVehiclesPerHour), { right: true }),
-    td(formatPercent(shareOfLimit(input.result, b)), { right: true }),
+    td(formatShare(shareOfLimit(input.result, b)), { right: true }),
     td(b.inStaticCut ? 'yes' : 'no'),
     td(windows(b.cutWindows)),
     td(formatCount(b.gainPerExtraLaneVehiclesPerHour), { right: true }),
   ]);
   return [
-    { text: 'Limiting roads', style: 'h2', margin: [0, 14, 0, 4] },
+    { text: 'Choke points', style: 'h2', margin: [0, 14, 0, 4] },
     dataTable(
       [12, '*', 70, 52, 46, 40, 34, 76, 42],
       [th('#'), th('Road'), th('Direction'), th('Class'), th('Capacity\nveh/h', 'right'), th('Share of\nlimit', 'right'), th('Steady\nlimit'), th('Limiting\nduring'), th('+1 lane\nveh/h', 'right')],
@@ -68,10 +69,10 @@ export function bottleneckTable(input: BriefingInput): Content[] {
 export function arrivalLimitsTable(input: BriefingInput): Content[] {
   const limits = input.result.arrivalLimits;
   if (!limits) return [];
-  const rows: TableCell[][] = arrivalLimitParts(limits).map((p) => [td(`${p.label} (${p.detail})`), td(formatCount(p.vehicles), { right: true }), td(formatPercent(p.share), { right: true })]);
+  const rows: TableCell[][] = arrivalLimitParts(limits).map((p) => [td(`${p.label} (${p.detail})`), td(formatCount(p.vehicles), { right: true }), td(formatShare(p.share), { right: true })]);
   return [
     { text: 'What holds arrivals down', style: 'h2', margin: [0, 14, 0, 4] },
-    { text: arrivalLimitSummary(limits, { count: formatCount, share: formatPercent, duration: formatDuration }), margin: [0, 0, 0, 4] },
+    { text: arrivalLimitSummary(limits, { count: formatCount, share: formatShare, duration: formatDuration }), margin: [0, 0, 0, 4] },
     ...(rows.length ? [dataTable(['*', 70, 50], [th('Part of the limit'), th('Vehicles', 'right'), th('Share', 'right')], rows)] : []),
     {
       text: 'The narrowest cross-section of the time-by-time analysis at that moment: its size is the most that can have arrived by then (max-flow/min-cut), and raising anything that is not part of it cannot raise that number.',

@@ -3,7 +3,7 @@
 // applied, so they are part of what the signature covers.
 import type { Content } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
-import { formatDateTime } from '../format';
+import { formatDateTime } from '../../../../shared/format/numbers';
 import { COLOURS } from './document-styles';
 
 export const STATUS_WORDS: Record<BriefingInput['status'], string> = {

@@ -3,7 +3,7 @@
 import type { Content } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
 import { briefingSummary } from '../briefing-summary';
-import { formatDate, formatDateTime } from '../format';
+import { formatDate, formatDateTime } from '../../../../shared/format/numbers';
 import { COLOURS } from './document-styles';
 import { signOffBox, STATUS_WORDS } from './sign-off';
 

@@ -1,6 +1,6 @@
 // Figures as the findings print them.
 import { describe, expect, it } from 'vitest';
-import { formatClockOffset, formatCount, formatDuration, formatMeters, formatPerHour, formatShare, formatTimeWithin, formatWindows } from '../../src/format/numbers';
+import { formatClockOffset, formatCount, formatDuration, formatMeters, formatPerHour, formatShare, formatTimeWithin, formatWindows } from '../../../shared/format/numbers';
 
 describe('number formats', () => {
   it('rounds counts and separates thousands', () => {
