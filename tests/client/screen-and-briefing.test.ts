@@ -18,7 +18,7 @@ const { briefingInput, result: storedResult } = (await import(/* @vite-ignore */
 await ignoreStylesheets();
 const { createVuetify } = await import('vuetify');
 const { default: FindingsHeadline } = await import('../../src/components/workspace/FindingsHeadline.vue');
-const { default: FindingsBottleneckTable } = await import('../../src/components/workspace/FindingsBottleneckTable.vue');
+const { default: FindingsChokePointTable } = await import('../../src/components/workspace/FindingsChokePointTable.vue');
 
 /** Every text string in a pdfmake document definition, in document order. */
 function documentStrings(node: unknown, out: string[] = []): string[] {
@@ -80,7 +80,7 @@ describe.each([
   });
 
   it('rank the choke points in the same order with the same capacity and share', () => {
-    const screen = mount(FindingsBottleneckTable, { props: { result }, ...mountOptions() });
+    const screen = mount(FindingsChokePointTable, { props: { result }, ...mountOptions() });
     const screenRows = screen.findAll('[data-test="bottleneck-row"]').map((row) => {
       const cells = row.findAll('td').map((td) => squeeze(td.text()));
       return { name: squeeze(row.find('td .font-weight-medium').text()), capacity: cells[1], share: cells[2] };
