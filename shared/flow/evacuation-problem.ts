@@ -14,7 +14,7 @@ export interface EvacuationRoad {
   to: number;
   /** Directional capacity (all lanes, after any capacity factor). */
   capacityVehPerHour: number;
-  /** Free-flow travel time; becomes ⌈travelTimeSeconds / Δ⌉ steps, at least 1. */
+  /** Free-flow travel time; becomes whole steps rounded against node time potentials (route-timing.ts). */
   travelTimeSeconds: number;
   /** Lanes in this direction (default 1); used with capacityVehPerHourPerLane for lane fixes. */
   lanes?: number;

@@ -10,6 +10,7 @@ export * from './verify';
 export * from './evacuation-problem';
 export * from './release-schedule';
 export * from './road-timing';
+export * from './route-timing';
 export * from './steady-state';
 export * from './time-expanded';
 export * from './dimacs';

@@ -12,6 +12,7 @@ import { arcFlows, createFlowState } from './flow-state';
 import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice } from './max-flow';
 import { minimumCut } from './min-cut';
 import { perStepCapacity } from './road-timing';
+import type { RouteTimingError } from './route-timing';
 import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateSummary } from './steady-state';
 import { expandOverTime, nodeLimitAtHorizon } from './time-expanded';
 import { verify } from './verify';
@@ -44,7 +45,8 @@ export interface EvacuationWarning {
     | 'road-longer-than-horizon'
     | 'release-incomplete'
     | 'release-rate-rounds-to-zero'
-    | 'steady-state-unbounded';
+    | 'steady-state-unbounded'
+    | 'route-time-error';
   message: string;
   road?: number;
   zone?: string;
@@ -107,6 +109,11 @@ export interface EvacuationResult {
     };
   };
   bottlenecks: TimeExpandedBottlenecks;
+  /**
+   * How far the time model's route times are from free flow: for every zone and shelter the
+   * fastest modelled trip against the fastest free-flow trip (route-timing.ts states the bound).
+   */
+  routeTiming: RouteTimingError;
   /** Ranked, largest gain first. */
   fixes: RoadFix[];
   /** True when some fix candidates were not evaluated (maxFixEvaluations). */
@@ -176,6 +183,9 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
   // Time expansion and the curve.
   progress('expand', 0);
   const expanded = expandOverTime(problem);
+  const { routeTiming } = expanded;
+  const routeWarning = routeTimingWarning(routeTiming, problem);
+  if (routeWarning) warnings.push(routeWarning);
   lap('expand');
   progress('expand', 1);
   const curveAlgorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
@@ -273,6 +283,7 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
       },
     },
     bottlenecks,
+    routeTiming,
     fixes,
     fixesTruncated: truncated,
     warnings,
@@ -331,4 +342,33 @@ function collectWarnings(problem: EvacuationProblem): EvacuationWarning[] {
     }
   });
   return warnings;
+}
+
+/** Steps offered when the model's route times drift: the largest of them that should bring the drift within one present step. */
+const SUGGESTED_STEPS_SECONDS = [300, 180, 120, 60, 30, 20, 15, 10, 5];
+
+/**
+ * A warning when some zone's fastest modelled trip to a shelter differs from free flow by more
+ * than one step. The excess comes from roads that lead away from the nearest shelter, each
+ * rounded up to whole steps, so it shrinks about in proportion to the step: the suggestion is
+ * the largest step at which it should fall within the present step's length.
+ */
+function routeTimingWarning(timing: RouteTimingError, problem: EvacuationProblem): EvacuationWarning | null {
+  const dt = problem.timeStepSeconds;
+  if (timing.worst === null || timing.largestSeconds <= dt + 1e-9) return null;
+  const minutes = (seconds: number): string => `${(seconds / 60).toFixed(1)} min`;
+  const { zone, shelter, freeFlowSeconds, modelledSeconds } = timing.worst;
+  const wanted = (dt * dt) / timing.largestSeconds;
+  const step = SUGGESTED_STEPS_SECONDS.find((x) => x <= wanted && x < dt);
+  const advice = step
+    ? `a time step of ${step} s should bring it within ${dt} s`
+    : 'a shorter time step brings it down about in proportion';
+  return {
+    code: 'route-time-error',
+    zone: problem.zones[zone]!.id,
+    message:
+      `modelled trip times differ from free flow by up to ${minutes(timing.largestSeconds)} (typically ${minutes(timing.typicalSeconds)}): ` +
+      `the fastest trip from zone ${problem.zones[zone]!.id} to shelter ${problem.shelters[shelter]!.id} takes ${minutes(freeFlowSeconds)} at free flow ` +
+      `and ${minutes(modelledSeconds)} in the model, because roads off the fastest trips to the nearest shelter or out of the nearest zone are rounded up to whole ${dt} s steps; ${advice}`,
+  };
 }

@@ -3,6 +3,8 @@
 // DOMAIN.md §1:
 //   - node copies (v, θ) for θ = 0..T; a departure from u in step θ on road e arrives at
 //     (v, θ + τ_e) and exists only if θ + τ_e ≤ T and the road is open for departures in θ;
+//     τ_e ≥ 0 is rounded against node time potentials (route-timing.ts), so a road may end in
+//     its own layer, and those zero-step roads never form a cycle;
 //   - holdover (v, θ) → (v, θ + 1) bounded by the node's storage (unbounded at zones);
 //   - the source releases zone z's departures for step θ into (z, θ); (z, θ) holds over without
 //     limit and feeds the zone's entry nodes in the same step, through a gate node that carries
@@ -22,7 +24,8 @@ import { UNBOUNDED_CAPACITY, floorCapacity } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';
 import { buildNetworkFromArrays, type FlowNetwork } from './flow-network';
 import { releaseSchedule } from './release-schedule';
-import { closedAtStep, nodeStorage, perStepCapacity, travelSteps } from './road-timing';
+import { closedAtStep, nodeStorage, perStepCapacity } from './road-timing';
+import { routeTravelSteps, type RouteTimingError } from './route-timing';
 
 /** What an expanded arc stands for; arcRef holds the index of the road, node, zone or shelter. */
 export const ExpandedArcKind = {
@@ -54,6 +57,8 @@ export interface TimeExpandedNetwork {
   readonly layerArcStart: Int32Array;
   /** τ_e in steps and per-step capacity of each road. */
   readonly roadTravelSteps: Int32Array;
+  /** How the zones' fastest modelled trips compare with free flow under those steps. */
+  readonly routeTiming: RouteTimingError;
   readonly roadStepCapacity: Int32Array;
   /** Departures per step of each zone. */
   readonly releases: readonly Int32Array[];
@@ -105,10 +110,9 @@ export function expandOverTime(problem: EvacuationProblem): TimeExpandedNetwork 
   const nodeTotal = layerBase + (T + 1) * layerSize;
   if (nodeTotal > 0x7fffffff) throw new RangeError(`time-expanded network too large: ${nodeTotal} nodes`);
 
-  const roadTravelSteps = new Int32Array(R);
+  const { steps: roadTravelSteps, timing: routeTiming } = routeTravelSteps(problem);
   const roadStepCapacity = new Int32Array(R);
   roads.forEach((road, e) => {
-    roadTravelSteps[e] = travelSteps(road, dt);
     roadStepCapacity[e] = perStepCapacity(road.capacityVehPerHour, dt);
   });
   const holdoverCapacity = nodeStorage(problem);
@@ -186,6 +190,7 @@ export function expandOverTime(problem: EvacuationProblem): TimeExpandedNetwork 
     arcRef: arcRef.slice(0, m),
     layerArcStart,
     roadTravelSteps,
+    routeTiming,
     roadStepCapacity,
     releases,
     holdoverCapacity,

@@ -42,5 +42,5 @@ describe('most valuable fix', () => {
       }),
       { numRuns: 150, seed: 26 },
     );
-  });
+  }, 60_000);
 });

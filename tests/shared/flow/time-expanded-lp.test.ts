@@ -5,7 +5,7 @@
 import fc from 'fast-check';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { solveEvacuation } from '../../../shared/flow';
-import { steadyStateLpValue, timeExpandedLpValue } from './support/evacuation-lp';
+import { referenceTravelSteps, steadyStateLpValue, timeExpandedLpValue } from './support/evacuation-lp';
 import { loadGlpk, type Glpk } from './support/glpk';
 import { randomEvacuation } from './support/random-evacuations';
 
@@ -20,8 +20,12 @@ describe('time-expanded evacuation model against glpk.js', () => {
       fc.property(randomEvacuation(), (problem) => {
         const result = solveEvacuation(problem, { verify: true });
         expect(result.verification).toEqual({ ok: true, problems: [] });
+        // Travel steps by the rounding against node time potentials (zero-step roads included),
+        // computed by the support's own implementation of the rule.
+        const steps = referenceTravelSteps(problem);
+        expect(result.plan.roads.travelSteps).toEqual(steps);
         for (let t = 0; t <= problem.horizonSteps; t++) {
-          expect(result.curve.deliveredVehiclesByStep[t]).toBe(Math.round(timeExpandedLpValue(glpk, problem, t)));
+          expect(result.curve.deliveredVehiclesByStep[t]).toBe(Math.round(timeExpandedLpValue(glpk, problem, t, steps)));
         }
         // The LP's stand-in for "no limit" is 1e9: a larger optimum means an unbounded steady state.
         const steady = steadyStateLpValue(glpk, problem);

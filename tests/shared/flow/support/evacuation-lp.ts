@@ -24,8 +24,78 @@ export function departuresByStep(zone: EvacuationProblem['zones'][number], horiz
 const closedForDeparture = (road: EvacuationRoad, step: number, dt: number): boolean =>
   (road.closures ?? []).some((c) => c.fromSeconds < (step + 1) * dt && (c.untilSeconds ?? Infinity) > step * dt && (c.untilSeconds ?? Infinity) > c.fromSeconds);
 
-/** Most vehicles delivered by the end of step `horizon` (time-expanded LP). */
-export function timeExpandedLpValue(glpk: Glpk, problem: EvacuationProblem, horizon: number): number {
+/** Bellman–Ford: shortest seconds from `origins` along (forward) or against (backward) the usable roads. */
+function bellmanFord(problem: EvacuationProblem, origins: readonly number[], forward: boolean, weight: (e: number) => number): number[] {
+  const dt = problem.timeStepSeconds;
+  const dist = Array.from({ length: problem.nodeCount }, () => Infinity);
+  for (const v of origins) dist[v] = 0;
+  for (let round = 0; round < problem.nodeCount; round++) {
+    let changed = false;
+    problem.roads.forEach((road, e) => {
+      if (perStep(road.capacityVehPerHour, dt) <= 0) return;
+      const [a, b] = forward ? [road.from, road.to] : [road.to, road.from];
+      if (dist[a]! + weight(e) < dist[b]!) {
+        dist[b] = dist[a]! + weight(e);
+        changed = true;
+      }
+    });
+    if (!changed) break;
+  }
+  return dist;
+}
+
+/**
+ * Travel steps per road by DOMAIN.md §1's rounding against node time potentials, written here
+ * without the engine (Bellman–Ford where the engine uses Dijkstra). π is the free-flow time to
+ * the nearest shelter ('to-shelters') or minus that from the nearest zone entry node
+ * ('from-zones'), over roads carrying at least one vehicle per step;
+ * τ_e = round(π(u)/Δ) − round(π(v)/Δ) + ⌈slack/Δ⌉; a road with an unreachable end, or that
+ * carries nothing, keeps ⌈t/Δ⌉ ≥ 1; a zero-step road must climb to a higher step potential or
+ * lead strictly down π (equal: to a lower node index), else it takes 1. Without `potential`, the
+ * one whose zones' fastest trips to each shelter differ least from free flow (ties: shelters).
+ */
+export function referenceTravelSteps(problem: EvacuationProblem, potential?: 'to-shelters' | 'from-zones'): number[] {
+  if (potential === undefined) {
+    const shelters = referenceTravelSteps(problem, 'to-shelters');
+    const zones = referenceTravelSteps(problem, 'from-zones');
+    return largestTripDifference(problem, zones) < largestTripDifference(problem, shelters) - 1e-9 ? zones : shelters;
+  }
+  const dt = problem.timeStepSeconds;
+  const usable = (road: EvacuationRoad): boolean => perStep(road.capacityVehPerHour, dt) > 0;
+  const seconds = (e: number): number => problem.roads[e]!.travelTimeSeconds;
+  const pi =
+    potential === 'to-shelters'
+      ? bellmanFord(problem, problem.shelters.map((s) => s.node), false, seconds)
+      : bellmanFord(problem, problem.zones.flatMap((z) => z.entryNodes), true, seconds).map((d) => -d);
+  const ceil = (x: number): number => Math.ceil(x - 1e-9);
+  return problem.roads.map((road) => {
+    const pu = pi[road.from]!;
+    const pv = pi[road.to]!;
+    if (!usable(road) || !Number.isFinite(pu) || !Number.isFinite(pv)) return Math.max(1, ceil(road.travelTimeSeconds / dt));
+    const tau = Math.round(pu / dt) - Math.round(pv / dt) + Math.max(0, ceil(Math.max(0, road.travelTimeSeconds + pv - pu) / dt));
+    if (tau > 0) return tau;
+    return Math.round(pv / dt) > Math.round(pu / dt) || pv < pu || (pv === pu && road.to < road.from) ? 0 : 1;
+  });
+}
+
+/** Largest |fastest modelled − fastest free-flow| trip time from a zone to a shelter it reaches. */
+function largestTripDifference(problem: EvacuationProblem, steps: readonly number[]): number {
+  let largest = 0;
+  for (const zone of problem.zones) {
+    const free = bellmanFord(problem, zone.entryNodes, true, (e) => problem.roads[e]!.travelTimeSeconds);
+    const modelled = bellmanFord(problem, zone.entryNodes, true, (e) => steps[e]! * problem.timeStepSeconds);
+    for (const shelter of problem.shelters) {
+      if (Number.isFinite(free[shelter.node]!)) largest = Math.max(largest, Math.abs(modelled[shelter.node]! - free[shelter.node]!));
+    }
+  }
+  return largest;
+}
+
+/**
+ * Most vehicles delivered by the end of step `horizon` (time-expanded LP); travel steps per road
+ * by `referenceTravelSteps` unless given.
+ */
+export function timeExpandedLpValue(glpk: Glpk, problem: EvacuationProblem, horizon: number, travelSteps: readonly number[] = referenceTravelSteps(problem)): number {
   const dt = problem.timeStepSeconds;
   const lp: GeneralLp = { variables: [], balances: [], objective: [] };
   const rows = new Map<string, { name: string; coef: number }[]>();
@@ -41,7 +111,7 @@ export function timeExpandedLpValue(glpk: Glpk, problem: EvacuationProblem, hori
     return Math.floor(entering.reduce((sum, r) => sum + r.storageVehicles!, 0) + 1e-9);
   });
   problem.roads.forEach((road, e) => {
-    const tau = Math.max(1, Math.ceil(road.travelTimeSeconds / dt - 1e-9));
+    const tau = travelSteps[e]!;
     for (let t = 0; t + tau <= horizon; t++) {
       if (closedForDeparture(road, t, dt)) continue;
       flow(`road${e}_${t}`, perStep(road.capacityVehPerHour, dt), `n${road.from}_${t}`, `n${road.to}_${t + tau}`);

@@ -1,0 +1,270 @@
+// Road travel times in whole steps that keep *routes* true to free flow, however short the
+// roads (DOMAIN.md §1). Rounding each road on its own (⌈t/Δ⌉ ≥ 1) charges a 7 s street a full
+// 60 s step, so a trip over twenty of them comes out twenty times too slow. Instead every node
+// gets a time potential π(v) that falls by t_e along the fastest trips: the free-flow seconds
+// from v to the nearest shelter, or minus those from the nearest zone entry node to v (Dijkstra
+// 1959). Its step potential is P(v) = round(π(v)/Δ), and road e = (u, v) with free-flow time t_e
+// takes
+//
+//     τ_e = P(u) − P(v) + ⌈s_e/Δ⌉,   s_e = t_e + π(v) − π(u) ≥ 0 (the road's slack):
+//
+// rounding against node time potentials, so that rounding errors do not add up along a route
+// (as reduced costs are rounded against potentials; for condensed time-expanded networks see
+// Fleischer & Skutella 2007, "Quickest flows over time", SIAM J. Comput. 36(6)). Along a route
+// from a to b the potentials telescope:
+//
+//     Σ τ_e = P(a) − P(b) + Σ ⌈s_e/Δ⌉   while   Σ t_e / Δ = (π(a) − π(b))/Δ + Σ s_e/Δ,
+//
+// so a route made of fastest trips (every slack 0) is modelled within one step of its free-flow
+// time (half a step at each end), whatever its roads' lengths, and no route is modelled faster
+// than that. Each road with slack adds less than one step of its own. Against the shelters every
+// fastest trip to the nearest shelter has no slack; against the zones, every fastest trip out of
+// the nearest zone. `routeTravelSteps` takes whichever potential leaves the smaller largest
+// difference over the zones' fastest trips to each shelter and reports it (`RouteTimingError`).
+//
+// τ_e may be 0: the vehicle reaches v within the same step. Round a cycle the potentials cancel
+// and its slacks add up to its travel time, so a cycle of roads costs at least one step and
+// zero-step roads never close one; for cycles of roads that take no time at all, a zero-step
+// road must climb to a higher step potential or lead strictly down the potential (at equal
+// potential, to a lower node index), else it takes one step. The expanded network stays acyclic.
+//
+// Roads off every trip (no shelter reachable, or not reachable from a zone, for the potential in
+// use), and roads that carry nothing per step, keep the plain rule ⌈t_e/Δ⌉ ≥ 1.
+
+import { ceilWithTolerance } from './capacity';
+import type { EvacuationProblem } from './evacuation-problem';
+import { perStepCapacity } from './road-timing';
+
+/** Which node potential the steps were rounded against (see the header). */
+export type RoutePotential = 'to-shelters' | 'from-zones';
+
+/**
+ * Free-flow seconds over roads that carry something per step: from every node to the nearest
+ * shelter, or (negated, so that it too falls along a trip) from the nearest zone entry node to
+ * every node. Unreachable nodes get ±Infinity.
+ */
+export function nodeTimePotential(problem: EvacuationProblem, kind: RoutePotential): Float64Array {
+  const { nodeCount: N, roads, timeStepSeconds: dt } = problem;
+  const forward = kind === 'from-zones';
+  const usable = roads.map((road) => perStepCapacity(road.capacityVehPerHour, dt) > 0);
+  // Adjacency in the search direction: roads leaving a node (from zones) or entering it (to shelters).
+  const first = new Int32Array(N + 1);
+  roads.forEach((road, e) => {
+    if (usable[e]) first[(forward ? road.from : road.to) + 1]!++;
+  });
+  for (let v = 0; v < N; v++) first[v + 1]! += first[v]!;
+  const fill = first.slice(0, N);
+  const adjacent = new Int32Array(first[N]!);
+  roads.forEach((road, e) => {
+    if (usable[e]) adjacent[fill[forward ? road.from : road.to]!++] = e;
+  });
+  const dist = new Float64Array(N).fill(Infinity);
+  const heap = new MinHeap(N);
+  const origins = forward ? problem.zones.flatMap((zone) => zone.entryNodes) : problem.shelters.map((shelter) => shelter.node);
+  for (const v of origins) {
+    dist[v] = 0;
+    heap.push(v, 0);
+  }
+  while (heap.size > 0) {
+    const v = heap.pop();
+    const dv = dist[v]!;
+    if (heap.lastKey > dv) continue; // a stale entry
+    for (let i = first[v]!, end = first[v + 1]!; i < end; i++) {
+      const road = roads[adjacent[i]!]!;
+      const w = forward ? road.to : road.from;
+      const dw = dv + road.travelTimeSeconds;
+      if (dw < dist[w]!) {
+        dist[w] = dw;
+        heap.push(w, dw);
+      }
+    }
+  }
+  if (forward) for (let v = 0; v < N; v++) dist[v] = -dist[v]!;
+  return dist;
+}
+
+/** Steps per road by the rule above against one potential (index = road). */
+export function travelStepsAgainst(problem: EvacuationProblem, potential: Float64Array): Int32Array {
+  const toShelter = potential;
+  const dt = problem.timeStepSeconds;
+  const steps = new Int32Array(problem.roads.length);
+  problem.roads.forEach((road, e) => {
+    const pu = toShelter[road.from]!;
+    const pv = toShelter[road.to]!;
+    const plain = Math.max(1, ceilWithTolerance(road.travelTimeSeconds / dt));
+    if (!Number.isFinite(pu) || !Number.isFinite(pv) || perStepCapacity(road.capacityVehPerHour, dt) === 0) {
+      steps[e] = plain;
+      return;
+    }
+    const slack = Math.max(0, road.travelTimeSeconds + pv - pu);
+    const stepU = Math.round(pu / dt);
+    const stepV = Math.round(pv / dt);
+    let tau = stepU - stepV + Math.max(0, ceilWithTolerance(slack / dt));
+    if (tau <= 0) {
+      // A zero-step road either climbs to a higher step potential or, within one, leads strictly
+      // nearer a shelter (equal: to a lower index); no cycle can do either all the way round.
+      tau = stepV > stepU || pv < pu || (pv === pu && road.to < road.from) ? 0 : 1;
+    }
+    steps[e] = tau;
+  });
+  return steps;
+}
+
+/**
+ * Steps per road, rounded against whichever potential models the zones' trips to the shelters
+ * closer to free flow (smaller largest difference; ties go to the shelters), with that
+ * difference. Rounding against the shelters keeps every fastest trip to the nearest shelter
+ * within half a step; against the zones, every fastest trip out of the zones that passes no
+ * nearer another zone. Two potentials, two measurements: O(Z · E log V).
+ */
+export function routeTravelSteps(problem: EvacuationProblem): { steps: Int32Array; timing: RouteTimingError } {
+  let best: { steps: Int32Array; timing: RouteTimingError } | null = null;
+  for (const kind of ['to-shelters', 'from-zones'] as const) {
+    const steps = travelStepsAgainst(problem, nodeTimePotential(problem, kind));
+    const timing = measureRouteTiming(problem, steps, kind);
+    if (best === null || timing.largestSeconds < best.timing.largestSeconds - 1e-9) best = { steps, timing };
+  }
+  return best!;
+}
+
+/** How modelled route times compare with free flow, per zone and shelter. */
+export interface RouteTimingError {
+  /** The time model: rounding against node time potentials, and which one. */
+  method: 'node-potential-rounding';
+  potential: RoutePotential;
+  /** Zone–shelter pairs compared (a shelter the zone can reach at all). */
+  pairs: number;
+  /** Largest |modelled − free-flow| over those pairs, in seconds and in steps. */
+  largestSeconds: number;
+  largestSteps: number;
+  /** The median of |modelled − free-flow| over the pairs, in seconds. */
+  typicalSeconds: number;
+  /** The pair with the largest difference (indices into zones and shelters), or null without pairs. */
+  worst: { zone: number; shelter: number; freeFlowSeconds: number; modelledSeconds: number } | null;
+}
+
+/**
+ * For every zone and shelter, the fastest free-flow time (Dijkstra over seconds) and the fastest
+ * modelled time (Dijkstra over steps × Δ), each from the best of the zone's entry nodes, and
+ * their difference. O(Z · (E log V)).
+ */
+export function measureRouteTiming(problem: EvacuationProblem, steps: Int32Array, potential: RoutePotential): RouteTimingError {
+  const { nodeCount: N, roads, zones, shelters, timeStepSeconds: dt } = problem;
+  const usable = roads.map((road) => perStepCapacity(road.capacityVehPerHour, dt) > 0);
+  const first = new Int32Array(N + 1);
+  roads.forEach((road, e) => {
+    if (usable[e]) first[road.from + 1]!++;
+  });
+  for (let v = 0; v < N; v++) first[v + 1]! += first[v]!;
+  const fill = first.slice(0, N);
+  const leaving = new Int32Array(first[N]!);
+  roads.forEach((road, e) => {
+    if (usable[e]) leaving[fill[road.from]!++] = e;
+  });
+  const heap = new MinHeap(N);
+  const fromZone = (entries: readonly number[], weight: (e: number) => number): Float64Array => {
+    const dist = new Float64Array(N).fill(Infinity);
+    for (const v of entries) {
+      dist[v] = 0;
+      heap.push(v, 0);
+    }
+    while (heap.size > 0) {
+      const u = heap.pop();
+      const du = dist[u]!;
+      if (heap.lastKey > du) continue;
+      for (let i = first[u]!, end = first[u + 1]!; i < end; i++) {
+        const e = leaving[i]!;
+        const dv = du + weight(e);
+        const v = roads[e]!.to;
+        if (dv < dist[v]!) {
+          dist[v] = dv;
+          heap.push(v, dv);
+        }
+      }
+    }
+    return dist;
+  };
+  const differences: number[] = [];
+  let worst: RouteTimingError['worst'] = null;
+  let largest = 0;
+  zones.forEach((zone, z) => {
+    const free = fromZone(zone.entryNodes, (e) => roads[e]!.travelTimeSeconds);
+    const modelled = fromZone(zone.entryNodes, (e) => steps[e]! * dt);
+    shelters.forEach((shelter, s) => {
+      const f = free[shelter.node]!;
+      if (!Number.isFinite(f)) return;
+      const m = modelled[shelter.node]!;
+      const d = Math.abs(m - f);
+      differences.push(d);
+      if (worst === null || d > largest) {
+        largest = d;
+        worst = { zone: z, shelter: s, freeFlowSeconds: f, modelledSeconds: m };
+      }
+    });
+  });
+  differences.sort((a, b) => a - b);
+  const typical = differences.length === 0 ? 0 : differences[Math.floor((differences.length - 1) / 2)]!;
+  return {
+    method: 'node-potential-rounding',
+    potential,
+    pairs: differences.length,
+    largestSeconds: largest,
+    largestSteps: largest / dt,
+    typicalSeconds: typical,
+    worst,
+  };
+}
+
+/** A binary min-heap of node indices keyed by a double; a node is pushed again when its key falls, and callers skip the stale entries. */
+class MinHeap {
+  private nodes: Int32Array;
+  private keys: Float64Array;
+  size = 0;
+  constructor(capacity: number) {
+    this.nodes = new Int32Array(Math.max(16, capacity));
+    this.keys = new Float64Array(Math.max(16, capacity));
+  }
+  push(node: number, key: number): void {
+    if (this.size === this.nodes.length) {
+      const nodes = new Int32Array(this.size * 2);
+      nodes.set(this.nodes);
+      const keys = new Float64Array(this.size * 2);
+      keys.set(this.keys);
+      this.nodes = nodes;
+      this.keys = keys;
+    }
+    let i = this.size++;
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (this.keys[parent]! <= key) break;
+      this.nodes[i] = this.nodes[parent]!;
+      this.keys[i] = this.keys[parent]!;
+      i = parent;
+    }
+    this.nodes[i] = node;
+    this.keys[i] = key;
+  }
+  /** The key of the node last popped. */
+  lastKey = 0;
+  /** Removes and returns the node of the smallest key. */
+  pop(): number {
+    const top = this.nodes[0]!;
+    this.lastKey = this.keys[0]!;
+    const last = --this.size;
+    const node = this.nodes[last]!;
+    const key = this.keys[last]!;
+    let i = 0;
+    for (;;) {
+      let child = 2 * i + 1;
+      if (child >= last) break;
+      if (child + 1 < last && this.keys[child + 1]! < this.keys[child]!) child++;
+      if (this.keys[child]! >= key) break;
+      this.nodes[i] = this.nodes[child]!;
+      this.keys[i] = this.keys[child]!;
+      i = child;
+    }
+    this.nodes[i] = node;
+    this.keys[i] = key;
+    return top;
+  }
+}
