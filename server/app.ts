@@ -19,6 +19,7 @@ import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
 import { uploadLimits } from './middleware/upload-slots';
 import { createAnswerCache } from './http/answer-cache';
+import { mapTilesRouter } from './routes/map-tiles';
 import { authRouter } from './routes/auth';
 import { plansRouter } from './routes/plans';
 import { membersRouter } from './routes/members';
@@ -124,6 +125,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
   app.use('/api/plans/:planId', batchesRouter(db, config, runQueue));
+  app.use('/api/plans/:planId', mapTilesRouter(db, answers));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api/settings', settingsRouter(settings));

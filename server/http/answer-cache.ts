@@ -21,14 +21,14 @@ export function createAnswerCache(maxMegabytes: number) {
   const ready = new LRUCache<string, ReadyAnswer>({ maxSize, sizeCalculation: (a) => a.plain.length + a.gzipped.length + 1 });
   const building = new Map<string, Promise<ReadyAnswer>>();
 
-  async function prepare(text: string): Promise<ReadyAnswer> {
-    const plain = Buffer.from(text);
+  async function prepare(content: string | Buffer): Promise<ReadyAnswer> {
+    const plain = typeof content === 'string' ? Buffer.from(content) : content;
     // zlib runs on libuv's thread pool, off the request thread.
     const gzipped = await gzipAsync(plain, { level: 6 });
     return { plain, gzipped, etag: createHash('sha1').update(plain).digest('base64url') };
   }
 
-  function answer(key: string, build: () => Promise<string>): Promise<ReadyAnswer> {
+  function answer(key: string, build: () => Promise<string | Buffer>): Promise<ReadyAnswer> {
     const hit = ready.get(key);
     if (hit) return Promise.resolve(hit);
     let pending = building.get(key);
@@ -47,16 +47,24 @@ export function createAnswerCache(maxMegabytes: number) {
 
   /** Sends the JSON answer for `key`, building it with `build` when this process has none ready. */
   async function sendJson(req: Request, res: Response, key: string, build: () => Promise<string>): Promise<void> {
-    const a = await answer(key, build);
+    await send(req, res, 'json', await answer(key, build));
+  }
+
+  /** The same for bytes of another type (a map tile). */
+  async function sendBytes(req: Request, res: Response, key: string, type: string, build: () => Promise<Buffer>): Promise<void> {
+    await send(req, res, type, await answer(key, build));
+  }
+
+  async function send(req: Request, res: Response, type: string, a: ReadyAnswer): Promise<void> {
     // No Accept-Encoding header: plain, as common practice (and curl) expect.
     const gzipped = req.headers['accept-encoding'] !== undefined && req.acceptsEncodings('gzip') === 'gzip';
     res.vary('Accept-Encoding');
-    res.type('json');
+    res.type(type);
     // One tag per representation, so a cache never serves the compressed bytes as plain.
     res.setHeader('ETag', `"${a.etag}${gzipped ? '-gz' : ''}"`);
     if (gzipped) res.setHeader('Content-Encoding', 'gzip');
     res.send(gzipped ? a.gzipped : a.plain);
   }
 
-  return { sendJson };
+  return { sendJson, sendBytes };
 }

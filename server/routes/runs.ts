@@ -69,8 +69,8 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, ans
   });
 
   router.get('/runs/:runId/export/arcs.geojson', requireMember('plans:read'), async (req, res) => {
-    const { row, result } = await finishedResult(req);
-    res.attachment(`run-${row.id.slice(0, 8)}-arcs.geojson`).type('application/geo+json').send(JSON.stringify(await arcsGeoJson(db, row.roadLayerId, result)));
+    const { row } = await finishedResult(req);
+    res.attachment(`run-${row.id.slice(0, 8)}-arcs.geojson`).type('application/geo+json').send(JSON.stringify(await arcsGeoJson(db, row.roadLayerId, row.id)));
   });
 
   return router;

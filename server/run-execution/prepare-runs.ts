@@ -9,6 +9,7 @@ import type { Scenario } from '../../shared/api/scenarios';
 import { HttpError } from '../errors';
 import { loadPlanModel, type PlanModel } from '../services/plan-model';
 import { buildRunInput } from './build-run-input';
+import { copyRoadResults } from './road-results';
 
 type RunRow = typeof runs.$inferSelect;
 const inFlight = inArray(runs.status, ['queued', 'running']);
@@ -107,6 +108,8 @@ async function prepareOne(db: Database, r: RunRow, model: PlanModel, scenario: S
         .update(runs)
         .set({ ...identity, status: 'succeeded', phase: `reused the result of run ${same.id}`, progress: 1, result: same.result, startedAt: r.startedAt ?? now, finishedAt: now })
         .where(eq(runs.id, r.id));
+      // The roads' figures come along with the result.
+      await copyRoadResults(tx, same.id, r.id);
       return false;
     }
     await tx.insert(runInputs).values({ runId: r.id, input: built.input });

@@ -12,6 +12,7 @@ import { queueSqlOf, type RunEnqueuer, type RunJob } from '../queue/run-enqueuer
 import { prepareRuns } from './prepare-runs';
 import { solveInWorker, SolveFailure } from './solve-in-worker';
 import { toRunResult } from './to-run-result';
+import { saveRoadResults, toRoadResults } from './road-results';
 
 const cancelPollMs = 1000;
 
@@ -79,7 +80,17 @@ export function createRunExecutor(
     }, cancelPollMs);
     try {
       const done = await job.done;
-      await setState(runId, { status: 'succeeded', phase: 'done', progress: 1, result: toRunResult(row.input, done), finishedAt: new Date() });
+      const result = toRunResult(row.input, done);
+      const roads = toRoadResults(row.input, done);
+      // The result and its roads' figures together, and only while the run is still wanted.
+      await db.transaction(async (tx) => {
+        const stored = await tx
+          .update(runs)
+          .set({ status: 'succeeded', phase: 'done', progress: 1, result, finishedAt: new Date() })
+          .where(and(eq(runs.id, runId), inArray(runs.status, ['queued', 'running'])))
+          .returning({ id: runs.id });
+        if (stored.length > 0) await saveRoadResults(tx, runId, roads);
+      });
     } catch (e) {
       if (e instanceof SolveFailure && e.kind === 'cancelled') return;
       if (e instanceof SolveFailure && e.kind === 'interrupted') {

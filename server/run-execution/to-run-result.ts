@@ -1,13 +1,22 @@
 // The engine's answer → the stored RunResult: engine road indices become segment ids and
 // directions, steps become minutes, vehicles become persons with each zone's own persons per
 // vehicle (a shelter's persons follow the zones its vehicles came from).
-import type { ArcFlow, Bottleneck, Fix, RoadRef, RunResult } from '../../shared/api/runs';
+import type { Bottleneck, Fix, RoadRef, RunResult } from '../../shared/api/runs';
 import type { EvacuationResult } from '../../shared/flow';
 import { ENGINE_VERSION } from './engine-version';
 import type { RunInput } from '../../shared/model/run-input';
 
 export type SolvedRun = { result: EvacuationResult; solveMs: number; peakMemoryBytes: number };
 
+/** Each engine road's capacity in the steady state: the roads as they are at the start, so a
+ *  road closed then carries nothing. */
+export function steadyCapacities(input: RunInput): number[] {
+  const closedAtStart = (road: RunInput['problem']['roads'][number]) =>
+    (road.closures ?? []).some((c) => c.fromSeconds <= 0 && (c.untilSeconds === null || c.untilSeconds > 0));
+  return input.problem.roads.map((road) => (closedAtStart(road) ? 0 : road.capacityVehPerHour));
+}
+
+/** The stored result without per-road figures (those are toRoadResults', in their own table). */
 export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
   const r = done.result;
   const minutesPerStep = r.timeStepSeconds / 60;
@@ -20,28 +29,12 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     return { segmentId: segment.id, direction: origin.direction, name: segment.name, roadClass: segment.roadClass };
   };
 
-  // The steady state reflects the roads as they are at the start: a road closed then carries nothing.
-  const closedAtStart = (road: (typeof roads)[number]) =>
-    (road.closures ?? []).some((c) => c.fromSeconds <= 0 && (c.untilSeconds === null || c.untilSeconds > 0));
-  const steadyCapacity = roads.map((road) => (closedAtStart(road) ? 0 : road.capacityVehPerHour));
+  const steadyCapacity = steadyCapacities(input);
 
   const personsPerVehicle = input.zones.map((z) => (z.vehicles > 0 ? z.persons / z.vehicles : 0));
   const staticCut = new Set(r.steadyState.cutRoads);
   const laneGain = new Map<number, number>();
   for (const f of r.fixes) if (f.kind === 'add-lane') laneGain.set(f.road, f.gainVehPerHour);
-
-  const arcs: ArcFlow[] = roads.map((_road, i) => {
-    const flow = r.steadyState.roadFlowVehPerHour[i] ?? 0;
-    const capacity = steadyCapacity[i]!;
-    return {
-      ...roadRef(i),
-      capacityVehiclesPerHour: capacity,
-      flowVehiclesPerHour: flow,
-      utilisation: capacity > 0 ? flow / capacity : 0,
-      // A closed road crosses the cut with nothing on it: a candidate to reopen, not a choke point.
-      inStaticCut: staticCut.has(i) && capacity > 0,
-    };
-  });
 
   // Time-expanded cut first (largest share first, as the engine ranks them), then static-cut
   // roads the time-expanded cut does not hold.
@@ -124,7 +117,6 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     curve: { stepMinutes: minutesPerStep, deliveredVehicles: delivered },
     zones,
     shelters,
-    arcs,
     bottlenecks,
     arrivalLimits,
     fixes,

@@ -60,6 +60,37 @@ export const arcFlowSchema = roadRefSchema.extend({
 });
 export type ArcFlow = z.infer<typeof arcFlowSchema>;
 
+// One road's share of a result, both directions together: what the map colours it by and what
+// its popup says. Kept per run in its own table (run_road_results) and served by road, by map
+// tile and by export, never with the result: a county has hundreds of thousands of them.
+const directionLoadSchema = z.object({
+  capacityVehiclesPerHour: z.number(),
+  flowVehiclesPerHour: z.number(),
+  utilisation: z.number(),
+  inStaticCut: z.boolean(),
+});
+export type DirectionLoad = z.infer<typeof directionLoadSchema>;
+export const roadResultSchema = z.object({
+  segmentId: z.number().int(),
+  // null: the road has no lane that way (one-way) in this run.
+  forward: directionLoadSchema.nullable(),
+  backward: directionLoadSchema.nullable(),
+  // The busier direction's.
+  utilisation: z.number(),
+  // Its share of the time-expanded cut (both directions) and for how long it is part of it.
+  shareOfCut: z.number(),
+  limitingMinutes: z.number(),
+});
+export type RoadResult = z.infer<typeof roadResultSchema>;
+export const roadResultAnswerSchema = z.object({ road: roadResultSchema.nullable() });
+
+// Geometry of a few roads (a run's choke points and fixes, or roads asked by id), [lon, lat] in
+// the segment's stored direction.
+export const segmentGeometrySchema = z.object({
+  segments: z.array(z.object({ id: z.number().int(), coordinates: z.array(z.tuple([z.number(), z.number()])) })),
+});
+export type SegmentGeometry = z.infer<typeof segmentGeometrySchema>;
+
 export const bottleneckSchema = roadRefSchema.extend({
   capacityVehiclesPerHour: z.number(),
   shareOfCut: z.number(),
@@ -134,7 +165,8 @@ export const runResultSchema = z.object({
   curve: z.object({ stepMinutes: z.number(), deliveredVehicles: z.array(z.number()) }),
   zones: z.array(zoneResultSchema),
   shelters: z.array(shelterResultSchema),
-  arcs: z.array(arcFlowSchema),
+  // Per-road figures are not part of it (see roadResultSchema); results stored before they
+  // moved out had an `arcs` list, which the migration moved into run_road_results.
   bottlenecks: z.array(bottleneckSchema),
   // Absent from results stored by engine versions before it was reported.
   arrivalLimits: arrivalLimitsSchema.optional(),

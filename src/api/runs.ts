@@ -14,25 +14,3 @@ export const cancelRun = (planId: string, runId: string) => request('POST', `${b
 export type RunExport = 'arcs.geojson' | 'bottlenecks.csv' | 'curve.csv';
 /** A plain link: the browser downloads it with the session cookie. */
 export const runExportUrl = (planId: string, runId: string, file: RunExport) => `/api${base(planId)}/${runId}/export/${file}`;
-
-// Only what the map needs from the arcs export: each segment's geometry, in stored direction.
-const arcGeometrySchema = z.object({
-  features: z.array(
-    z.object({
-      geometry: z.object({ coordinates: z.array(z.tuple([z.number(), z.number()])) }),
-      properties: z.object({ segmentId: z.number().int(), direction: z.enum(['forward', 'backward']) }),
-    }),
-  ),
-});
-
-/** Geometry of the roads a run used, by segment id (for choke points outside the loaded view). */
-export async function getRunSegmentGeometry(planId: string, runId: string): Promise<Map<number, [number, number][]>> {
-  const collection = await request('GET', `${base(planId)}/${runId}/export/arcs.geojson`, arcGeometrySchema);
-  const geometry = new Map<number, [number, number][]>();
-  for (const f of collection.features) {
-    const { segmentId, direction } = f.properties;
-    if (geometry.has(segmentId) || f.geometry.coordinates.length < 2) continue;
-    geometry.set(segmentId, direction === 'forward' ? f.geometry.coordinates : [...f.geometry.coordinates].reverse());
-  }
-  return geometry;
-}

@@ -1,9 +1,9 @@
-// Choke points on roads the map has not loaded (far outside the view, or left out of a truncated
-// answer) take their geometry from the run's arcs export, once per run, so that they can still
-// be drawn and zoomed to.
+// The choke points of the shown run are drawn wherever they are, on screen or not: their
+// geometry (with the fixes', a short list) comes in one small answer per run, since the road
+// tiles on screen hold only the roads in view.
 import { watch, type Ref } from 'vue';
 import type { Bottleneck, Run } from '@shared/api/runs';
-import { getRunSegmentGeometry } from '@/api/runs';
+import { getChokePointGeometry } from '@/api/map-tiles';
 
 type Coordinates = [number, number][];
 
@@ -11,24 +11,52 @@ export type MissingGeometryOptions = {
   /** The run whose result is shown, or null. */
   run: Ref<Run | null>;
   bottlenecks: Ref<readonly Bottleneck[]>;
-  /** True once the road layer has loaded and is not loading: before that it may still bring it. */
-  settled: Ref<boolean>;
-  geometryVersion: Ref<number>;
   geometryOf: (segmentId: number) => Coordinates | undefined;
   remember: (more: Map<number, Coordinates>) => void;
 };
 
 export function useMissingGeometry(options: MissingGeometryOptions) {
   let askedFor = '';
-  watch([options.run, options.bottlenecks, options.geometryVersion, options.settled], async () => {
-    const run = options.run.value;
-    if (!run || !options.settled.value || askedFor === run.id) return;
-    if (options.bottlenecks.value.every((b) => options.geometryOf(b.segmentId))) return;
-    askedFor = run.id;
-    try {
-      options.remember(await getRunSegmentGeometry(run.planId, run.id));
-    } catch {
-      // The table still lists them; only drawing and zooming to those roads is unavailable.
-    }
-  });
+  watch(
+    [options.run, options.bottlenecks],
+    async () => {
+      const run = options.run.value;
+      if (!run || askedFor === run.id) return;
+      if (options.bottlenecks.value.every((b) => options.geometryOf(b.segmentId))) return;
+      askedFor = run.id;
+      try {
+        options.remember(await getChokePointGeometry(run.planId, run.id));
+      } catch {
+        // The table still lists them; only drawing and zooming to those roads is unavailable.
+      }
+    },
+    { immediate: true },
+  );
+}
+
+/** The same for several runs (the comparison): each run's list asked for once, until every
+ *  road named is known. */
+export function useRunsChokePointGeometry(options: {
+  runs: Ref<readonly Run[]>;
+  segmentIds: Ref<readonly number[]>;
+  geometryOf: (segmentId: number) => Coordinates | undefined;
+  remember: (more: Map<number, Coordinates>) => void;
+}) {
+  const asked = new Set<string>();
+  watch(
+    [options.runs, options.segmentIds],
+    async () => {
+      for (const run of options.runs.value) {
+        if (options.segmentIds.value.every((id) => options.geometryOf(id))) return;
+        if (asked.has(run.id)) continue;
+        asked.add(run.id);
+        try {
+          options.remember(await getChokePointGeometry(run.planId, run.id));
+        } catch {
+          // The table still lists them; only drawing those roads is unavailable.
+        }
+      }
+    },
+    { immediate: true },
+  );
 }

@@ -1,212 +1,257 @@
-// The road layer on the map, loaded by viewport: on every settled move the visible extent (plus a
-// margin) is asked from the server, simplified for the zoom, older requests aborted. Lines are
-// kept by segment id, so a pan only adds and removes what changed. Before a run roads are styled
-// by class and lanes, after it by utilisation. Geometry seen so far is remembered for the
-// choke points and for zooming to a road from a table.
+// The road layer on the map as vector tiles (server/routes/map-tiles.ts), drawn on canvas by
+// protomaps-leaflet: the map asks only for the tiles on screen, keeps a bounded cache of them and
+// never holds a list of every road, so a county draws as fast as a town. Before a run roads are
+// styled by class and lanes, with a run's tiles by utilisation (src/map/road-tile-style.ts). A
+// click picks the road under the pointer from the tile's own features. Geometry of single roads
+// (the selected one, choke points, a scenario's changes) is asked for by id and remembered.
 import { onBeforeUnmount, ref, watch, type Ref, type ShallowRef } from 'vue';
-import type { SegmentMap, SegmentMapProperties } from '@shared/api/road-layers';
-import { getSegmentMap } from '@/api/road-layers';
-import { L } from '@/map/leaflet';
-import { roadStyle, roadWeight, type LineStyle } from '@/map/road-style';
-import { utilisationStyle } from '@/map/utilisation-scale';
-import { createViewportLoader } from '@/map/viewport-loader';
-import type { SegmentLoad } from '@/format/run-result';
+import type { LeafletLayerOptions, PaintRule } from 'protomaps-leaflet';
+import { roadTileLayer } from '@shared/api/map-tiles';
+import { getSegmentGeometry, roadTileUrl, runTileUrl } from '@/api/map-tiles';
+import { L, loadVectorTiles } from '@/map/leaflet';
+import { closedRoadColor } from '@/map/road-style';
+import { roadOfTile, roadTileStyle } from '@/map/road-tile-style';
+import type { RoadClass } from '@shared/api/network';
 import { messageOf } from '@/format/error-message';
-import type { WorkspaceMap } from './use-leaflet-map';
+import { panes, type WorkspaceMap } from './use-leaflet-map';
 
 type Coordinates = [number, number][];
+
+/** What a click on a road knows of it, from the tile. */
+export type PickedRoadProperties = { id: number; roadClass: RoadClass; name: string | null };
 
 export type RoadSegmentsLayerOptions = {
   planId: Ref<string>;
   /** False while the plan has no road layer. */
   enabled: Ref<boolean>;
-  /** Moves on every edit or upload: reload what is shown. */
+  /** Moves on every edit or upload: the tiles are asked for again. */
   version: Ref<number>;
-  /** Utilisation per segment from the shown result, or null before any run. */
-  loads: Ref<Map<number, SegmentLoad> | null>;
+  /** The run whose figures colour the roads, or null before any run. */
+  runId?: Ref<string | null>;
   selectedId: Ref<number | null>;
-  /** The road layer's extent, [w, s, e, n], when known: once all of it is loaded, pans at the
-   *  same zoom need no request. */
-  extent?: Ref<[number, number, number, number] | null>;
   onSelect: (segmentId: number) => void;
 };
 
-function sameLook(a: SegmentMapProperties, b: SegmentMapProperties): boolean {
-  return a.roadClass === b.roadClass && a.lanesForward === b.lanesForward && a.lanesBackward === b.lanesBackward && a.closed === b.closed;
-}
+const selectedStyle = { color: '#e8743b', weight: 7, opacity: 1, lineCap: 'round' as const };
+/** Pixels around the pointer within which a click picks a road. */
+const pickRadius = 7;
+// Tiles are asked for up to this zoom (the layer draws 512-pixel tiles one zoom below the map's,
+// so this covers the map's 19): enlarged tiles would scale the line widths too.
+const maxDataZoom = 18;
+// Clicks on these panes belong to what is drawn there (choke points, markers, popups).
+const ownClickPanes = [panes.chokePoints.name, panes.selection.name, 'marker', 'popup', 'tooltip'];
 
-const selectedStyle: LineStyle = { color: '#e8743b', weight: 7, opacity: 1, lineCap: 'round' };
+/**
+ * The layer draws each tile asynchronously (fetch, then paint), and its label index may ask for
+ * a tile again later; a layer taken off the map meanwhile (a new run, an edit) has no map left
+ * to ask. Those late calls are dropped instead of throwing.
+ */
+function quietOnceRemoved(layer: Record<string, unknown>) {
+  const onMap = () => Boolean(layer._map);
+  for (const name of ['rerenderTile', 'rerenderTiles'] as const) {
+    const original = (layer[name] as (...args: unknown[]) => unknown).bind(layer);
+    layer[name] = (...args: unknown[]) => (onMap() ? original(...args) : undefined);
+  }
+  const render = (layer.renderTile as (...args: unknown[]) => Promise<void>).bind(layer);
+  layer.renderTile = async (...args: unknown[]) => {
+    if (!onMap()) return;
+    try {
+      await render(...args);
+    } catch (e) {
+      if (onMap()) throw e;
+    }
+  };
+}
 
 export function useRoadSegmentsLayer(handle: ShallowRef<WorkspaceMap | null>, options: RoadSegmentsLayerOptions) {
   const busy = ref(false);
-  const truncated = ref(false);
+  /** Tiles drawn at the moment. */
   const shown = ref(0);
   const error = ref('');
   /** Moves when new geometry was remembered (watchers redraw what depends on it). */
   const geometryVersion = ref(0);
 
   const geometry = new Map<number, Coordinates>();
-  const properties = new Map<number, SegmentMapProperties>();
-  const lines = new Map<number, L.Polyline>();
-  let group: L.LayerGroup | null = null;
-  let loadedZoom = -1;
-  let currentZoom = 0;
+  const properties = new Map<number, PickedRoadProperties>();
+  let layer: (L.GridLayer & { queryTileFeaturesDebug: (lng: number, lat: number, brush: number) => Map<string, { feature: { props: Record<string, unknown> } }[]> }) | null = null;
+  let selectedLine: L.Polyline | null = null;
+  let made = 0;
 
-  function styleOf(p: SegmentMapProperties): LineStyle {
-    if (options.selectedId.value === p.id) return selectedStyle;
-    const loads = options.loads.value;
-    if (loads) {
-      const load = loads.get(p.id);
-      if (p.closed) return roadStyle(p, currentZoom);
-      return utilisationStyle(load?.utilisation ?? 0, roadWeight(p, currentZoom));
-    }
-    return roadStyle(p, currentZoom);
-  }
-
-  function restyleAll() {
-    for (const [id, line] of lines) {
-      const p = properties.get(id);
-      if (p) line.setStyle(styleOf(p));
-    }
-    const selected = options.selectedId.value;
-    if (selected !== null) lines.get(selected)?.bringToFront();
-  }
-
-  function show(result: SegmentMap, zoom: number) {
-    const h = handle.value;
-    if (!h) return;
-    if (!group) group = L.layerGroup().addTo(h.map);
-    // Another zoom means other simplification, but most lines keep their vertices: only a line
-    // whose vertex count changed gets new ones, so zooming does not rebuild the whole layer.
-    const rezoomed = zoom !== loadedZoom;
-    loadedZoom = zoom;
-    const keep = new Set<number>();
+  function remember(more: Map<number, Coordinates>) {
     let added = false;
-    for (const feature of result.features) {
-      const p = feature.properties;
-      keep.add(p.id);
-      const coordinates = feature.geometry.coordinates as Coordinates;
-      const known = geometry.get(p.id);
-      if (!known) added = true;
-      geometry.set(p.id, coordinates);
-      const before = properties.get(p.id);
-      properties.set(p.id, p);
-      const existing = lines.get(p.id);
-      if (existing && rezoomed && known?.length !== coordinates.length) {
-        existing.setLatLngs(coordinates.map(([lon, lat]) => [lat, lon] as [number, number]));
-      }
-      if (existing) {
-        // An edit came back: restyle only the lines whose attributes changed.
-        if (before && !sameLook(before, p)) existing.setStyle(styleOf(p));
-        continue;
-      }
-      const line = L.polyline(
-        coordinates.map(([lon, lat]) => [lat, lon] as [number, number]),
-        { ...styleOf(p), renderer: h.roadRenderer, pane: h.roadRenderer.options.pane, interactive: true, smoothFactor: 1 },
-      );
-      line.on('click', () => options.onSelect(p.id));
-      lines.set(p.id, line);
-      group.addLayer(line);
+    for (const [id, coordinates] of more) {
+      if (geometry.has(id)) continue;
+      geometry.set(id, coordinates);
+      added = true;
     }
-    for (const [id, line] of lines) {
-      if (keep.has(id)) continue;
-      group.removeLayer(line);
-      lines.delete(id);
-    }
-    truncated.value = result.truncated;
-    shown.value = lines.size;
     if (added) geometryVersion.value++;
   }
 
-  const loader = createViewportLoader<SegmentMap>({
-    fetch: (bbox, zoom, signal) => getSegmentMap(options.planId.value, bbox, zoom, signal),
-    onLoaded: (result, request) => {
-      error.value = '';
-      show(result, request.zoom);
-    },
-    onError: (e) => {
+  /** Asks for the geometry of the roads not known yet; resolves once it is remembered. */
+  async function ensureGeometry(ids: readonly number[]): Promise<void> {
+    const missing = [...new Set(ids)].filter((id) => id > 0 && !geometry.has(id));
+    if (missing.length === 0 || !options.enabled.value) return;
+    remember(await getSegmentGeometry(options.planId.value, missing));
+  }
+
+  function paintRules(withResult: boolean): PaintRule[] {
+    const look = (z: number, f?: { props: Record<string, unknown> }) => roadTileStyle(f?.props ?? {}, z, withResult);
+    return [
+      {
+        dataLayer: roadTileLayer,
+        filter: (_z, f) => f.props.closed !== true,
+        symbolizer: new Symbolizers.LineSymbolizer({
+          color: (z, f) => look(z, f).color,
+          width: (z, f) => look(z, f).weight,
+          opacity: (z, f) => look(z, f).opacity,
+          lineCap: 'round',
+          lineJoin: 'round',
+        }),
+      },
+      {
+        dataLayer: roadTileLayer,
+        filter: (_z, f) => f.props.closed === true,
+        symbolizer: new Symbolizers.LineSymbolizer({
+          dash: [4, 4],
+          dashColor: closedRoadColor,
+          dashWidth: (z, f) => look(z, f).weight,
+          opacity: 0.9,
+        }),
+      },
+    ];
+  }
+
+  // Filled once protomaps-leaflet has loaded.
+  const Symbolizers = {} as { LineSymbolizer: typeof import('protomaps-leaflet').LineSymbolizer };
+
+  async function rebuild() {
+    const h = handle.value;
+    const ticket = ++made;
+    removeLayer();
+    if (!h || !options.enabled.value) return;
+    let lib: typeof import('protomaps-leaflet');
+    try {
+      lib = await loadVectorTiles();
+    } catch (e) {
       error.value = messageOf(e);
-    },
-    onBusy: (b) => {
-      busy.value = b;
-    },
-    isComplete: (result) => !result.truncated,
-    extent: () => options.extent?.value ?? null,
-    delayMs: 180,
-  });
-
-  function currentView() {
-    const map = handle.value?.map;
-    if (!map) return null;
-    const b = map.getBounds();
-    return { view: { west: b.getWest(), south: b.getSouth(), east: b.getEast(), north: b.getNorth() }, zoom: Math.round(map.getZoom()) };
-  }
-
-  function requestView() {
-    const current = currentView();
-    if (current && options.enabled.value) loader.request(current.view, current.zoom);
-  }
-
-  function clear() {
-    group?.clearLayers();
-    lines.clear();
-    loadedZoom = -1;
+      return;
+    }
+    if (ticket !== made || handle.value !== h) return;
+    Symbolizers.LineSymbolizer = lib.LineSymbolizer;
+    const runId = options.runId?.value ?? null;
+    const url = runId ? runTileUrl(options.planId.value, runId, options.version.value) : roadTileUrl(options.planId.value, options.version.value);
+    const layerOptions: LeafletLayerOptions = {
+      url,
+      maxDataZoom,
+      paintRules: paintRules(runId !== null),
+      labelRules: [],
+      attribution: '',
+      pane: panes.roads.name,
+    };
+    layer = lib.leafletLayer(layerOptions) as unknown as typeof layer;
+    const tiles = layer!;
+    quietOnceRemoved(tiles as unknown as Record<string, unknown>);
+    tiles.on('loading', () => {
+      busy.value = true;
+    });
+    tiles.on('load', () => {
+      busy.value = false;
+      error.value = '';
+    });
+    tiles.on('tileload', () => shown.value++);
+    tiles.on('tileunload', () => {
+      shown.value = Math.max(0, shown.value - 1);
+    });
     shown.value = 0;
-    truncated.value = false;
+    tiles.addTo(h.map);
+  }
+
+  function removeLayer() {
+    if (layer) {
+      // remove() first: Leaflet unhooks the layer from the map's events on its 'remove' event.
+      layer.remove();
+      layer.off('loading load tileload tileunload');
+    }
+    layer = null;
+    shown.value = 0;
+    busy.value = false;
+  }
+
+  /** The road under a click, from the tiles drawn: the nearest one within the pick radius. */
+  function roadAt(latlng: L.LatLng): PickedRoadProperties | null {
+    if (!layer) return null;
+    const picked = layer.queryTileFeaturesDebug(latlng.lng, latlng.lat, pickRadius);
+    let found: Record<string, unknown> | null = null;
+    for (const features of picked.values()) {
+      // Drawn last is drawn on top: the planner sees that one.
+      for (const p of features) if (typeof p.feature.props.id === 'number') found = p.feature.props;
+    }
+    if (!found) return null;
+    return { id: found.id as number, roadClass: roadOfTile(found).roadClass, name: typeof found.name === 'string' ? found.name : null };
+  }
+
+  function drawSelected() {
+    const h = handle.value;
+    selectedLine?.remove();
+    selectedLine = null;
+    const id = options.selectedId.value;
+    if (!h || id === null) return;
+    const coordinates = geometry.get(id);
+    if (!coordinates) {
+      ensureGeometry([id]).catch(() => undefined);
+      return;
+    }
+    selectedLine = L.polyline(
+      coordinates.map(([lon, lat]) => [lat, lon] as [number, number]),
+      { ...selectedStyle, renderer: h.selectionRenderer, pane: h.selectionRenderer.options.pane, interactive: false },
+    ).addTo(h.map);
   }
 
   watch(
     handle,
     (h, _old, onCleanup) => {
       if (!h) return;
-      currentZoom = h.map.getZoom();
-      const onMoveEnd = () => requestView();
-      const onZoomEnd = () => {
-        currentZoom = h.map.getZoom();
-        restyleAll();
+      const onClick = (e: L.LeafletMouseEvent) => {
+        const target = e.originalEvent?.target as Element | null;
+        if (target && ownClickPanes.some((pane) => target.closest(`.leaflet-${pane}-pane`))) return;
+        const road = roadAt(e.latlng);
+        if (!road) return;
+        properties.set(road.id, road);
+        options.onSelect(road.id);
       };
-      h.map.on('moveend', onMoveEnd);
-      h.map.on('zoomend', onZoomEnd);
-      requestView();
+      h.map.on('click', onClick);
+      rebuild();
       onCleanup(() => {
-        h.map.off('moveend', onMoveEnd);
-        h.map.off('zoomend', onZoomEnd);
+        h.map.off('click', onClick);
+        removeLayer();
       });
     },
     { immediate: true },
   );
 
-  watch([options.version, options.enabled, options.planId], () => {
-    if (!options.enabled.value) {
-      clear();
-      return;
-    }
-    // Edited attributes change styles: ask again for the same view (lines stay until then).
-    const current = currentView();
-    if (current) loader.reload(current.view, current.zoom);
+  watch([options.version, options.enabled, options.planId, () => options.runId?.value ?? null], () => {
+    if (!options.enabled.value) geometry.clear();
+    rebuild();
   });
 
-  watch([options.loads, options.selectedId], () => restyleAll());
+  watch([options.selectedId, geometryVersion, handle], drawSelected, { immediate: true });
 
-  onBeforeUnmount(() => loader.dispose());
+  onBeforeUnmount(() => {
+    made++;
+    removeLayer();
+    selectedLine?.remove();
+  });
 
   return {
     busy,
-    truncated,
     shown,
     error,
     geometryVersion,
     geometryOf: (segmentId: number) => geometry.get(segmentId),
-    /** Adds geometry learnt elsewhere (a run's export) for roads not loaded yet. */
-    remember: (more: Map<number, Coordinates>) => {
-      let added = false;
-      for (const [id, coordinates] of more) {
-        if (geometry.has(id)) continue;
-        geometry.set(id, coordinates);
-        added = true;
-      }
-      if (added) geometryVersion.value++;
-    },
+    /** Adds geometry learnt elsewhere (a run's choke points) for roads not known yet. */
+    remember,
+    ensureGeometry,
+    /** What the tiles said of a road picked on the map. */
     propertiesOf: (segmentId: number) => properties.get(segmentId),
   };
 }

@@ -2,7 +2,7 @@
 // utilisation per road segment for the map, the curve series,
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
 import { cutShare } from '@shared/model/cut-share';
-import type { ArcFlow, Bottleneck, RunResult, RunStatus } from '@shared/api/runs';
+import type { ArcFlow, Bottleneck, RoadResult, RunResult, RunStatus } from '@shared/api/runs';
 import { formatPerHour, formatShare, formatWindows } from '@shared/format/numbers';
 import { headlineFigures, NINETY_PERCENT_NOTE, type HeadlineFigure } from '@shared/format/headline';
 
@@ -56,16 +56,13 @@ export function cutWindowsText(b: Bottleneck): string {
 
 export type SegmentLoad = { utilisation: number; forward: ArcFlow | null; backward: ArcFlow | null };
 
-/** One entry per segment: the busier direction decides its colour. */
-export function loadBySegment(arcs: readonly ArcFlow[]): Map<number, SegmentLoad> {
-  const loads = new Map<number, SegmentLoad>();
-  for (const arc of arcs) {
-    const load = loads.get(arc.segmentId) ?? { utilisation: 0, forward: null, backward: null };
-    load[arc.direction] = arc;
-    load.utilisation = Math.max(load.utilisation, arc.utilisation);
-    loads.set(arc.segmentId, load);
-  }
-  return loads;
+/** A road's figures in a run as its two directed arcs (the busier direction decides its colour). */
+export function segmentLoad(road: RoadResult): SegmentLoad {
+  const arc = (direction: 'forward' | 'backward'): ArcFlow | null => {
+    const d = road[direction];
+    return d ? { segmentId: road.segmentId, direction, name: '', roadClass: '', ...d } : null;
+  };
+  return { utilisation: road.utilisation, forward: arc('forward'), backward: arc('backward') };
 }
 
 export const bottleneckKey = (b: Pick<Bottleneck, 'segmentId' | 'direction'>) => `${b.segmentId}:${b.direction}`;

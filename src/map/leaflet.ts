@@ -9,6 +9,22 @@ import '@/styles/map.css';
 export { L };
 
 let geoman: Promise<void> | null = null;
+let vectorTiles: Promise<typeof import('protomaps-leaflet')> | null = null;
+
+/** The global `L` that plugins written for Leaflet's script build extend or read: a mutable copy
+ *  of this module's exports, so the classes are the very ones LMap uses. */
+function exposeGlobalLeaflet() {
+  const global = window as unknown as { L?: Record<string, unknown> };
+  global.L ??= { ...L };
+}
+
+/** Loads the vector-tile layer (protomaps-leaflet). It subclasses the global `L.GridLayer` when
+ *  a layer is made, so the global must exist by then. */
+export function loadVectorTiles(): Promise<typeof import('protomaps-leaflet')> {
+  exposeGlobalLeaflet();
+  vectorTiles ??= import('protomaps-leaflet');
+  return vectorTiles;
+}
 
 /**
  * Loads leaflet-geoman (drawing). It extends the global `L`, so it gets a mutable copy of this

@@ -37,6 +37,11 @@ async function shoot(page: Page, name: string) {
   await page.waitForTimeout(500);
 }
 
+/** Waits until the road tiles in view are drawn. */
+async function roadTilesDrawn(page: Page) {
+  await page.locator('[data-test="workspace-map"][data-roads-busy="false"]:not([data-road-tiles="0"])').waitFor();
+}
+
 /** A point on the map at a share of its width and height. */
 async function mapPoint(page: Page, x: number, y: number) {
   const box = (await page.locator('.leaflet-container').boundingBox())!;
@@ -64,7 +69,7 @@ it('goes from the plans list to choke points on the map', async () => {
   await page.locator('[data-test="road-file"]').setInputFiles(roadFile);
   await page.locator('[data-test="tab-roads"] h2', { hasText: 'veltmoor-roads-upload.geojson' }).waitFor();
   expect(await page.locator('[data-test="import-report"]').innerText()).toMatch(/[\d,]+ segments and [\d,]+ junctions/);
-  await page.locator('[data-test="map-status"]', { hasText: 'road segments loaded' }).waitFor();
+  await roadTilesDrawn(page);
 
   // Draw a zone on the west bank: four corners, then the first again to close it.
   await page.locator('[data-test="draw-zone"]').click();
@@ -152,7 +157,7 @@ it('shows no basemap by default, and the tile layer with its attribution once an
   await page.waitForURL(/\/plans$/);
 
   await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
-  await page.locator('[data-test="map-status"]', { hasText: 'road segments loaded' }).waitFor();
+  await roadTilesDrawn(page);
   expect(await page.locator('.leaflet-tile-pane img').count()).toBe(0);
   expect(await page.locator('.leaflet-control-scale').count()).toBe(1);
 

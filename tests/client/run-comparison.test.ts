@@ -30,7 +30,6 @@ function result(vehPerHour: number, clearance: number | null, bottlenecks: Bottl
     curve: { stepMinutes: 1, deliveredVehicles: [0, 10] },
     zones: [],
     shelters: [],
-    arcs: [],
     bottlenecks,
     fixes: [],
     stats: { engineVersion: '1', algorithm: 'dinic', nodes: 1, arcs: 1, expandedNodes: 1, expandedArcs: 1, augmentations: 1, solveMs: 1, peakMemoryBytes: 1, verified: true },

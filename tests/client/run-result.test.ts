@@ -5,7 +5,7 @@ import { runResultSchema, type RunResult } from '../../shared/api/runs';
 import { curveCsv } from '../../shared/model/run-export-csv';
 import { rankChokePoints } from '../../shared/format/choke-points';
 import { extrapolatedClearanceMinutes } from '../../shared/format/headline';
-import { chokePointContext, chokePointPopupHtml, curvePoints, cutShare, cutWindowsText, headlineTiles, laneGainText, loadBySegment, roadTitle } from '../../src/format/run-result';
+import { chokePointContext, chokePointPopupHtml, curvePoints, cutShare, cutWindowsText, headlineTiles, laneGainText, roadTitle, segmentLoad } from '../../src/format/run-result';
 
 function result(over: Partial<RunResult['headline']> = {}): RunResult {
   return runResultSchema.parse({
@@ -26,11 +26,6 @@ function result(over: Partial<RunResult['headline']> = {}): RunResult {
     curve: { stepMinutes: 1, deliveredVehicles: [0, 10, 50, 120] },
     zones: [],
     shelters: [],
-    arcs: [
-      { segmentId: 3, direction: 'forward', name: 'Sable Bridge', roadClass: 'primary', capacityVehiclesPerHour: 2000, flowVehiclesPerHour: 2000, utilisation: 1, inStaticCut: true },
-      { segmentId: 3, direction: 'backward', name: 'Sable Bridge', roadClass: 'primary', capacityVehiclesPerHour: 2000, flowVehiclesPerHour: 0, utilisation: 0, inStaticCut: false },
-      { segmentId: 9, direction: 'forward', name: '', roadClass: 'residential', capacityVehiclesPerHour: 600, flowVehiclesPerHour: 150, utilisation: 0.25, inStaticCut: false },
-    ],
     bottlenecks: [
       { segmentId: 5, direction: 'forward', name: 'Ferry <Lane>', roadClass: 'tertiary', capacityVehiclesPerHour: 750, shareOfCut: 750 / 5600, cutWindows: [[10, 360]], inStaticCut: true, gainPerExtraLaneVehiclesPerHour: 0 },
       { segmentId: 3, direction: 'forward', name: 'Sable Bridge', roadClass: 'primary', capacityVehiclesPerHour: 2000, shareOfCut: 2000 / 5600, cutWindows: [[5, 360]], inStaticCut: true, gainPerExtraLaneVehiclesPerHour: 1000 },
@@ -83,12 +78,18 @@ describe('run result wording', () => {
     expect(rankChokePoints(result().bottlenecks, 0).map((b) => b.segmentId)).toEqual([4, 3, 5]);
   });
 
-  it('keeps the busier direction per segment for the map colour', () => {
-    const loads = loadBySegment(result().arcs);
-    expect(loads.get(3)?.utilisation).toBe(1);
-    expect(loads.get(3)?.backward?.flowVehiclesPerHour).toBe(0);
-    expect(loads.get(9)?.forward?.utilisation).toBe(0.25);
-    expect(loads.has(5)).toBe(false);
+  it('splits a road’s figures into its two directions, the busier one giving its colour', () => {
+    const load = segmentLoad({
+      segmentId: 3,
+      forward: { capacityVehiclesPerHour: 2000, flowVehiclesPerHour: 2000, utilisation: 1, inStaticCut: true },
+      backward: null,
+      utilisation: 1,
+      shareOfCut: 0.36,
+      limitingMinutes: 355,
+    });
+    expect(load.utilisation).toBe(1);
+    expect(load.forward).toMatchObject({ segmentId: 3, direction: 'forward', flowVehiclesPerHour: 2000, inStaticCut: true });
+    expect(load.backward).toBeNull();
   });
 
   it('puts the curve in hours after the order, step i at i × step, as curve.csv does', () => {

@@ -216,6 +216,30 @@ const rows: Row[] = [
       call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.runId } }),
     },
   ]),
+  // The map's tiles and per-road reads (server/routes/map-tiles.ts).
+  { route: 'GET /api/plans/:planId/tiles/roads/:z/:x/:y', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, z: 12, x: 2048, y: 2047 } }) },
+  { route: 'GET /api/plans/:planId/runs/:runId/tiles/:z/:x/:y', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId, z: 12, x: 2048, y: 2047 } }) },
+  {
+    route: 'GET /api/plans/:planId/runs/:runId/tiles/:z/:x/:y',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(readers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.runId, z: 12, x: 2048, y: 2047 } }),
+  },
+  { route: 'GET /api/plans/:planId/runs/:runId/roads/:segmentId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId, segmentId: f.plan.segmentId } }) },
+  {
+    route: 'GET /api/plans/:planId/runs/:runId/roads/:segmentId',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(readers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.runId, segmentId: f.plan.segmentId } }),
+  },
+  { route: 'GET /api/plans/:planId/runs/:runId/choke-point-geometry', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId } }) },
+  {
+    route: 'GET /api/plans/:planId/runs/:runId/choke-point-geometry',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(readers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.runId } }),
+  },
+  { route: 'GET /api/plans/:planId/segment-geometry', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id }, query: `ids=${f.plan.segmentId}` }) },
   {
     route: 'POST /api/plans/:planId/batches',
     expect: writers(202),

@@ -4,7 +4,7 @@
 // of shared/model/capacity-defaults.ts; the bridges' classes are set in server/seed/demo-town).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
-import { defaultRunParameters, runWithResultSchema, type RunWithResult } from '../../shared/api/runs';
+import { defaultRunParameters, runWithResultSchema, type ArcFlow, type RunWithResult } from '../../shared/api/runs';
 
 let ctx: TestContext;
 let planner: SignedInAgent;
@@ -20,6 +20,17 @@ async function waitForRun(runId: string, timeoutMs = 60_000): Promise<RunWithRes
     if (Date.now() > until) throw new Error(`run ${runId} still ${run.status} (${run.phase})`);
     await new Promise((r) => setTimeout(r, 200));
   }
+}
+
+/** The run's directed roads with their figures, as its arcs export gives them. */
+async function arcsOf(runId: string): Promise<ArcFlow[]> {
+  const geo = await viewer.agent.get(`/api/plans/${planId}/runs/${runId}/export/arcs.geojson`).buffer(true).parse((res, cb) => {
+    let data = '';
+    res.on('data', (c: Buffer) => (data += c));
+    res.on('end', () => cb(null, JSON.parse(data)));
+  });
+  expect(geo.status).toBe(200);
+  return (geo.body.features as { properties: ArcFlow }[]).map((f) => f.properties);
 }
 
 function start(parameters: object, agent = planner) {
@@ -59,10 +70,11 @@ describe('a run of the demo plan', () => {
     expect(run.status, run.failureReason ?? '').toBe('succeeded');
   });
 
-  it('reports the four bridges as the static choke points, 5,600 veh/h', () => {
+  it('reports the four bridges as the static choke points, 5,600 veh/h', async () => {
     const result = run.result!;
+    const arcs = await arcsOf(run.id);
     expect(result.headline.steadyStateVehiclesPerHour).toBeCloseTo(5600, 6);
-    const staticCut = result.arcs.filter((a) => a.inStaticCut);
+    const staticCut = arcs.filter((a) => a.inStaticCut);
     expect(staticCut.reduce((sum, a) => sum + a.capacityVehiclesPerHour, 0)).toBeCloseTo(5600, 6);
     // Max-flow/min-cut: the cut arcs run full.
     for (const a of staticCut) expect(a.flowVehiclesPerHour).toBeCloseTo(a.capacityVehiclesPerHour, 6);
@@ -105,7 +117,13 @@ describe('a run of the demo plan', () => {
       res.on('data', (c: Buffer) => (data += c));
       res.on('end', () => cb(null, JSON.parse(data)));
     }).expect(200);
-    expect(geo.body.features).toHaveLength(run.result!.arcs.length);
+    // One feature per directed road of the run: as many as the engine problem's roads.
+    const { rows } = await ctx.pool.query<{ n: number }>(
+      `SELECT (count(capacity_forward) + count(capacity_backward))::int AS n FROM run_road_results WHERE run_id = $1`,
+      [run.id],
+    );
+    expect(rows[0]!.n).toBeGreaterThan(0);
+    expect(geo.body.features).toHaveLength(rows[0]!.n);
     expect(geo.body.features[0].geometry.coordinates.length).toBeGreaterThanOrEqual(2);
   });
 
@@ -119,6 +137,8 @@ describe('a run of the demo plan', () => {
     // Reused: no input of its own was stored.
     const { rows } = await ctx.pool.query('SELECT count(*)::int AS n FROM run_inputs WHERE run_id = $1', [res.body.id]);
     expect(rows[0].n).toBe(0);
+    // The roads' figures come along with the result.
+    expect(await arcsOf(again.id)).toEqual(await arcsOf(run.id));
   });
 });
 

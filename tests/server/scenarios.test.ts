@@ -10,6 +10,7 @@ let planner: SignedInAgent;
 let planId: string;
 let base: RunWithResult;
 let bridges: ArcFlow[];
+let baseArcs: ArcFlow[];
 const parameters = { ...defaultRunParameters, horizonMinutes: 120, timeStepSeconds: 120 };
 
 async function run(scenarioId: string | null): Promise<RunWithResult> {
@@ -27,6 +28,17 @@ async function scenario(name: string, overlay: object): Promise<string> {
   return (await planner.agent.post(`/api/plans/${planId}/scenarios`).set('x-csrf-token', planner.csrf).send({ name, overlay }).expect(201)).body.id;
 }
 
+/** A run's directed roads with their figures, as its arcs export gives them. */
+async function arcsOf(runId: string): Promise<ArcFlow[]> {
+  const geo = await planner.agent.get(`/api/plans/${planId}/runs/${runId}/export/arcs.geojson`).buffer(true).parse((res, cb) => {
+    let data = '';
+    res.on('data', (c: Buffer) => (data += c));
+    res.on('end', () => cb(null, JSON.parse(data)));
+  });
+  expect(geo.status).toBe(200);
+  return (geo.body.features as { properties: ArcFlow }[]).map((f) => f.properties);
+}
+
 const closeAll = (arcs: ArcFlow[]) => ({ closures: arcs.map((a) => ({ segmentId: a.segmentId, fromMinutes: 0, untilMinutes: null })) });
 
 beforeAll(async () => {
@@ -34,7 +46,8 @@ beforeAll(async () => {
   planner = await signInAs(ctx.app, 'planner');
   planId = (await planner.agent.get('/api/plans').expect(200)).body.plans[0].id;
   base = await run(null);
-  bridges = base.result!.arcs.filter((a) => a.inStaticCut).sort((a, b) => b.capacityVehiclesPerHour - a.capacityVehiclesPerHour);
+  baseArcs = await arcsOf(base.id);
+  bridges = baseArcs.filter((a) => a.inStaticCut).sort((a, b) => b.capacityVehiclesPerHour - a.capacityVehiclesPerHour);
   expect(bridges).toHaveLength(4);
 });
 afterAll(async () => {
@@ -74,9 +87,9 @@ describe('contraflow', () => {
     // The bridge where one more lane gains most (the engine's fix ranking of the base run).
     const laneGain = (a: ArcFlow) => base.result!.bottlenecks.find((b) => b.segmentId === a.segmentId && b.direction === a.direction)?.gainPerExtraLaneVehiclesPerHour ?? 0;
     const bridge = [...bridges].sort((a, b) => laneGain(b) - laneGain(a))[0]!;
-    const inbound = base.result!.arcs.find((a) => a.segmentId === bridge.segmentId && a.direction !== bridge.direction)!;
+    const inbound = baseArcs.find((a) => a.segmentId === bridge.segmentId && a.direction !== bridge.direction)!;
     const r = await run(await scenario('Bridge contraflow', { contraflow: [{ name: 'Main bridge', segmentIds: [bridge.segmentId], direction: bridge.direction }] }));
-    const out = r.result!.arcs.find((a) => a.segmentId === bridge.segmentId && a.direction === bridge.direction)!;
+    const out = (await arcsOf(r.id)).find((a) => a.segmentId === bridge.segmentId && a.direction === bridge.direction)!;
     expect(out.capacityVehiclesPerHour).toBeCloseTo(bridge.capacityVehiclesPerHour + inbound.capacityVehiclesPerHour, 6);
     const gain = r.result!.headline.steadyStateVehiclesPerHour - base.result!.headline.steadyStateVehiclesPerHour;
     // Reversing at least one lane gains at least what one more lane gains (flow is monotone in

@@ -1,5 +1,5 @@
 // Runs: one analysis each, with the exact inputs it used and its full result.
-import { index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigint, boolean, index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
 import type { RunInput } from '../../../shared/model/run-input';
 import type { SweepParameter } from '../../../shared/api/batches';
@@ -46,6 +46,30 @@ export const runInputs = pgTable('run_inputs', {
     .references(() => runs.id, { onDelete: 'cascade' }),
   input: jsonb().$type<RunInput>().notNull(),
 });
+
+// Each road's figures in a finished run (RoadResult in shared/api/runs), one row per segment:
+// the map's tiles, a road's popup and the arcs export read them; the result itself stays small.
+export const runRoadResults = pgTable(
+  'run_road_results',
+  {
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id, { onDelete: 'cascade' }),
+    // A segment of the run's road layer (runs.road_layer_id).
+    segmentId: bigint({ mode: 'number' }).notNull(),
+    // Vehicles per hour in the steady state; capacity null where the road has no lane that way.
+    flowForward: real().notNull(),
+    flowBackward: real().notNull(),
+    capacityForward: real(),
+    capacityBackward: real(),
+    utilisation: real().notNull(),
+    cutForward: boolean().notNull(),
+    cutBackward: boolean().notNull(),
+    shareOfCut: real().notNull(),
+    limitingMinutes: real().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.runId, t.segmentId] })],
+);
 
 // A sweep of one parameter over a scenario: its runs carry batchId and their sweep value.
 export const batches = pgTable('batches', {

@@ -14,6 +14,7 @@ import type { Database } from '../../../server/db/client';
 import { plans, roadLayers, roadSegments, runs, shelters, zones } from '../../../server/db/schema';
 import { demoPlanName } from '../../../server/seed/seed-demo';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
+import { saveRoadResults } from '../../../server/runs/road-results';
 import { cumulativeShareDeparted } from '../../../shared/model/departure-curves';
 import { evacuatingPersons, meanPersonsPerVehicle, zoneVehicles } from '../../../shared/model/vehicles';
 
@@ -106,16 +107,6 @@ export async function insertDemoRun(
       const vehicles = i >= 0 ? boundedVehicles[i]! : Math.round(rest / Math.max(1, exits));
       return { shelterId: s.id, name: s.name, capacityPersons: s.capacityPersons, arrivedVehicles: vehicles, arrivedPersons: vehicles * ppv, steadyStateVehiclesPerHour: Math.round((steady * vehicles) / Math.max(1, delivered)) };
     }),
-    arcs: bridges.map((b) => ({
-      segmentId: b.segment.id,
-      direction: 'forward' as const,
-      name: b.name,
-      roadClass: b.segment.roadClass,
-      capacityVehiclesPerHour: b.capacity,
-      flowVehiclesPerHour: b.capacity,
-      utilisation: 1,
-      inStaticCut: true,
-    })),
     bottlenecks: bridges.map((b) => ({
       segmentId: b.segment.id,
       direction: 'forward' as const,
@@ -161,5 +152,18 @@ export async function insertDemoRun(
       finishedAt: now,
     })
     .returning({ id: runs.id });
+  // The bridges' figures, as a worker stores them beside the result.
+  await saveRoadResults(db, row!.id, {
+    segmentId: bridges.map((b) => b.segment.id),
+    flowForward: bridges.map((b) => b.capacity),
+    flowBackward: bridges.map(() => 0),
+    capacityForward: bridges.map((b) => b.capacity),
+    capacityBackward: bridges.map(() => null),
+    utilisation: bridges.map(() => 1),
+    cutForward: bridges.map(() => true),
+    cutBackward: bridges.map(() => false),
+    shareOfCut: bridges.map((b) => b.capacity / STEADY_VEHICLES_PER_HOUR),
+    limitingMinutes: bridges.map(() => (clearance ?? p.horizonMinutes) - LAG_MINUTES - 10),
+  });
   return { runId: row!.id, result };
 }

@@ -34,7 +34,6 @@ function result(ids: number[], steady: number, clearance: number | null): RunRes
     curve: { stepMinutes: 1, deliveredVehicles: [0] },
     zones: [],
     shelters: [],
-    arcs: [],
     bottlenecks: ids.map(bottleneck),
     fixes: [],
     stats: { engineVersion: 't', algorithm: 't', nodes: 0, arcs: 0, expandedNodes: 0, expandedArcs: 0, augmentations: 0, solveMs: 0, peakMemoryBytes: 0, verified: true },
