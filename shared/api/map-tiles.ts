@@ -3,7 +3,7 @@
 // usual web-map (XYZ) scheme. The properties below are the contract between the server's tile
 // query and the client's styling.
 import { z } from 'zod';
-import type { RoadClass } from './network';
+import type { RoadClass } from './road-attributes';
 
 export const roadTileLayer = 'roads';
 /** Tile coordinates span 0..extent-1 (the MVT default). */

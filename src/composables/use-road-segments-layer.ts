@@ -11,7 +11,7 @@ import { getSegmentGeometry, roadTileUrl, runTileUrl } from '@/api/map-tiles';
 import { L, loadVectorTiles } from '@/map/leaflet';
 import { closedRoadColor } from '@/map/road-style';
 import { roadOfTile, roadTileStyle } from '@/map/road-tile-style';
-import type { RoadClass } from '@shared/api/network';
+import type { RoadClass } from '@shared/api/road-attributes';
 import { messageOf } from '@/format/error-message';
 import { panes, type WorkspaceMap } from './use-leaflet-map';
 

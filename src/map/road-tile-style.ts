@@ -1,8 +1,8 @@
 // How a road drawn from a map tile looks: the same looks as everywhere (road-style.ts before a
 // run, utilisation-scale.ts after one), read from the tile's properties (shared/api/map-tiles).
 // Pure: no Leaflet and no tile layer here.
-import type { RoadClass } from '@shared/api/network';
-import { drivableRoadClasses } from '@shared/api/network';
+import type { RoadClass } from '@shared/api/road-attributes';
+import { drivableRoadClasses } from '@shared/api/road-attributes';
 import { roadStyle, roadWeight, type LineStyle } from './road-style';
 import { utilisationStyle } from './utilisation-scale';
 

@@ -14,7 +14,7 @@ import type { Database } from '../../../server/db/client';
 import { plans, roadLayers, roadSegments, runs, shelters, zones } from '../../../server/db/schema';
 import { demoPlanName } from '../../../server/seed/seed-demo';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
-import { saveRoadResults } from '../../../server/runs/road-results';
+import { saveRoadResults } from '../../../server/run-execution/road-results';
 import { cumulativeShareDeparted } from '../../../shared/model/departure-curves';
 import { evacuatingPersons, meanPersonsPerVehicle, zoneVehicles } from '../../../shared/model/vehicles';
 
