@@ -4,7 +4,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { runTileParamsSchema, segmentGeometryQuerySchema, tileParamsSchema } from '../../shared/api/map-tiles';
-import { planParamsSchema } from '../../shared/api/road-layers';
+import { planParamsSchema } from '../../shared/api/plans';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { roadTile, runMapVersion, segmentGeometry } from '../services/map-tiles';

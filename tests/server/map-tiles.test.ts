@@ -188,7 +188,7 @@ describe('a run’s figures', () => {
 
 describe('results stored with every arc in them', () => {
   it('move their arcs into the per-road table when migrated', async () => {
-    const statements = readFileSync(new URL('../../drizzle/0012_run_road_results.sql', import.meta.url), 'utf8').split('--> statement-breakpoint');
+    const statements = readFileSync(new URL('../../drizzle/0013_run_road_results.sql', import.meta.url), 'utf8').split('--> statement-breakpoint');
     // The data statements: the last three (insert, shares, drop the list).
     const data = statements.slice(-3);
     expect(data[0]).toMatch(/INSERT INTO "run_road_results"/);
