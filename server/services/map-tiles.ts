@@ -33,8 +33,8 @@ export async function roadTile(db: Database, layerId: number, tile: Pick<TileAdd
   const join = runId === null ? sql`` : sql`LEFT JOIN run_road_results r ON r.run_id = ${runId}::uuid AND r.segment_id = s.id`;
   const shown =
     runId === null
-      ? sql`${classMinZoom} <= ${z}`
-      : sql`(${classMinZoom} <= ${z} OR (${z} >= ${loadedRoadsMinZoom} AND r.utilisation > 0) OR r.cut_forward OR r.cut_backward OR r.share_of_cut > 0)`;
+      ? sql`${classMinZoom} <= ${z}::int`
+      : sql`(${classMinZoom} <= ${z} OR (${z}::int >= ${loadedRoadsMinZoom}::int AND r.utilisation > 0) OR r.cut_forward OR r.cut_backward OR r.share_of_cut > 0)`;
   const { rows } = await db.execute<{ tile: Buffer | null }>(sql`
     WITH bounds AS (
       SELECT ST_TileEnvelope(${z}, ${x}, ${y}) AS env, ST_Transform(ST_TileEnvelope(${z}, ${x}, ${y}, margin => ${margin}), 4326) AS lonlat

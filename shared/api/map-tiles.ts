@@ -39,12 +39,14 @@ export const roadClassMinZoom: Record<RoadClass, number> = {
   secondary_link: 11,
   tertiary: 9,
   tertiary_link: 11,
-  unclassified: 11,
-  residential: 11,
-  living_street: 12,
-  service: 12,
+  unclassified: 12,
+  residential: 12,
+  living_street: 13,
+  service: 13,
 };
-export const loadedRoadsMinZoom = 9;
+// Measured on a 180,600-segment grid county: from zoom 11 with every street, or from 9 with
+// every loaded road, a tile held up to 1.7 and 4.9 MB; from 12 the largest is about 0.5 MB.
+export const loadedRoadsMinZoom = 12;
 
 export const tileParamsSchema = z
   .object({

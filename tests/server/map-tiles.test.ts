@@ -160,6 +160,13 @@ describe('a run’s figures', () => {
         expect(Number(f.properties.utilisation)).toBeCloseTo(1, 5);
       }
     }
+    // Far out, a road that carries flow but is neither major nor in the cut is left out.
+    const minor = new Set(Object.entries(roadClassMinZoom).filter(([, min]) => min > 8).map(([c]) => c));
+    for (const t of tilesCovering(bbox, 8)) {
+      for (const f of (await getTile(runTilePath(t))).features) {
+        if (minor.has(String(f.properties.roadClass))) expect(f.properties.inCut || Number(f.properties.shareOfCut) > 0, `road ${f.properties.id}`).toBeTruthy();
+      }
+    }
   });
 
   it('are served by road, and the choke points’ geometry in one small answer', async () => {
