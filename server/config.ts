@@ -15,8 +15,10 @@ const configSchema = z.object({
   HOST: z.string().default('127.0.0.1'),
   DATABASE_URL: z.string().url().default(`postgres://postgres@127.0.0.1:${defaultPort}/cutline`),
   SESSION_SECRET: z.string().min(16).default(developmentSecrets.SESSION_SECRET),
-  // Secure cookies need HTTPS in front of the server; off by default so loopback use works.
-  COOKIE_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  // Secure cookies need HTTPS in front of the server: on by default under NODE_ENV=production
+  // (a deployment sits behind a TLS proxy), off otherwise so loopback use works; either way an
+  // explicit value wins (resolved below, once NODE_ENV is known).
+  COOKIE_SECURE: z.enum(['true', 'false']).optional(),
   SIGN_IN_ATTEMPTS_PER_WINDOW: z.coerce.number().int().positive().default(10),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   // Failed sign-ins per address in that window, whatever the e-mail (password spraying).
@@ -104,12 +106,18 @@ const configSchema = z.object({
   }, 'Not an IANA time zone name.'),
 });
 
-export type Config = z.infer<typeof configSchema>;
+const resolvedSchema = configSchema.transform((c) => ({ ...c, COOKIE_SECURE: c.COOKIE_SECURE === undefined ? c.NODE_ENV === 'production' : c.COOKIE_SECURE === 'true' }));
+
+export type Config = z.output<typeof resolvedSchema>;
 
 // In production the published development secrets would let anyone forge sessions or open the
 // stored signing keys, so they are refused.
-const productionSchema = configSchema.superRefine((c, ctx) => {
+const productionSchema = resolvedSchema.superRefine((c, ctx) => {
   if (c.NODE_ENV !== 'production') return;
+  // The passphrase guards every organisation's signing key in the database and its backups.
+  if (c.SIGNING_KEY_PASSPHRASE.length < 20) {
+    ctx.addIssue({ code: 'custom', path: ['SIGNING_KEY_PASSPHRASE'], message: 'use at least 20 characters in production' });
+  }
   for (const [name, value] of Object.entries(developmentSecrets)) {
     if (c[name as keyof typeof developmentSecrets] === value) {
       ctx.addIssue({ code: 'custom', path: [name], message: 'set a secret of your own in production (the development default is public)' });

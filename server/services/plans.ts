@@ -1,10 +1,10 @@
 // Plans of one organization. Every query filters by the actor's organization, so a plan of
 // another organization is simply not found.
-import { asc, and, desc, eq } from 'drizzle-orm';
+import { asc, and, count, desc, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
-import { plans } from '../db/schema';
+import { briefings, plans } from '../db/schema';
 import type { Plan, PlanCreate, PlanUpdate } from '../../shared/api/plans';
-import { NotFoundError } from '../errors';
+import { ConflictError, NotFoundError } from '../errors';
 import { recordAudit, type Actor } from './audit';
 import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
@@ -57,6 +57,20 @@ export async function updatePlan(db: Database, actor: Actor, planId: string, inp
 
 export async function deletePlan(db: Database, actor: Actor, planId: string): Promise<void> {
   await db.transaction(async (tx) => {
+    // Briefings are part of the record and keep their plan (no cascade in the schema): a plan
+    // with any is refused with the reason, rather than failing on the foreign key.
+    const [plan] = await tx
+      .select({ id: plans.id })
+      .from(plans)
+      .where(and(eq(plans.id, planId), eq(plans.organizationId, actor.organizationId)))
+      .for('update');
+    if (!plan) throw new NotFoundError('plan');
+    const [{ n } = { n: 0 }] = await tx.select({ n: count() }).from(briefings).where(eq(briefings.planId, planId));
+    if (n > 0) {
+      throw new ConflictError(
+        `This plan has ${n} briefing${n === 1 ? '' : 's'}, which ${n === 1 ? 'is' : 'are'} part of the record, so it cannot be deleted. Keep it, or rename it to mark it as no longer in use.`,
+      );
+    }
     const [row] = await tx
       .delete(plans)
       .where(and(eq(plans.id, planId), eq(plans.organizationId, actor.organizationId)))

@@ -107,20 +107,33 @@ async function lockMembership(tx: Tx, organizationId: string, userId: string) {
   return row;
 }
 
-async function assertAnotherAdmin(tx: Tx, organizationId: string, userId: string) {
+/**
+ * Locks every administrator membership of the organization, always in the same order, before
+ * any role change or removal: two administrators demoting each other at once are then
+ * serialised, and the second sees the first's change (so at least one administrator remains),
+ * instead of both seeing the other still an administrator.
+ */
+async function lockAdministrators(tx: Tx, organizationId: string): Promise<string[]> {
   const admins = await tx
     .select({ userId: memberships.userId })
     .from(memberships)
-    .where(and(eq(memberships.organizationId, organizationId), eq(memberships.role, 'admin')));
-  if (!admins.some((a) => a.userId !== userId)) {
+    .where(and(eq(memberships.organizationId, organizationId), eq(memberships.role, 'admin')))
+    .orderBy(asc(memberships.userId))
+    .for('update');
+  return admins.map((a) => a.userId);
+}
+
+function assertAnotherAdmin(admins: string[], userId: string) {
+  if (!admins.some((a) => a !== userId)) {
     throw new ConflictError('An organization needs at least one administrator.');
   }
 }
 
 export async function updateMemberRole(db: Database, actor: Actor, userId: string, role: Role): Promise<Member> {
   const member = await db.transaction(async (tx) => {
+    const admins = await lockAdministrators(tx, actor.organizationId);
     const current = await lockMembership(tx, actor.organizationId, userId);
-    if (current.role === 'admin' && role !== 'admin') await assertAnotherAdmin(tx, actor.organizationId, userId);
+    if (current.role === 'admin' && role !== 'admin') assertAnotherAdmin(admins, userId);
     await tx
       .update(memberships)
       .set({ role })
@@ -135,8 +148,9 @@ export async function updateMemberRole(db: Database, actor: Actor, userId: strin
 
 export async function removeMember(db: Database, actor: Actor, userId: string): Promise<void> {
   await db.transaction(async (tx) => {
+    const admins = await lockAdministrators(tx, actor.organizationId);
     const current = await lockMembership(tx, actor.organizationId, userId);
-    if (current.role === 'admin') await assertAnotherAdmin(tx, actor.organizationId, userId);
+    if (current.role === 'admin') assertAnotherAdmin(admins, userId);
     await tx
       .delete(memberships)
       .where(and(eq(memberships.organizationId, actor.organizationId), eq(memberships.userId, userId)));

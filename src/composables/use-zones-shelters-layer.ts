@@ -1,6 +1,7 @@
 // Zones (translucent polygons with their names) and shelters (round pins, an exit shown with an
 // arrow) on the map, with the road nodes each one attaches to when asked for, and the draft
 // being drawn. Clicking one selects it in the side panel.
+import { bindTextTooltip } from '@/map/text-tooltip';
 import { watch, type Ref, type ShallowRef } from 'vue';
 import { mdiExitRun, mdiHome } from '@mdi/js';
 import type { Feature, Polygon, MultiPolygon } from 'geojson';
@@ -24,9 +25,6 @@ export type ZonesSheltersLayerOptions = {
 const zoneColor = '#2e7d4f';
 const selectedColor = '#e8743b';
 
-function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
-}
 
 function shelterIcon(shelter: Pick<Shelter, 'capacityPersons'>, selected: boolean, draft = false) {
   const path = shelter.capacityPersons === null ? mdiExitRun : mdiHome;
@@ -65,7 +63,7 @@ export function useZonesSheltersLayer(handle: ShallowRef<WorkspaceMap | null>, o
         renderer: h.zoneRenderer,
         pane: h.zoneRenderer.options.pane,
       } as L.GeoJSONOptions);
-      layer.bindTooltip(escapeHtml(zone.name), { permanent: true, direction: 'center', className: 'cutline-zone-label', opacity: 0.9 });
+      bindTextTooltip(layer, zone.name, { permanent: true, direction: 'center', className: 'cutline-zone-label', opacity: 0.9 });
       layer.on('click', () => options.onSelectZone(zone.id));
       zoneGroup.addLayer(layer);
     }
@@ -79,7 +77,7 @@ export function useZonesSheltersLayer(handle: ShallowRef<WorkspaceMap | null>, o
     for (const shelter of options.shelters.value) {
       const selected = options.selectedShelterId.value === shelter.id;
       const marker = L.marker([shelter.lat, shelter.lon], { icon: shelterIcon(shelter, selected), title: shelter.name, riseOnHover: true, keyboard: true });
-      marker.bindTooltip(escapeHtml(shelter.name), { direction: 'right', className: 'cutline-shelter-label' });
+      bindTextTooltip(marker, shelter.name, { direction: 'right', className: 'cutline-shelter-label' });
       marker.on('click', () => options.onSelectShelter(shelter.id));
       shelterGroup.addLayer(marker);
     }

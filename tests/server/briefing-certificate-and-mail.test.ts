@@ -31,7 +31,7 @@ beforeAll(async () => {
   // Stands in for a certificate from a certificate authority: what matters here is that it comes from a file.
   configured = generateOrganizationCertificate({ organizationName: 'Veltmoor Emergency Management', passphrase: 'configured-p12-pass' });
   writeFileSync(path.join(dir, 'org.p12'), configured.p12);
-  ctx = await createTestContext({ SMTP_URL: smtp.url, SIGNING_P12_PATH: path.join(dir, 'org.p12'), SIGNING_P12_PASSPHRASE: 'configured-p12-pass' });
+  ctx = await createTestContext({ SMTP_URL: smtp.url, SIGNING_P12_PATH: path.join(dir, 'org.p12'), SIGNING_P12_PASSPHRASE: configured.passphrase });
   planner = await signInAs(ctx.app, 'planner');
   official = await signInAs(ctx.app, 'official');
 });
@@ -80,4 +80,4 @@ it('signs with the configured certificate, records a refused delivery, and sends
   // Nothing left to send: a second retry sends nothing.
   const again = briefingStepResponseSchema.parse((await planner.agent.post(`/api/briefings/${id}/distribute`).set('x-csrf-token', planner.csrf)).body);
   expect(again.mail).toEqual({ sent: [], failed: [] });
-});
+}, 120_000);

@@ -11,7 +11,20 @@ describe('loadConfig', () => {
   it('refuses the development session secret and signing passphrase in production', () => {
     expect(() => loadConfig({ NODE_ENV: 'production' })).toThrow(/SESSION_SECRET: set a secret of your own[\s\S]*SIGNING_KEY_PASSPHRASE: set a secret/);
     expect(() => loadConfig({ NODE_ENV: 'production', SESSION_SECRET: 'a'.repeat(32) })).toThrow(/SIGNING_KEY_PASSPHRASE/);
-    expect(loadConfig({ NODE_ENV: 'production', SESSION_SECRET: 'a'.repeat(32), SIGNING_KEY_PASSPHRASE: 'b'.repeat(16) }).NODE_ENV).toBe('production');
+    expect(loadConfig({ NODE_ENV: 'production', SESSION_SECRET: 'a'.repeat(32), SIGNING_KEY_PASSPHRASE: 'b'.repeat(20) }).NODE_ENV).toBe('production');
+  });
+
+  it('requires a long signing key passphrase in production', () => {
+    expect(() => loadConfig({ NODE_ENV: 'production', SESSION_SECRET: 'a'.repeat(32), SIGNING_KEY_PASSPHRASE: 'b'.repeat(19) })).toThrow(/SIGNING_KEY_PASSPHRASE: use at least 20 characters in production/);
+    expect(loadConfig({ NODE_ENV: 'development', SIGNING_KEY_PASSPHRASE: 'b'.repeat(8) }).SIGNING_KEY_PASSPHRASE).toHaveLength(8);
+  });
+
+  it('makes cookies Secure under NODE_ENV=production unless told otherwise', () => {
+    const production = { NODE_ENV: 'production', SESSION_SECRET: 'a'.repeat(32), SIGNING_KEY_PASSPHRASE: 'b'.repeat(20) };
+    expect(loadConfig(production).COOKIE_SECURE).toBe(true);
+    expect(loadConfig({ ...production, COOKIE_SECURE: 'false' }).COOKIE_SECURE).toBe(false);
+    expect(loadConfig({ NODE_ENV: 'development' }).COOKIE_SECURE).toBe(false);
+    expect(loadConfig({ NODE_ENV: 'development', COOKIE_SECURE: 'true' }).COOKIE_SECURE).toBe(true);
   });
 
   it('names each bad value', () => {

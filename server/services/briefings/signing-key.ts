@@ -8,7 +8,7 @@ import { organizationSigningKeys, organizations } from '../../db/schema';
 import type { Config } from '../../config';
 import {
   CertificateError,
-  loadOrganizationCertificate,
+  loadStoredCertificate,
   readConfiguredCertificate,
   resolveOrganizationCertificate,
   type OrganizationCertificate,
@@ -41,7 +41,7 @@ async function store(tx: Tx, actor: Actor, certificate: OrganizationCertificate)
       organizationId: actor.organizationId,
       source: certificate.source,
       // A configured key stays in its file; only a generated one is kept here (encrypted).
-      p12: certificate.source === 'generated' ? certificate.p12 : null,
+      p12: certificate.source === 'generated' ? (certificate.stored ?? certificate.p12) : null,
       certificatePem: certificate.certificatePem,
       fingerprintSha256: certificate.fingerprintSha256,
       subject: certificate.subject,
@@ -80,7 +80,7 @@ export async function signingKeyFor(tx: Tx, config: Config, actor: Actor): Promi
     .where(and(eq(organizationSigningKeys.organizationId, actor.organizationId), isNull(organizationSigningKeys.retiredAt)));
   if (active?.source === 'generated' && active.p12) {
     try {
-      return { certificate: loadOrganizationCertificate(active.p12, config.SIGNING_KEY_PASSPHRASE, 'generated'), keyId: active.id };
+      return { certificate: loadStoredCertificate(active.p12, config.SIGNING_KEY_PASSPHRASE), keyId: active.id };
     } catch (err) {
       unusable(err);
     }

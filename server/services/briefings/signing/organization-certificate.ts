@@ -7,15 +7,18 @@
 // "Certificate issuer isn't Trusted"). That is why a real certificate can be configured.
 import { createHash, randomBytes } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
+import { derivePkcs12Password, newKeySalt, openKey, sealKey } from './key-envelope';
 import forge from 'node-forge';
 
 export type CertificateSource = 'generated' | 'configured';
 
 export type OrganizationCertificate = {
   source: CertificateSource;
-  /** PKCS#12 (private key + certificate), encrypted with the passphrase. */
+  /** PKCS#12 (private key + certificate), encrypted with `passphrase` (what the signer opens). */
   p12: Buffer;
   passphrase: string;
+  /** What the database keeps of a generated key (key-envelope.ts); absent for a configured file. */
+  stored?: Buffer;
   certificatePem: string;
   /** SHA-256 of the certificate's DER bytes, lower-case hex: how verification recognises it. */
   fingerprintSha256: string;
@@ -105,9 +108,25 @@ export function generateOrganizationCertificate({ organizationName, passphrase, 
     { name: 'subjectKeyIdentifier' },
   ]);
   cert.sign(keys.privateKey, forge.md.sha256.create());
-  const asn1 = forge.pkcs12.toPkcs12Asn1(keys.privateKey, [cert], passphrase, { algorithm: '3des', friendlyName: `${organizationName} briefing signing` });
+  // AES-256 under PBKDF2-HMAC-SHA256, with a password derived from the passphrase by scrypt.
+  const salt = newKeySalt();
+  const password = derivePkcs12Password(passphrase, salt);
+  const asn1 = forge.pkcs12.toPkcs12Asn1(keys.privateKey, [cert], password, {
+    algorithm: 'aes256',
+    prfAlgorithm: 'sha256',
+    count: 10_000,
+    saltSize: 16,
+    friendlyName: `${organizationName} briefing signing`,
+  } as Parameters<typeof forge.pkcs12.toPkcs12Asn1>[3]);
   const p12 = Buffer.from(forge.asn1.toDer(asn1).getBytes(), 'binary');
-  return describe('generated', p12, passphrase, cert);
+  return { ...describe('generated', p12, password, cert), stored: sealKey(p12, salt) };
+}
+
+/** Opens a generated key as the database keeps it: sealed (key-envelope.ts), or an older plain PKCS#12. */
+export function loadStoredCertificate(stored: Buffer, passphrase: string): OrganizationCertificate {
+  const sealed = openKey(stored);
+  if (!sealed) return { ...loadOrganizationCertificate(stored, passphrase, 'generated'), stored };
+  return { ...loadOrganizationCertificate(sealed.p12, derivePkcs12Password(passphrase, sealed.salt), 'generated'), stored };
 }
 
 /**
@@ -160,6 +179,6 @@ export type ResolveOptions = {
  */
 export async function resolveOrganizationCertificate(o: ResolveOptions): Promise<{ certificate: OrganizationCertificate; created: boolean }> {
   if (o.configured) return { certificate: await readConfiguredCertificate(o.configured.path, o.configured.passphrase), created: false };
-  if (o.stored) return { certificate: loadOrganizationCertificate(o.stored.p12, o.passphrase, 'generated'), created: false };
+  if (o.stored) return { certificate: loadStoredCertificate(o.stored.p12, o.passphrase), created: false };
   return { certificate: generateOrganizationCertificate({ organizationName: o.organizationName, passphrase: o.passphrase, now: o.now }), created: true };
 }
