@@ -138,6 +138,8 @@ async function main(): Promise<void> {
     // Production refuses the published development secrets; these live as long as the bench.
     SESSION_SECRET: randomBytes(24).toString('hex'),
     SIGNING_KEY_PASSPHRASE: randomBytes(24).toString('hex'),
+    // Plain HTTP on loopback, with no TLS proxy in front: production's Secure cookies would never be sent back.
+    COOKIE_SECURE: 'false',
     WORKER_CONCURRENCY: '1',
     API_PROCESSES: String(apiProcesses),
     WORKER_NICENESS: String(workerNiceness),
