@@ -16,7 +16,7 @@ export async function startApiProcess(config: Config): Promise<void> {
   // Development outbox: briefing e-mail goes to a loopback SMTP server that keeps it (admins read it on /outbox).
   const outbox = await startDevOutbox(db, config);
   let stopping = false;
-  const app = createApp({ config: outbox ? { ...config, SMTP_URL: outbox.url } : config, db, pool, runQueue, isStopping: () => stopping });
+  const app = createApp({ config: outbox ? { ...config, SMTP_URL: outbox.url } : config, db, pool, runQueue, importQueue: runQueue, isStopping: () => stopping });
 
   // A fresh production installation has no organization and no demo: say how to make the first.
   const noOrganization = config.NODE_ENV === 'production' && (await db.select({ id: organizations.id }).from(organizations).limit(1)).length === 0;

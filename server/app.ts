@@ -30,6 +30,8 @@ import { settingsRouter } from './routes/settings';
 import { createSettings } from './services/settings';
 import { runsRouter } from './routes/runs';
 import type { RunEnqueuer } from './queue/run-enqueuer';
+import type { ImportEnqueuer } from './queue/run-queue';
+import { importsRouter } from './routes/imports';
 import { healthRouter } from './routes/health';
 import { randomUUID } from 'node:crypto';
 import { pinoHttp } from 'pino-http';
@@ -47,15 +49,23 @@ export type AppDeps = {
   clientDir?: string;
   // Where new runs are queued; worker processes take them from there (server/worker.ts).
   runQueue: RunEnqueuer;
+  // Where uploaded files are queued for import (the same pg-boss; workers take them too).
+  importQueue?: ImportEnqueuer;
   // True once the process is shutting down: /readyz then answers 503.
   isStopping?: () => boolean;
   // Where the JSON log lines go (standard output unless given).
   logDestination?: DestinationStream;
 };
 
+const noImportQueue: ImportEnqueuer = {
+  enqueueImport: async () => {
+    throw new Error('this app was built without an import queue');
+  },
+};
+
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, isStopping, logDestination }: AppDeps) {
+export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, importQueue = noImportQueue, isStopping, logDestination }: AppDeps) {
   const logger = createLogger(config, logDestination);
   const log = givenLog ?? ((err: unknown) => logger.error({ err }, 'unhandled error'));
   const app = express();
@@ -124,6 +134,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
+  app.use('/api/plans/:planId', importsRouter(db, config, importQueue));
   app.use('/api/plans/:planId', batchesRouter(db, config, runQueue));
   app.use('/api/plans/:planId', mapTilesRouter(db, answers));
   app.use('/api/members', membersRouter(db, config));

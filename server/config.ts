@@ -59,6 +59,9 @@ const configSchema = z.object({
   // A job still active this long after its time budget belongs to a dead worker and is retried.
   RUN_EXPIRY_SLACK_SECONDS: z.coerce.number().int().min(1).default(30),
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
+  // An uploaded road, zone or shelter file is read in a worker thread within these (server/import-execution/).
+  IMPORT_TIME_BUDGET_SECONDS: z.coerce.number().positive().default(600),
+  IMPORT_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(4096),
   // A briefing PDF is laid out in a worker thread within these (server/briefings/render-in-worker.ts).
   BRIEFING_RENDER_SECONDS: z.coerce.number().positive().default(120),
   BRIEFING_RENDER_MEGABYTES: z.coerce.number().int().min(32).default(1024),

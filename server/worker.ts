@@ -5,6 +5,7 @@ import { loadConfig } from './config';
 import { createDatabase } from './db/client';
 import { startRunQueue } from './queue/run-queue';
 import { startRunReconciler } from './queue/run-reconciler';
+import { createImportExecutor } from './import-execution/import-executor';
 import { createRunExecutor } from './run-execution/run-executor';
 import { lowerProcessPriority } from './run-execution/lower-priority';
 
@@ -19,6 +20,12 @@ await queue.work(config.WORKER_CONCURRENCY, async (job) => {
   console.log(`[worker] pid ${process.pid} took ${what}`);
   await executor.execute(job);
   console.log(`[worker] pid ${process.pid} finished ${what}`);
+});
+const importer = createImportExecutor(db, config, log);
+await queue.workImports(1, async ({ importId }) => {
+  console.log(`[worker] pid ${process.pid} took import ${importId}`);
+  await importer.execute(importId);
+  console.log(`[worker] pid ${process.pid} finished import ${importId}`);
 });
 const reconciler = startRunReconciler(db, queue, config.RUN_RECONCILE_SECONDS, log);
 console.log(`[worker] ${hostname()} pid ${process.pid}: taking runs from the queue (${config.WORKER_CONCURRENCY} at a time)`);

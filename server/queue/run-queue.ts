@@ -6,8 +6,14 @@ import type { Config } from '../config';
 import { jobKey, type QueueSql, type RunEnqueuer, type RunJob } from './run-enqueuer';
 
 export const RUN_QUEUE = 'runs';
+// Road, zone and shelter files to read and save (server/import-execution/).
+export const IMPORT_QUEUE = 'imports';
+export type ImportJob = { importId: string };
+export type ImportEnqueuer = { enqueueImport(importId: string, within: QueueSql): Promise<void> };
 
-export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_TIME_BUDGET_SECONDS' | 'QUEUE_MAINTENANCE_SECONDS' | 'RUN_EXPIRY_SLACK_SECONDS'>) {
+export async function startRunQueue(
+  config: Pick<Config, 'DATABASE_URL' | 'RUN_TIME_BUDGET_SECONDS' | 'QUEUE_MAINTENANCE_SECONDS' | 'RUN_EXPIRY_SLACK_SECONDS' | 'IMPORT_TIME_BUDGET_SECONDS'>,
+) {
   const boss = new PgBoss({
     connectionString: config.DATABASE_URL,
     schema: 'pgboss',
@@ -26,6 +32,7 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
   for (let attempt = 1; ; attempt++) {
     try {
       await boss.createQueue(RUN_QUEUE);
+      await boss.createQueue(IMPORT_QUEUE);
       break;
     } catch (e) {
       if ((e as { code?: string }).code !== '40P01' || attempt >= 5) throw e;
@@ -55,13 +62,31 @@ export async function startRunQueue(config: Pick<Config, 'DATABASE_URL' | 'RUN_T
         });
       }
     },
+    async enqueueImport(importId: string, within: QueueSql): Promise<void> {
+      const id = await boss.send(IMPORT_QUEUE, { importId } satisfies ImportJob, {
+        db: within,
+        singletonKey: `import:${importId}`,
+        retryLimit: 3,
+        retryDelay: 1,
+        expireInSeconds: Math.ceil(config.IMPORT_TIME_BUDGET_SECONDS + config.RUN_EXPIRY_SLACK_SECONDS + 60),
+      });
+      if (id === null) throw new Error(`import ${importId} could not be queued`);
+    },
+    async workImports(concurrency: number, handler: (job: ImportJob) => Promise<void>): Promise<void> {
+      for (let i = 0; i < concurrency; i++) {
+        await boss.work<ImportJob>(IMPORT_QUEUE, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+          if (job) await handler(job.data);
+        });
+      }
+    },
     /** Stops fetching new jobs; the handlers in progress go on. */
     async stopTaking(): Promise<void> {
       await boss.offWork(RUN_QUEUE);
+      await boss.offWork(IMPORT_QUEUE);
     },
     async stop(): Promise<void> {
       await boss.stop({ graceful: true, wait: true, timeout: 10_000 });
     },
-  } satisfies RunEnqueuer & Record<string, unknown>;
+  } satisfies RunEnqueuer & ImportEnqueuer & Record<string, unknown>;
 }
 export type RunQueue = Awaited<ReturnType<typeof startRunQueue>>;

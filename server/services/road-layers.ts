@@ -22,7 +22,9 @@ function lineWkt(coordinates: readonly (readonly [number, number])[]): string {
 }
 
 // unnest() over parallel arrays: one statement per batch instead of one per row.
-async function insertNodes(tx: Tx, layerId: number, network: RoadGraph) {
+type Written = (rows: number) => Promise<void> | undefined;
+
+async function insertNodes(tx: Tx, layerId: number, network: RoadGraph, written?: Written) {
   for (let start = 0; start < network.nodes.length; start += insertBatch) {
     const slice = network.nodes.slice(start, start + insertBatch);
     await tx.execute(sql`
@@ -30,10 +32,11 @@ async function insertNodes(tx: Tx, layerId: number, network: RoadGraph) {
       SELECT ${layerId}, i, lon, lat FROM unnest(
         ${array(slice.map((_, i) => start + i))}::int[], ${array(slice.map((n) => n.lon))}::float8[], ${array(slice.map((n) => n.lat))}::float8[]
       ) AS t(i, lon, lat)`);
+    await written?.(start + slice.length);
   }
 }
 
-async function insertSegments(tx: Tx, layerId: number, network: RoadGraph) {
+async function insertSegments(tx: Tx, layerId: number, network: RoadGraph, written?: Written) {
   for (let start = 0; start < network.segments.length; start += insertBatch) {
     const s = network.segments.slice(start, start + insertBatch);
     const a = s.map((x) => x.attributes);
@@ -51,6 +54,7 @@ async function insertSegments(tx: Tx, layerId: number, network: RoadGraph) {
         ${array(s.map((x) => x.component))}::int[], ${array(s.map((x) => x.sourceFeatureIndex))}::int[], ${array(s.map((x) => x.sourceId))}::text[],
         ${array(s.map((x) => lineWkt(x.coordinates)))}::text[]
       ) AS u(f, t, c, lf, lb, o, sp, n, b, tu, l, cl, co, len, comp, sfi, sid, g)`);
+    await written?.(start + s.length);
   }
 }
 
@@ -61,6 +65,9 @@ export async function saveRoadLayer(
   planId: string,
   network: RoadGraph,
   meta: { name: string; sourceFileName: string; importOptions: ImportOptions },
+  // An import job's hooks: the share of rows written so far, and a last word before the commit
+  // (a cancel that came in meanwhile throws there and rolls everything back).
+  hooks: { onProgress?: (share: number) => Promise<void>; beforeCommit?: (tx: Tx) => Promise<void> } = {},
 ): Promise<RoadLayer> {
   const layerId = await db.transaction(async (tx) => {
     await bumpDataVersion(tx, actor.organizationId, planId);
@@ -78,14 +85,16 @@ export async function saveRoadLayer(
         createdBy: actor.userId,
       })
       .returning({ id: roadLayers.id });
-    await insertNodes(tx, layer!.id, network);
-    await insertSegments(tx, layer!.id, network);
+    const rows = network.nodes.length + network.segments.length || 1;
+    await insertNodes(tx, layer!.id, network, (n) => hooks.onProgress?.(n / rows));
+    await insertSegments(tx, layer!.id, network, (n) => hooks.onProgress?.((network.nodes.length + n) / rows));
     await recordAudit(tx, actor, 'road-layer.import', 'road_layer', String(layer!.id), {
       planId,
       file: meta.sourceFileName,
       segments: network.segments.length,
       nodes: network.nodes.length,
     });
+    await hooks.beforeCommit?.(tx);
     return layer!.id;
   });
   const layer = await getActiveRoadLayer(db, actor.organizationId, planId);

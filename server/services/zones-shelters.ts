@@ -1,7 +1,7 @@
 // Zones and shelters of a plan: create, edit, delete, and bulk upload from GeoJSON (all or
 // nothing). Every change moves the plan's data version on.
 import { and, asc, eq } from 'drizzle-orm';
-import type { Database } from '../db/client';
+import type { Database, Tx } from '../db/client';
 import { shelters, zones } from '../db/schema';
 import type { Shelter, ShelterCreate, ShelterUpdate, Zone, ZoneCreate, ZoneUpdate } from '../../shared/api/zones-shelters';
 import { NotFoundError } from '../errors';
@@ -40,11 +40,13 @@ export async function listShelters(db: Database, organizationId: string, planId:
   return rows.map(toShelter);
 }
 
-export async function createZones(db: Database, actor: Actor, planId: string, input: ZoneCreate[], source: string): Promise<Zone[]> {
+export async function createZones(db: Database, actor: Actor, planId: string, input: ZoneCreate[], source: string, beforeCommit?: (tx: Tx) => Promise<void>): Promise<Zone[]> {
   return db.transaction(async (tx) => {
     await bumpDataVersion(tx, actor.organizationId, planId);
     const rows = input.length ? await tx.insert(zones).values(input.map((z) => ({ ...z, planId }))).returning() : [];
     await recordAudit(tx, actor, 'zone.create', 'zone', rows.length === 1 ? String(rows[0]!.id) : null, { planId, count: rows.length, source });
+    // An import job's last word: a cancel that came in meanwhile rolls everything back.
+    await beforeCommit?.(tx);
     return rows.map(toZone);
   });
 }
@@ -73,11 +75,13 @@ export async function deleteZone(db: Database, actor: Actor, planId: string, zon
   });
 }
 
-export async function createShelters(db: Database, actor: Actor, planId: string, input: ShelterCreate[], source: string): Promise<Shelter[]> {
+export async function createShelters(db: Database, actor: Actor, planId: string, input: ShelterCreate[], source: string, beforeCommit?: (tx: Tx) => Promise<void>): Promise<Shelter[]> {
   return db.transaction(async (tx) => {
     await bumpDataVersion(tx, actor.organizationId, planId);
     const rows = input.length ? await tx.insert(shelters).values(input.map((s) => ({ ...s, planId }))).returning() : [];
     await recordAudit(tx, actor, 'shelter.create', 'shelter', rows.length === 1 ? String(rows[0]!.id) : null, { planId, count: rows.length, source });
+    // An import job's last word: a cancel that came in meanwhile rolls everything back.
+    await beforeCommit?.(tx);
     return rows.map(toShelter);
   });
 }

@@ -10,21 +10,30 @@ import {
   type SegmentPageQuery,
 } from '@shared/api/road-layers';
 import { request } from './http';
-import { uploadFile, type UploadProgress } from './upload';
+import type { UploadProgress } from './upload';
+import { importFile } from './imports';
 
 const base = (planId: string) => `/plans/${planId}`;
 
 export const getRoadLayer = async (planId: string) => (await request('GET', `${base(planId)}/road-layer`, roadLayerResponseSchema)).layer;
 
-export function uploadRoadLayer(
+/** Uploads a road file as a queued import, follows it to its end, and answers with the new layer. */
+export async function uploadRoadLayer(
   planId: string,
   file: File,
-  options: { name?: string; importOptions?: ImportOptionsInput; onProgress?: (p: UploadProgress) => void; signal?: AbortSignal } = {},
+  options: {
+    name?: string;
+    importOptions?: ImportOptionsInput;
+    onProgress?: (p: UploadProgress) => void;
+    onServerProgress?: (phase: string, share: number) => void;
+    signal?: AbortSignal;
+  } = {},
 ) {
   const fields: Record<string, string> = {};
   if (options.name) fields.name = options.name;
   if (options.importOptions) fields.options = JSON.stringify(options.importOptions);
-  return uploadFile(`${base(planId)}/road-layer`, file, roadLayerResponseSchema, { fields, onProgress: options.onProgress, signal: options.signal });
+  await importFile(planId, 'road-layer', file, { fields, onProgress: options.onProgress, onServerProgress: options.onServerProgress, signal: options.signal });
+  return { layer: await getRoadLayer(planId) };
 }
 
 /** west,south,east,north in degrees. */

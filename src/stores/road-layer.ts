@@ -14,7 +14,9 @@ import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
 import { useZonesSheltersStore } from './zones-shelters';
 
-export type UploadState = { fileName: string; share: number; phase: 'sending' | 'reading' } | null;
+// 'sending': the bytes go up (share of them sent); 'server': the server's worker reads and saves
+// the file (its own phase in words, and share done).
+export type UploadState = { fileName: string; share: number; phase: 'sending' | 'server'; serverPhase: string } | null;
 
 export const useRoadLayerStore = defineStore('road-layer', () => {
   const runs = useRunsStore();
@@ -55,13 +57,16 @@ export const useRoadLayerStore = defineStore('road-layer', () => {
     uploadError.value = '';
     refusal.value = null;
     uploadAbort = new AbortController();
-    upload.value = { fileName: file.name, share: 0, phase: 'sending' };
+    upload.value = { fileName: file.name, share: 0, phase: 'sending', serverPhase: '' };
     try {
       const answer = await roadApi.uploadRoadLayer(planId.value, file, {
         signal: uploadAbort.signal,
         onProgress: (p) => {
-          // Once every byte is sent the server still reads and builds the network.
-          upload.value = { fileName: file.name, share: p.share, phase: p.share >= 1 ? 'reading' : 'sending' };
+          upload.value = { fileName: file.name, share: p.share, phase: 'sending', serverPhase: '' };
+        },
+        // Once every byte is sent, the import waits in the queue, then a worker reads and saves it.
+        onServerProgress: (serverPhase, share) => {
+          upload.value = { fileName: file.name, share, phase: 'server', serverPhase };
         },
       });
       layer.value = answer.layer;

@@ -92,6 +92,30 @@ const rows: Row[] = [
     expect: writers(201),
     call: async (f, _c, ok) => ({ params: { planId: await pick(ok, f.fresh.plan, f.drill.id) }, file: { bytes: smallRoadFile(['Tannery Lane', 'Weir Street', 'Lock Bridge']), name: 'veltmoor-drill-roads.geojson' } }),
   },
+  // Imports (queued jobs: a worker reads and saves the file)
+  {
+    route: 'POST /api/plans/:planId/imports/:kind',
+    expect: writers(202),
+    call: (f, c) => ({ params: { planId: f.drill.id, kind: 'shelters' }, file: sheltersFile(named(f, c, 'Mill Hall')) }),
+  },
+  { route: 'GET /api/plans/:planId/imports/:importId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, importId: f.plan.queuedImportId } }) },
+  {
+    route: 'GET /api/plans/:planId/imports/:importId',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(readers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, importId: f.plan.queuedImportId } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/imports/:importId/cancel',
+    expect: writers(200),
+    call: async (f, _c, ok) => ({ params: { planId: f.plan.id, importId: await pick(ok, f.fresh.queuedImport, f.plan.queuedImportId) } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/imports/:importId/cancel',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(writers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, importId: f.plan.queuedImportId } }),
+  },
   { route: 'GET /api/plans/:planId/segments/map', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id }, query: `bbox=${f.plan.bbox}&zoom=14` }) },
   { route: 'GET /api/plans/:planId/segments', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
   { route: 'GET /api/plans/:planId/segments/:segmentId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, segmentId: f.plan.segmentId } }) },

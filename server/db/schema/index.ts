@@ -7,3 +7,4 @@ export * from './runs';
 export * from './settings';
 export * from './briefings';
 export * from './scenarios';
+export * from './imports';

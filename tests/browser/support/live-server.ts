@@ -9,6 +9,7 @@ import { seedDemo } from '../../../server/seed/seed-demo';
 import { createTestDatabase, type TestDatabase } from '../../server/support/database';
 import { startRunQueue } from '../../../server/queue/run-queue';
 import { createRunExecutor } from '../../../server/run-execution/run-executor';
+import { createImportExecutor } from '../../../server/import-execution/import-executor';
 
 const clientDir = fileURLToPath(new URL('../../../dist', import.meta.url));
 
@@ -22,7 +23,9 @@ export async function startLiveServer(): Promise<LiveServer> {
   const runQueue = await startRunQueue(config);
   const executor = createRunExecutor(database.db, config, console.error, runQueue);
   await runQueue.work(1, (job) => executor.execute(job));
-  const app = createApp({ config, db: database.db, pool: database.pool, clientDir, runQueue });
+  const importer = createImportExecutor(database.db, config, console.error);
+  await runQueue.workImports(1, ({ importId }) => importer.execute(importId));
+  const app = createApp({ config, db: database.db, pool: database.pool, clientDir, runQueue, importQueue: runQueue });
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, '127.0.0.1', () => resolve(s));
   });

@@ -18,7 +18,7 @@ type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 export type Fixtures = {
   organizationId: string;
   /** The seeded demo plan: roads, zones, shelters, a scenario, the finished run, the batch, the briefings. */
-  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; batchId: string };
+  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; batchId: string; queuedImportId: string };
   /** A demo plan whose roads, zones, shelters, scenario and capacity table take the edits that succeed. */
   drill: { id: string; segmentIds: number[]; zoneId: number; shelterId: number; scenarioId: string };
   /** A demo plan kept for the deletions that are refused. */
@@ -38,6 +38,7 @@ export type Fixtures = {
     shelter(): Promise<number>;
     scenario(): Promise<string>;
     queuedRun(): Promise<string>;
+    queuedImport(): Promise<string>;
     draft(): Promise<string>;
     awaitingSignOff(): Promise<string>;
     member(): Promise<string>;
@@ -168,6 +169,16 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
     return rows[0]!.id;
   };
 
+  // An import waiting for a worker that never takes it (it is not on the queue), so cancelling is always possible.
+  const queuedImport = async () => {
+    const { rows } = await ctx.pool.query<{ id: string }>(
+      `INSERT INTO imports (plan_id, kind, file_name, size_bytes, bytes) VALUES ($1, 'shelters', 'waiting.geojson', 2, '{}'::bytea) RETURNING id`,
+      [planId],
+    );
+    remember(rows[0]!.id);
+    return rows[0]!.id;
+  };
+
   // The drill plan: a small road layer, a zone, a shelter, a scenario.
   const newPlan = async (name: string) => {
     const p = await api(planner, 'post', '/api/plans', { name, description: 'Veltmoor drill copy' });
@@ -232,7 +243,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
 
   return {
     organizationId: ctx.demoOrganizationId,
-    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), batchId: batch.id },
+    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), batchId: batch.id, queuedImportId: await queuedImport() },
     drill,
     keptPlanId,
     briefings,
@@ -248,6 +259,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
       zone,
       shelter,
       scenario: drillScenario,
+      queuedImport,
       queuedRun,
       draft,
       awaitingSignOff,

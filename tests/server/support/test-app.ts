@@ -11,6 +11,7 @@ import { createTestDatabase, type TestDatabase } from './database';
 import { startRunQueue } from '../../../server/queue/run-queue';
 import { createRunExecutor } from '../../../server/run-execution/run-executor';
 import type { RunEnqueuer } from '../../../server/queue/run-enqueuer';
+import { createImportExecutor } from '../../../server/import-execution/import-executor';
 
 export const otherAccounts = [
   { role: 'admin' as Role, email: 'admin@other.example', displayName: 'Other Admin', password: 'other-admin-2026' },
@@ -54,8 +55,10 @@ export async function createTestContext(env: Record<string, string> = {}, option
   if (queue) {
     const executor = createRunExecutor(database.db, config, log, queue);
     await queue.work(1, (job) => executor.execute(job));
+    const importer = createImportExecutor(database.db, config, log);
+    await queue.workImports(1, ({ importId }) => importer.execute(importId));
   }
-  const app = createApp({ config, db: database.db, pool: database.pool, log, clientDir: '/nonexistent', runQueue: queue ?? noQueue });
+  const app = createApp({ config, db: database.db, pool: database.pool, log, clientDir: '/nonexistent', runQueue: queue ?? noQueue, ...(queue ? { importQueue: queue } : {}) });
   return {
     ...database,
     drop: async () => {

@@ -1,0 +1,33 @@
+// Runs in a worker thread (read-upload-in-worker.ts): an uploaded file's bytes in, the road
+// graph or the zone or shelter features out, or the reader's refusal. Untrusted parsing happens
+// here, never on a process's event loop; the import path is server/import/'s, so every reader
+// there (and every format it learns) serves the job.
+import { parentPort, workerData } from 'node:worker_threads';
+import type { ImportOptions } from '../../shared/api/road-import';
+import { RoadImportError } from '../../shared/geo/road-import-error';
+import { readShelters } from '../../shared/geo/read-shelters';
+import { readZones } from '../../shared/geo/read-zones';
+import { readGeoJsonUpload } from '../import/decode-upload';
+import { importRoadLayer } from '../import/import-road-layer';
+
+export type ReadRequest = { kind: 'road-layer' | 'zones' | 'shelters'; bytes: Uint8Array; fileName: string; options: ImportOptions | null };
+export type ReadMessage =
+  | { type: 'done'; value: unknown }
+  | { type: 'refused'; failure: RoadImportError['failure'] }
+  | { type: 'error'; message: string };
+
+const { kind, bytes, fileName, options } = workerData as ReadRequest;
+const post = (m: ReadMessage) => parentPort!.postMessage(m);
+
+try {
+  const value =
+    kind === 'road-layer'
+      ? importRoadLayer(bytes, options ?? {}, fileName)
+      : kind === 'zones'
+        ? readZones(readGeoJsonUpload(bytes, fileName))
+        : readShelters(readGeoJsonUpload(bytes, fileName));
+  post({ type: 'done', value });
+} catch (e) {
+  if (e instanceof RoadImportError) post({ type: 'refused', failure: e.failure });
+  else post({ type: 'error', message: e instanceof Error ? e.message : String(e) });
+}
