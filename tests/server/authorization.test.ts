@@ -96,7 +96,9 @@ const rows: Row[] = [
   {
     route: 'POST /api/plans/:planId/imports/:kind',
     expect: writers(202),
-    call: (f, c) => ({ params: { planId: f.drill.id, kind: 'shelters' }, file: sheltersFile(named(f, c, 'Mill Hall')) }),
+    // A file the reader refuses: the import is accepted (202) and fails in its job, writing no
+    // shelter, so nothing lands in the tables later refused calls fingerprint.
+    call: (f) => ({ params: { planId: f.drill.id, kind: 'shelters' }, file: { bytes: Buffer.from('not a feature collection'), name: 'refused.geojson' } }),
   },
   { route: 'GET /api/plans/:planId/imports/:importId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, importId: f.plan.queuedImportId } }) },
   {
