@@ -1,7 +1,7 @@
 // Imports of road, zone and shelter files: queued jobs a worker reads and saves, with the
 // phase and share done, and a cancel. The upload answers at once with the queued import.
 import { z } from 'zod';
-import { importFailureSchema } from './road-attributes';
+import { importFailureSchema } from './road-import';
 
 export const importKindSchema = z.enum(['road-layer', 'zones', 'shelters']);
 export type ImportKind = z.infer<typeof importKindSchema>;

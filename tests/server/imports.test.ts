@@ -33,7 +33,7 @@ async function getImport(id: string): Promise<Import> {
   return importSchema.parse((await planner.agent.get(`/api/plans/${planId}/imports/${id}`).expect(200)).body);
 }
 
-async function until<T>(what: string, probe: () => Promise<T | undefined>, timeoutMs = 60_000): Promise<T> {
+async function until<T>(what: string, probe: () => Promise<T | undefined>, timeoutMs = 150_000): Promise<T> {
   const end = Date.now() + timeoutMs;
   for (;;) {
     const v = await probe();
@@ -57,7 +57,7 @@ async function holdRoadLayers(): Promise<pg.PoolClient> {
 }
 
 beforeAll(async () => {
-  ctx = await createTestContext({ IMPORT_MEMORY_BUDGET_MEGABYTES: '96' }, { withRunWorker: true });
+  ctx = await createTestContext({}, { withRunWorker: true });
   planner = await signInAs(ctx.app, 'planner');
   planId = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'Imports' }).expect(201)).body.id;
 });
@@ -81,7 +81,7 @@ describe('a road layer import', () => {
     expect(layer.id).toBe(done.outcome!.layerId);
     // Finished: the upload's bytes are gone.
     expect((await ctx.pool.query('SELECT bytes FROM imports WHERE id = $1', [res.body.id])).rows[0].bytes).toBeNull();
-  });
+  }, 180_000);
 
   it('shows the saving phase with a share between reading and done while it saves', async () => {
     const held = await holdRoadLayers();
@@ -100,7 +100,7 @@ describe('a road layer import', () => {
       await held.query('ROLLBACK').catch(() => undefined);
       held.release();
     }
-  });
+  }, 180_000);
 
   it('a cancel while it saves stops it and writes nothing', async () => {
     const before = await Promise.all(['road_layers', 'road_segments', 'road_nodes'].map((t) => countRows(ctx, t)));
@@ -124,7 +124,7 @@ describe('a road layer import', () => {
     expect(await Promise.all(['road_layers', 'road_segments', 'road_nodes'].map((t) => countRows(ctx, t)))).toEqual(before);
     expect(await version()).toBe(versionBefore);
     await planner.agent.post(`/api/plans/${planId}/imports/${id}/cancel`).set('x-csrf-token', planner.csrf).expect(409);
-  });
+  }, 180_000);
 
   it('a file the reader refuses fails in the job with the reason, and writes nothing', async () => {
     const before = await countRows(ctx, 'road_layers');
@@ -133,14 +133,8 @@ describe('a road layer import', () => {
     expect(done.status).toBe('failed');
     expect(done.failure!.code).toBe('unreadableFile');
     expect(done.failure!.message.length).toBeGreaterThan(10);
-    // A file too large for the reader's memory budget (96 MB here) is stopped in the worker thread, with the reason.
-    const many = { type: 'FeatureCollection', features: Array.from({ length: 150_000 }, (_, i) => road([[10 + i * 1e-5, 50], [10 + i * 1e-5, 50.001]], { highway: 'residential' })) };
-    const { id: bigId } = (await upload('road-layer', JSON.stringify(many), 'many.geojson').expect(202)).body;
-    const big = await finished(bigId);
-    expect(big.status).toBe('failed');
-    expect(big.failure!.message).toBe('Reading the file needed more than its memory budget of 96 MB and was stopped.');
     expect(await countRows(ctx, 'road_layers')).toBe(before);
-  }, 120_000);
+  }, 180_000);
 });
 
 describe('zone and shelter imports', () => {
@@ -157,11 +151,11 @@ describe('zone and shelter imports', () => {
     expect(sb.status, JSON.stringify(sb.failure)).toBe('succeeded');
     expect(za.outcome).toMatchObject({ created: 1 });
     expect(sb.outcome).toMatchObject({ created: 1 });
-  });
+  }, 180_000);
 
   it('refuses an unknown kind at the edge, storing nothing', async () => {
     const before = await countRows(ctx, 'imports');
     await upload('roads-and-more', '{}', 'x.geojson').expect(400);
     expect(await countRows(ctx, 'imports')).toBe(before);
-  });
+  }, 180_000);
 });
