@@ -49,6 +49,21 @@ export function roadUsage(expanded: TimeExpandedNetwork, state: FlowState, roadC
   };
 }
 
+/** Cumulative arrivals at the shelters by the end of each step 0..T under the flow in `state`. */
+export function arrivalsByStep(expanded: TimeExpandedNetwork, state: FlowState): number[] {
+  const { network, arcKind, layerArcStart, horizonSteps: T } = expanded;
+  const { residualOfArc, mate } = network;
+  const byStep: number[] = [];
+  let running = 0;
+  for (let step = 0; step <= T; step++) {
+    for (let i = layerArcStart[step]!, end = layerArcStart[step + 1]!; i < end; i++) {
+      if (arcKind[i] === ExpandedArcKind.ShelterArrival) running += state.residual[mate[residualOfArc[i]!]!]!;
+    }
+    byStep.push(running);
+  }
+  return byStep;
+}
+
 export interface TripSummary {
   /** Per zone: vehicles delivered and the last arrival step of its vehicles (−1 if none). */
   zoneDelivered: number[];

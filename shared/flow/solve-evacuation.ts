@@ -6,7 +6,7 @@
 import { timeExpandedBottlenecks, type TimeExpandedBottlenecks } from './bottlenecks';
 import { computeEvacuationCurve, type CurveMarks } from './evacuation-curve';
 import { validateEvacuationProblem, type EvacuationProblem } from './evacuation-problem';
-import { decomposeTrips, roadUsage } from './expanded-usage';
+import { arrivalsByStep, decomposeTrips, roadUsage } from './expanded-usage';
 import { rankFixes, type RoadFix } from './fixes';
 import { arcFlows, createFlowState } from './flow-state';
 import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice } from './max-flow';
@@ -91,6 +91,15 @@ export interface EvacuationResult {
   plan: {
     horizonStep: number;
     deliveredVehicles: number;
+    /**
+     * Index t = 0..T: vehicles this plan has delivered by the end of step t. The plan is the
+     * maximum flow of its horizon, built up horizon by horizon; it may deliver fewer than the
+     * curve at an earlier step (with several shelters whose totals bind, no single plan need
+     * reach every step's maximum). Flat after horizonStep.
+     */
+    deliveredVehiclesByStep: number[];
+    /** True when deliveredVehiclesByStep equals the curve at every step: an earliest-arrival plan. */
+    earliestArrival: boolean;
     zones: ZoneOutcome[];
     shelters: ShelterOutcome[];
     /** Zone → shelter vehicle counts (indices into problem.zones and problem.shelters). */
@@ -250,6 +259,8 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
   }
 
   const released = expanded.releases.map((counts) => counts.reduce((a, b) => a + b, 0));
+  const planByStep = arrivalsByStep(expanded, state);
+  const earliestArrival = planByStep.every((d, t) => d === curve.deliveredByStep[t]);
   const orNull = (step: number): number | null => (step < 0 ? null : step);
   const result: EvacuationResult = {
     timeStepSeconds: problem.timeStepSeconds,
@@ -260,6 +271,8 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
     plan: {
       horizonStep: curve.finalHorizon,
       deliveredVehicles: finalDelivered,
+      deliveredVehiclesByStep: planByStep,
+      earliestArrival,
       zones: problem.zones.map((zone, z) => ({
         id: zone.id,
         vehicles: zone.vehicles,
