@@ -37,7 +37,7 @@ import { randomUUID } from 'node:crypto';
 import { pinoHttp } from 'pino-http';
 import { createLogger } from './logger';
 import { scenariosRouter } from './routes/scenarios';
-import { batchesRouter } from './routes/batches';
+import { batchesRouter } from './routes/sweeps';
 import { briefingsRouter } from './routes/briefings';
 
 export type AppDeps = {

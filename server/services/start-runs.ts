@@ -9,7 +9,7 @@ import type { Config } from '../config';
 import type { Database, Tx } from '../db/client';
 import { batches, plans, roadLayers, roadSegments, runs, shelters, zones } from '../db/schema';
 import type { Run, RunParameters } from '../../shared/api/runs';
-import type { batchCreateSchema, SweepParameter } from '../../shared/api/batches';
+import type { batchCreateSchema, SweepParameter } from '../../shared/api/sweeps';
 import type { Scenario } from '../../shared/api/scenarios';
 import { BadRequestError, NotFoundError } from '../errors';
 import { queueSqlOf, type RunEnqueuer } from '../queue/run-enqueuer';

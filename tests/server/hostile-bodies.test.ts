@@ -10,7 +10,7 @@ import request from 'supertest';
 import { z } from 'zod';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signInRequestSchema, switchOrganizationRequestSchema } from '../../shared/api/auth';
-import { batchCreateSchema } from '../../shared/api/batches';
+import { batchCreateSchema } from '../../shared/api/sweeps';
 import {
   briefingCreateSchema,
   briefingReturnSchema,

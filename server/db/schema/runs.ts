@@ -2,7 +2,7 @@
 import { bigint, boolean, index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
 import type { RunInput } from '../../../shared/model/run-input';
-import type { SweepParameter } from '../../../shared/api/batches';
+import type { SweepParameter } from '../../../shared/api/sweeps';
 import { plans } from './plans';
 import { users } from './organizations';
 import { roadLayers } from './road-layers';

@@ -1,5 +1,5 @@
 // Batches: one scenario (or the base plan) run over a sweep of a parameter; start, list, read.
-import { batchListSchema, batchSchema, type BatchCreate } from '@shared/api/batches';
+import { batchListSchema, batchSchema, type BatchCreate } from '@shared/api/sweeps';
 import { request } from './http';
 
 const base = (planId: string) => `/plans/${planId}/batches`;

@@ -1,7 +1,7 @@
 // Batches: a sweep queued as many runs that the worker shares, summarised per value.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
-import { batchSchema, type Batch } from '../../shared/api/batches';
+import { batchSchema, type Batch } from '../../shared/api/sweeps';
 import { defaultRunParameters } from '../../shared/api/runs';
 
 let ctx: TestContext;

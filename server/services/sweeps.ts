@@ -2,7 +2,7 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { batches, runs } from '../db/schema';
-import type { Batch } from '../../shared/api/batches';
+import type { Batch } from '../../shared/api/sweeps';
 import { NotFoundError } from '../errors';
 import { assertPlanInOrganization } from './plan-access';
 import { toRun } from './runs';

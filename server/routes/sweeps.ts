@@ -1,12 +1,12 @@
 // /api/plans/:planId/batches: sweeps of one parameter, queued as many runs.
 import { Router } from 'express';
 import { z } from 'zod';
-import { batchCreateSchema } from '../../shared/api/batches';
+import { batchCreateSchema } from '../../shared/api/sweeps';
 import { planParamsSchema } from '../../shared/api/plans';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { getBatch, listBatches } from '../services/batches';
+import { getBatch, listBatches } from '../services/sweeps';
 import { startRuns, sweepStart } from '../services/start-runs';
 import type { RunEnqueuer } from '../queue/run-enqueuer';
 import { listCaps } from '../../shared/api/pagination';

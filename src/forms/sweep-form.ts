@@ -1,8 +1,8 @@
 // The form that starts a sweep: a name, the scenario (or the base plan), the swept parameter
 // with from, to and step in the planner's units, and the run assumptions; checked with the
 // server's batchCreateSchema.
-import { batchCreateSchema, type BatchCreate, type SweepParameter } from '@shared/api/batches';
-import { sweepMeta, sweepValues } from '@/format/batch-sweep';
+import { batchCreateSchema, type BatchCreate, type SweepParameter } from '@shared/api/sweeps';
+import { sweepMeta, sweepValues } from '@/format/sweep';
 import { validateRunParameters, type RunParameterValues } from './run-parameters';
 import { numberFrom, parseForm, type FieldErrors } from './zod-errors';
 

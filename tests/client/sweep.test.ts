@@ -1,10 +1,10 @@
 // Sweeps: the values from, to and step give (without floating-point drift), the batch form's
 // checks against the shared schema, the progress count, and the summary series.
 import { describe, expect, it } from 'vitest';
-import type { Batch } from '../../shared/api/batches';
+import type { Batch } from '../../shared/api/sweeps';
 import { defaultRunParameters } from '../../shared/api/runs';
-import { batchProgress, formatSweepValue, sweepSeries, sweepValues } from '../../src/format/batch-sweep';
-import { batchFormValues, validateBatchForm } from '../../src/forms/batch-form';
+import { batchProgress, formatSweepValue, sweepSeries, sweepValues } from '../../src/format/sweep';
+import { batchFormValues, validateBatchForm } from '../../src/forms/sweep-form';
 import { defaultParameterValues } from '../../src/forms/run-parameters';
 
 describe('sweepValues', () => {

@@ -1,6 +1,6 @@
 // Sweeps: the values a batch form asks for, in the planner's units (participation in per cent,
 // capacity as a factor), the progress of a batch's runs, and its summary series. Pure.
-import type { Batch, SweepParameter } from '@shared/api/batches';
+import type { Batch, SweepParameter } from '@shared/api/sweeps';
 import type { RunStatus } from '@shared/api/runs';
 import { runIsActive } from './run-result';
 
