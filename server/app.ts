@@ -37,7 +37,7 @@ import { randomUUID } from 'node:crypto';
 import { pinoHttp } from 'pino-http';
 import { createLogger } from './logger';
 import { scenariosRouter } from './routes/scenarios';
-import { batchesRouter } from './routes/sweeps';
+import { sweepsRouter } from './routes/sweeps';
 import { briefingsRouter } from './routes/briefings';
 
 export type AppDeps = {
@@ -135,7 +135,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
   app.use('/api/plans/:planId', importsRouter(db, config, importQueue));
-  app.use('/api/plans/:planId', batchesRouter(db, config, runQueue));
+  app.use('/api/plans/:planId', sweepsRouter(db, config, runQueue));
   app.use('/api/plans/:planId', mapTilesRouter(db, answers));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));

@@ -16,7 +16,7 @@ const queue = await startRunQueue(config);
 const log = (e: unknown) => console.error('[worker]', e);
 const executor = createRunExecutor(db, config, log, queue);
 await queue.work(config.WORKER_CONCURRENCY, async (job) => {
-  const what = 'runId' in job ? `run ${job.runId}` : `sweep ${job.batchId}`;
+  const what = 'runId' in job ? `run ${job.runId}` : `sweep ${job.sweepId}`;
   console.log(`[worker] pid ${process.pid} took ${what}`);
   await executor.execute(job);
   console.log(`[worker] pid ${process.pid} finished ${what}`);

@@ -3,7 +3,7 @@
 import type { Tx } from '../db/client';
 
 /** A job on the run queue: one run to prepare (if need be) and solve, or a sweep to prepare. */
-export type RunJob = { runId: string } | { batchId: string };
+export type RunJob = { runId: string } | { sweepId: string };
 
 /** pg-boss runs its insert through this (its `db` option): here, the caller's transaction. */
 export type QueueSql = { executeSql(text: string, values: unknown[]): Promise<{ rows: unknown[] }> };
@@ -23,4 +23,4 @@ export function queueSqlOf(tx: Tx): QueueSql {
   return { executeSql: (text, values) => client.query(text, values) };
 }
 
-export const jobKey = (job: RunJob) => ('runId' in job ? `run:${job.runId}` : `sweep:${job.batchId}`);
+export const jobKey = (job: RunJob) => ('runId' in job ? `run:${job.runId}` : `sweep:${job.sweepId}`);

@@ -17,7 +17,7 @@ export type Reconciled = { failed: string[]; requeued: string[] };
 const jobOf = (table: string, states: string) => sql`
   EXISTS (SELECT 1 FROM pgboss.${sql.raw(table)} j
           WHERE j.name = ${RUN_QUEUE} AND j.state IN (${sql.raw(states)})
-            AND (j.data->>'runId' = r.id::text OR (r.batch_id IS NOT NULL AND j.data->>'batchId' = r.batch_id::text)))`;
+            AND (j.data->>'runId' = r.id::text OR (r.batch_id IS NOT NULL AND j.data->>'sweepId' = r.batch_id::text)))`;
 const live = "'created', 'retry', 'active'";
 const over = "'completed', 'cancelled', 'failed'";
 

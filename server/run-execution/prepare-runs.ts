@@ -4,7 +4,7 @@
 // already has its input, or is no longer queued or running, is left alone.
 import { and, desc, eq, inArray, isNotNull } from 'drizzle-orm';
 import type { Database, Tx } from '../db/client';
-import { batches, plans, runInputs, runs, scenarios } from '../db/schema';
+import { sweeps, plans, runInputs, runs, scenarios } from '../db/schema';
 import type { Scenario } from '../../shared/api/scenarios';
 import { HttpError } from '../errors';
 import { loadPlanModel, type PlanModel } from '../services/plan-model';
@@ -59,8 +59,8 @@ export async function prepareRuns(db: Database, runIds: string[], options: Prepa
       if (!s) throw new HttpError(404, 'not_found', 'The scenario was deleted before the analysis started.');
       scenario = { ...s, createdAt: s.createdAt.toISOString(), updatedAt: s.updatedAt.toISOString() } as Scenario;
     }
-    if (first.batchId) {
-      const [b] = await db.select({ parameter: batches.parameter }).from(batches).where(eq(batches.id, first.batchId));
+    if (first.sweepId) {
+      const [b] = await db.select({ parameter: sweeps.parameter }).from(sweeps).where(eq(sweeps.id, first.sweepId));
       sweepParameter = b?.parameter ?? null;
     }
     model = await loadPlanModel(db, plan.organizationId, first.planId);

@@ -36,7 +36,7 @@ export function createRunExecutor(
   }
 
   async function execute(queued: RunJob): Promise<void> {
-    if ('batchId' in queued) return prepareSweep(queued.batchId);
+    if ('sweepId' in queued) return prepareSweep(queued.sweepId);
     const { runId } = queued;
     if (!(await setState(runId, { status: 'running', phase: 'preparing', progress: 0, startedAt: new Date() }))) return;
     // In hand while it is prepared too: a stopping worker waits for it, then gives it back rather
@@ -107,11 +107,11 @@ export function createRunExecutor(
   }
 
   /** A sweep's first phase: one snapshot for all its runs, each queued for its solve once prepared. */
-  async function prepareSweep(batchId: string): Promise<void> {
+  async function prepareSweep(sweepId: string): Promise<void> {
     const members = await db
       .select({ id: runs.id })
       .from(runs)
-      .where(and(eq(runs.batchId, batchId), inArray(runs.status, ['queued', 'running'])))
+      .where(and(eq(runs.sweepId, sweepId), inArray(runs.status, ['queued', 'running'])))
       .orderBy(asc(runs.sweepValue));
     const ids = members.map((m) => m.id);
     await prepareRuns(db, ids, {

@@ -7,9 +7,9 @@ import { and, count, eq, inArray } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Config } from '../config';
 import type { Database, Tx } from '../db/client';
-import { batches, plans, roadLayers, roadSegments, runs, shelters, zones } from '../db/schema';
+import { sweeps, plans, roadLayers, roadSegments, runs, shelters, zones } from '../db/schema';
 import type { Run, RunParameters } from '../../shared/api/runs';
-import type { batchCreateSchema, SweepParameter } from '../../shared/api/sweeps';
+import type { sweepCreateSchema, SweepParameter } from '../../shared/api/sweeps';
 import type { Scenario } from '../../shared/api/scenarios';
 import { BadRequestError, NotFoundError } from '../errors';
 import { queueSqlOf, type RunEnqueuer } from '../queue/run-enqueuer';
@@ -25,7 +25,7 @@ export type RunStart = {
   sweep?: { name: string; parameter: SweepParameter; values: number[] } | undefined;
 };
 
-export type StartedRuns = { runs: Run[]; batchId: string | null };
+export type StartedRuns = { runs: Run[]; sweepId: string | null };
 
 /** Refusals a planner can act on, decided before anything is written. */
 async function checkRunnable(tx: Tx, organizationId: string, planId: string, parameters: RunParameters[], scenario: Scenario | null, maxExpandedArcs: number) {
@@ -115,14 +115,14 @@ export async function startRuns(
       scenario,
       config.RUN_MAX_EXPANDED_ARCS,
     );
-    let batchId: string | null = null;
+    let sweepId: string | null = null;
     if (sweep) {
-      const [batch] = await tx
-        .insert(batches)
+      const [inserted] = await tx
+        .insert(sweeps)
         .values({ planId, name: sweep.name, scenarioId: start.scenarioId, parameter: sweep.parameter, values: sweep.values, createdBy: actor.userId })
-        .returning({ id: batches.id });
-      batchId = batch!.id;
-      await recordAudit(tx, actor, 'batch.create', 'batch', batchId, { planId, parameter: sweep.parameter, values: sweep.values });
+        .returning({ id: sweeps.id });
+      sweepId = inserted!.id;
+      await recordAudit(tx, actor, 'sweep.create', 'sweep', sweepId, { planId, parameter: sweep.parameter, values: sweep.values });
     }
     const rows = await tx
       .insert(runs)
@@ -134,20 +134,20 @@ export async function startRuns(
           dataVersion,
           roadLayerId: layerId,
           scenarioId: start.scenarioId,
-          batchId,
+          sweepId,
           sweepValue: e.sweepValue,
           createdBy: actor.userId,
         })),
       )
       .returning();
-    for (const row of rows) await recordAudit(tx, actor, 'run.start', 'run', row.id, { planId, parameters: row.parameters, batchId });
+    for (const row of rows) await recordAudit(tx, actor, 'run.start', 'run', row.id, { planId, parameters: row.parameters, sweepId });
     // A sweep is one job: its worker loads the snapshot once and queues each prepared run.
-    await queue.enqueue(batchId ? { batchId } : { runId: rows[0]!.id }, queueSqlOf(tx));
-    return { runs: rows.map(toRun), batchId };
+    await queue.enqueue(sweepId ? { sweepId } : { runId: rows[0]!.id }, queueSqlOf(tx));
+    return { runs: rows.map(toRun), sweepId };
   });
 }
 
 /** The route's shape of a sweep request as a RunStart. */
-export function sweepStart(input: z.output<typeof batchCreateSchema>): RunStart {
+export function sweepStart(input: z.output<typeof sweepCreateSchema>): RunStart {
   return { parameters: input.parameters, scenarioId: input.scenarioId, sweep: { name: input.name, parameter: input.sweep.parameter, values: input.sweep.values } };
 }

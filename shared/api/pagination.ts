@@ -30,7 +30,7 @@ export const listCaps = {
   shelters: 2000,
   scenarios: 200,
   runs: 200,
-  batches: 100,
+  sweeps: 100,
   members: 500,
   briefings: 200,
   officials: 500,

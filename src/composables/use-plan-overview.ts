@@ -4,11 +4,11 @@ import { computed, ref, shallowRef } from 'vue';
 import type { Plan } from '@shared/api/plans';
 import type { Run } from '@shared/api/runs';
 import type { Scenario } from '@shared/api/scenarios';
-import type { Batch } from '@shared/api/sweeps';
+import type { Sweep } from '@shared/api/sweeps';
 import { getPlan } from '@/api/plans';
 import { listRuns } from '@/api/runs';
 import { listScenarios } from '@/api/scenarios';
-import { listBatches } from '@/api/sweeps';
+import { listSweeps } from '@/api/sweeps';
 import { runIsActive } from '@/format/run-result';
 import { messageOf } from '@/format/error-message';
 import { usePolling } from './use-polling';
@@ -17,7 +17,7 @@ export function usePlanOverview(planId: () => string) {
   const plan = shallowRef<Plan | null>(null);
   const scenarios = ref<Scenario[]>([]);
   const runs = ref<Run[]>([]);
-  const batches = ref<Omit<Batch, 'runs'>[]>([]);
+  const sweeps = ref<Omit<Sweep, 'runs'>[]>([]);
   const loading = ref(false);
   const error = ref('');
 
@@ -34,11 +34,11 @@ export function usePlanOverview(planId: () => string) {
     error.value = '';
     try {
       const id = planId();
-      const [p, s, r, b] = await Promise.all([getPlan(id), listScenarios(id), listRuns(id), listBatches(id)]);
+      const [p, s, r, b] = await Promise.all([getPlan(id), listScenarios(id), listRuns(id), listSweeps(id)]);
       plan.value = p;
       scenarios.value = s;
       runs.value = r;
-      batches.value = b;
+      sweeps.value = b;
       if (anyActive.value) poll.start();
     } catch (e) {
       error.value = messageOf(e);
@@ -56,5 +56,5 @@ export function usePlanOverview(planId: () => string) {
   const scenarioName = (scenarioId: string | null) =>
     scenarioId === null ? 'Base plan' : (scenarios.value.find((s) => s.id === scenarioId)?.name ?? 'Deleted scenario');
 
-  return { plan, scenarios, runs, batches, loading, error, anyActive, finishedRuns, load, track, scenarioName };
+  return { plan, scenarios, runs, sweeps, loading, error, anyActive, finishedRuns, load, track, scenarioName };
 }

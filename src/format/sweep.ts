@@ -1,6 +1,6 @@
-// Sweeps: the values a batch form asks for, in the planner's units (participation in per cent,
-// capacity as a factor), the progress of a batch's runs, and its summary series. Pure.
-import type { Batch, SweepParameter } from '@shared/api/sweeps';
+// Sweeps: the values a sweep form asks for, in the planner's units (participation in per cent,
+// capacity as a factor), the progress of a sweep's runs, and its summary series. Pure.
+import type { Sweep, SweepParameter } from '@shared/api/sweeps';
 import type { RunStatus } from '@shared/api/runs';
 import { runIsActive } from './run-result';
 
@@ -40,15 +40,15 @@ export function formatSweepValue(parameter: SweepParameter, stored: number): str
   return `× ${Math.round(stored * 1000) / 1000}`;
 }
 
-export type BatchProgress = { total: number; finished: number; succeeded: number; failed: number; active: number; byStatus: Record<RunStatus, number>; done: boolean };
+export type SweepProgress = { total: number; finished: number; succeeded: number; failed: number; active: number; byStatus: Record<RunStatus, number>; done: boolean };
 
-export function batchProgress(batch: Pick<Batch, 'runs'>): BatchProgress {
+export function sweepProgress(sweep: Pick<Sweep, 'runs'>): SweepProgress {
   const byStatus: Record<RunStatus, number> = { queued: 0, running: 0, succeeded: 0, failed: 0, cancelled: 0 };
-  for (const r of batch.runs) byStatus[r.status]++;
-  const active = batch.runs.filter((r) => runIsActive(r.status)).length;
+  for (const r of sweep.runs) byStatus[r.status]++;
+  const active = sweep.runs.filter((r) => runIsActive(r.status)).length;
   return {
-    total: batch.runs.length,
-    finished: batch.runs.length - active,
+    total: sweep.runs.length,
+    finished: sweep.runs.length - active,
     succeeded: byStatus.succeeded,
     failed: byStatus.failed + byStatus.cancelled,
     active,
@@ -60,8 +60,8 @@ export function batchProgress(batch: Pick<Batch, 'runs'>): BatchProgress {
 export type SweepPoint = { x: number; personsPerHour: number; clearanceMinutes: number | null; horizonMinutes: number };
 
 /** The finished runs' headline figures by swept value, in order of the value. */
-export function sweepSeries(batch: Pick<Batch, 'runs'>): SweepPoint[] {
-  return batch.runs
+export function sweepSeries(sweep: Pick<Sweep, 'runs'>): SweepPoint[] {
+  return sweep.runs
     .filter((r) => r.status === 'succeeded' && r.headline)
     .map((r) => ({ x: r.sweepValue, personsPerHour: r.headline!.steadyStatePersonsPerHour, clearanceMinutes: r.headline!.clearanceMinutes, horizonMinutes: r.headline!.horizonMinutes }))
     .sort((a, b) => a.x - b.x);

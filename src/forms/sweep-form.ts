@@ -1,12 +1,12 @@
 // The form that starts a sweep: a name, the scenario (or the base plan), the swept parameter
 // with from, to and step in the planner's units, and the run assumptions; checked with the
-// server's batchCreateSchema.
-import { batchCreateSchema, type BatchCreate, type SweepParameter } from '@shared/api/sweeps';
+// server's sweepCreateSchema.
+import { sweepCreateSchema, type SweepCreate, type SweepParameter } from '@shared/api/sweeps';
 import { sweepMeta, sweepValues } from '@/format/sweep';
 import { validateRunParameters, type RunParameterValues } from './run-parameters';
 import { numberFrom, parseForm, type FieldErrors } from './zod-errors';
 
-export type BatchFormValues = {
+export type SweepFormValues = {
   name: string;
   scenarioId: string | null;
   parameter: SweepParameter;
@@ -16,14 +16,14 @@ export type BatchFormValues = {
   run: RunParameterValues;
 };
 
-export function batchFormValues(parameter: SweepParameter, run: RunParameterValues, scenarioId: string | null = null): BatchFormValues {
+export function sweepFormValues(parameter: SweepParameter, run: RunParameterValues, scenarioId: string | null = null): SweepFormValues {
   const d = sweepMeta[parameter].defaults;
   return { name: `${sweepMeta[parameter].label} sweep`, scenarioId, parameter, from: d.from, to: d.to, step: d.step, run };
 }
 
-export const formSweepValues = (v: BatchFormValues) => sweepValues(v.parameter, numberFrom(v.from), numberFrom(v.to), numberFrom(v.step));
+export const formSweepValues = (v: SweepFormValues) => sweepValues(v.parameter, numberFrom(v.from), numberFrom(v.to), numberFrom(v.step));
 
-export function validateBatchForm(v: BatchFormValues): { ok: true; value: BatchCreate } | { ok: false; errors: FieldErrors } {
+export function validateSweepForm(v: SweepFormValues): { ok: true; value: SweepCreate } | { ok: false; errors: FieldErrors } {
   const errors: FieldErrors = {};
   const run = validateRunParameters(v.run);
   if (!run.ok) Object.assign(errors, run.errors);
@@ -34,7 +34,7 @@ export function validateBatchForm(v: BatchFormValues): { ok: true; value: BatchC
   else if (Number.isFinite(from) && to < from) errors.to = 'At least the first value.';
   if (!Number.isFinite(step) || step <= 0) errors.step = 'A step above zero.';
   if (Object.keys(errors).length > 0 || !run.ok) return { ok: false, errors };
-  const parsed = parseForm(batchCreateSchema, {
+  const parsed = parseForm(sweepCreateSchema, {
     name: v.name,
     scenarioId: v.scenarioId,
     parameters: run.value,

@@ -37,7 +37,7 @@ export const router = createRouter({
       meta: { title: 'Scenario', fullBleed: true },
     },
     { path: '/plans/:planId/compare', name: 'run-comparison', component: () => import('@/views/RunComparisonView.vue'), props: true, meta: { title: 'Compare runs' } },
-    { path: '/plans/:planId/batches/:batchId', name: 'batch', component: () => import('@/views/SweepView.vue'), props: true, meta: { title: 'Sweep' } },
+    { path: '/plans/:planId/sweeps/:sweepId', name: 'sweep', component: () => import('@/views/SweepView.vue'), props: true, meta: { title: 'Sweep' } },
     { path: '/briefings', name: 'briefings', component: () => import('@/views/BriefingListView.vue'), meta: { title: 'Briefings' } },
     {
       path: '/briefings/:id/review',

@@ -124,27 +124,27 @@ it('closes a bridge in a scenario, runs it and the base plan, and compares them'
 it('sweeps the capacity factor of the bridge scenario and charts the figures', async () => {
   await page.goto(`${server.url}/plans/${planId}/scenarios`);
   await page.locator('[data-test="new-sweep"]').click();
-  const dialog = page.locator('[data-test="batch-dialog"]');
+  const dialog = page.locator('[data-test="sweep-dialog"]');
   await dialog.waitFor();
   await page.locator('[data-test="sweep-capacity"] input').check();
   await page.locator('[data-test="sweep-from"] input').fill('0.8');
   await page.locator('[data-test="sweep-to"] input').fill('1');
   await page.locator('[data-test="sweep-step"] input').fill('0.1');
-  await page.locator('[data-test="batch-horizonMinutes"] input').fill('120');
-  await page.locator('[data-test="batch-timeStepSeconds"] input').fill('120');
+  await page.locator('[data-test="sweep-horizonMinutes"] input').fill('120');
+  await page.locator('[data-test="sweep-timeStepSeconds"] input').fill('120');
   expect(await page.locator('[data-test="sweep-preview"]').innerText()).toBe('3 runs: × 0.8, × 0.9, × 1');
-  await page.locator('[data-test="batch-scenario"]').click();
+  await page.locator('[data-test="sweep-scenario"]').click();
   await page.locator('.v-overlay .v-list-item', { hasText: 'Quay Bridge closed' }).click();
-  await page.locator('[data-test="batch-start"]').click();
-  await page.waitForURL(/\/batches\/[0-9a-f-]{36}$/);
-  await page.locator('[data-test="batch-table"]').waitFor();
-  await page.locator('[data-test="batch-progress"]').waitFor({ state: 'detached', timeout: 300_000 });
-  expect(await page.locator('[data-test="batch-row"][data-status="succeeded"]').count()).toBe(3);
+  await page.locator('[data-test="sweep-start"]').click();
+  await page.waitForURL(/\/sweeps\/[0-9a-f-]{36}$/);
+  await page.locator('[data-test="sweep-table"]').waitFor();
+  await page.locator('[data-test="sweep-progress"]').waitFor({ state: 'detached', timeout: 300_000 });
+  expect(await page.locator('[data-test="sweep-row"][data-status="succeeded"]').count()).toBe(3);
   // With one 2,000 veh/h bridge closed the cut is 3,600 veh/h; a factor scales every capacity.
-  const rows = await page.locator('[data-test="batch-row"]').allInnerTexts();
+  const rows = await page.locator('[data-test="sweep-row"]').allInnerTexts();
   expect(rows[0]).toContain('2,880');
   expect(rows[2]).toContain('3,600');
   await page.locator('[data-test="sweep-chart"]').waitFor();
-  await shoot('batch-sweep');
+  await shoot('sweep-sweep');
   expect(errors).toEqual([]);
 }, 420_000);

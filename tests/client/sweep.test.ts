@@ -1,10 +1,10 @@
-// Sweeps: the values from, to and step give (without floating-point drift), the batch form's
+// Sweeps: the values from, to and step give (without floating-point drift), the sweep form's
 // checks against the shared schema, the progress count, and the summary series.
 import { describe, expect, it } from 'vitest';
-import type { Batch } from '../../shared/api/sweeps';
+import type { Sweep } from '../../shared/api/sweeps';
 import { defaultRunParameters } from '../../shared/api/runs';
-import { batchProgress, formatSweepValue, sweepSeries, sweepValues } from '../../src/format/sweep';
-import { batchFormValues, validateBatchForm } from '../../src/forms/sweep-form';
+import { sweepProgress, formatSweepValue, sweepSeries, sweepValues } from '../../src/format/sweep';
+import { sweepFormValues, validateSweepForm } from '../../src/forms/sweep-form';
 import { defaultParameterValues } from '../../src/forms/run-parameters';
 
 describe('sweepValues', () => {
@@ -30,9 +30,9 @@ describe('sweepValues', () => {
   });
 });
 
-describe('validateBatchForm', () => {
+describe('validateSweepForm', () => {
   it('builds the request the server takes', () => {
-    const checked = validateBatchForm(batchFormValues('participationRate', defaultParameterValues()));
+    const checked = validateSweepForm(sweepFormValues('participationRate', defaultParameterValues()));
     expect(checked.ok).toBe(true);
     if (checked.ok) {
       expect(checked.value.sweep).toEqual({ parameter: 'participationRate', values: [0.5, 0.6, 0.7, 0.8, 0.9, 1] });
@@ -42,31 +42,31 @@ describe('validateBatchForm', () => {
   });
 
   it('names the field at fault: a range out of bounds, a reversed range, too many values', () => {
-    const v = batchFormValues('participationRate', defaultParameterValues());
-    const out = validateBatchForm({ ...v, to: 120 });
+    const v = sweepFormValues('participationRate', defaultParameterValues());
+    const out = validateSweepForm({ ...v, to: 120 });
     expect(out.ok).toBe(false);
     if (!out.ok) expect(out.errors.to).toBe('Between 0 and 100.');
-    const reversed = validateBatchForm({ ...v, from: 90, to: 60 });
+    const reversed = validateSweepForm({ ...v, from: 90, to: 60 });
     if (!reversed.ok) expect(reversed.errors.to).toBe('At least the first value.');
     expect(reversed.ok).toBe(false);
-    const many = validateBatchForm({ ...v, from: 0, to: 100, step: 1 });
+    const many = validateSweepForm({ ...v, from: 0, to: 100, step: 1 });
     expect(many.ok).toBe(false);
-    if (!many.ok) expect(many.errors.step).toBe('At most 25 values in one batch.');
-    const one = validateBatchForm({ ...v, from: 50, to: 50 });
+    if (!many.ok) expect(many.errors.step).toBe('At most 25 values in one sweep.');
+    const one = validateSweepForm({ ...v, from: 50, to: 50 });
     if (!one.ok) expect(one.errors.step).toBe('Sweep at least two values.');
     expect(one.ok).toBe(false);
   });
 
   it('reports a bad run assumption too', () => {
-    const v = batchFormValues('capacityFactor', { ...defaultParameterValues(), horizonMinutes: 5 });
-    const checked = validateBatchForm(v);
+    const v = sweepFormValues('capacityFactor', { ...defaultParameterValues(), horizonMinutes: 5 });
+    const checked = validateSweepForm(v);
     expect(checked.ok).toBe(false);
     if (!checked.ok) expect(checked.errors.horizonMinutes).toBe('At least 10 minutes.');
   });
 });
 
-describe('batch progress and series', () => {
-  const run = (sweepValue: number, status: Batch['runs'][number]['status'], personsPerHour: number | null, clearance: number | null = 200) =>
+describe('sweep progress and series', () => {
+  const run = (sweepValue: number, status: Sweep['runs'][number]['status'], personsPerHour: number | null, clearance: number | null = 200) =>
     ({
       sweepValue,
       status,
@@ -74,12 +74,12 @@ describe('batch progress and series', () => {
         personsPerHour === null
           ? null
           : { steadyStatePersonsPerHour: personsPerHour, steadyStateVehiclesPerHour: personsPerHour / 2, clearanceMinutes: clearance, horizonMinutes: 360 },
-    }) as unknown as Batch['runs'][number];
+    }) as unknown as Sweep['runs'][number];
 
   it('counts finished, working and waiting runs', () => {
-    const p = batchProgress({ runs: [run(0.5, 'succeeded', 100), run(0.6, 'running', null), run(0.7, 'queued', null), run(0.8, 'failed', null)] });
+    const p = sweepProgress({ runs: [run(0.5, 'succeeded', 100), run(0.6, 'running', null), run(0.7, 'queued', null), run(0.8, 'failed', null)] });
     expect(p).toMatchObject({ total: 4, finished: 2, succeeded: 1, failed: 1, active: 2, done: false });
-    expect(batchProgress({ runs: [run(0.5, 'succeeded', 100)] }).done).toBe(true);
+    expect(sweepProgress({ runs: [run(0.5, 'succeeded', 100)] }).done).toBe(true);
   });
 
   it('charts finished runs only, in order of the swept value', () => {

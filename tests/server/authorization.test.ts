@@ -211,7 +211,7 @@ const rows: Row[] = [
     call: (f) => ({ params: { planId: f.far.planId, scenarioId: f.drill.scenarioId } }),
   },
 
-  // Runs and batches
+  // Runs and sweeps
   { route: 'POST /api/plans/:planId/runs', expect: writers(202), call: (f) => ({ params: { planId: f.plan.id }, body: { parameters: f.parameters } }) },
   {
     route: 'POST /api/plans/:planId/runs',
@@ -267,19 +267,19 @@ const rows: Row[] = [
   },
   { route: 'GET /api/plans/:planId/segment-geometry', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id }, query: `ids=${f.plan.segmentId}` }) },
   {
-    route: 'POST /api/plans/:planId/batches',
+    route: 'POST /api/plans/:planId/sweeps',
     expect: writers(202),
     call: (f, c) => ({ params: { planId: f.plan.id }, body: { name: named(f, c, 'Veltmoor rain sweep'), parameters: f.parameters, sweep: { parameter: 'capacityFactor', values: [0.5, 1] } } }),
   },
   {
-    route: 'POST /api/plans/:planId/batches',
+    route: 'POST /api/plans/:planId/sweeps',
     variant: 'under the demo scenario, in the caller’s own plan',
     expect: otherOrganizationOnly(writers(202)),
     call: (f) => ({ params: { planId: f.far.planId }, body: { name: 'Far sweep', scenarioId: f.plan.scenarioId, parameters: f.parameters, sweep: { parameter: 'capacityFactor', values: [0.5, 1] } } }),
   },
-  { route: 'GET /api/plans/:planId/batches', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
-  { route: 'GET /api/plans/:planId/batches/:batchId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, batchId: f.plan.batchId } }) },
-  { route: 'GET /api/plans/:planId/batches/:batchId', variant: throughOwnPlan, expect: otherOrganizationOnly(readers(200)), call: (f) => ({ params: { planId: f.far.planId, batchId: f.plan.batchId } }) },
+  { route: 'GET /api/plans/:planId/sweeps', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
+  { route: 'GET /api/plans/:planId/sweeps/:sweepId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, sweepId: f.plan.sweepId } }) },
+  { route: 'GET /api/plans/:planId/sweeps/:sweepId', variant: throughOwnPlan, expect: otherOrganizationOnly(readers(200)), call: (f) => ({ params: { planId: f.far.planId, sweepId: f.plan.sweepId } }) },
 
   // Members, audit, settings
   { route: 'GET /api/members', expect: adminsOnly(200, 'own') },
@@ -385,7 +385,7 @@ describe('the table', () => {
     expect(rows.map((r) => r.route).filter((k) => !routes.has(k))).toEqual([]);
   });
   it('knows the demo organization’s ids, names and addresses the leak check looks for', () => {
-    const expected = [f.organizationId, f.plan.id, f.plan.runId, f.plan.batchId, f.plan.scenarioId, ...Object.values(f.briefings), f.members.officialId, 'Veltmoor river crossings', 'Riverside', 'Quay Bridge closed at dusk'];
+    const expected = [f.organizationId, f.plan.id, f.plan.runId, f.plan.sweepId, f.plan.scenarioId, ...Object.values(f.briefings), f.members.officialId, 'Veltmoor river crossings', 'Riverside', 'Quay Bridge closed at dusk'];
     expect(expected.filter((t) => !f.tokens.has(t))).toEqual([]);
     expect([...f.tokens].filter((t) => t.endsWith('@cutline.example'))).toEqual(expect.arrayContaining(['admin@cutline.example', 'planner@cutline.example', 'official@cutline.example', 'viewer@cutline.example']));
   });

@@ -10,7 +10,7 @@ import request from 'supertest';
 import { z } from 'zod';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signInRequestSchema, switchOrganizationRequestSchema } from '../../shared/api/auth';
-import { batchCreateSchema } from '../../shared/api/sweeps';
+import { sweepCreateSchema } from '../../shared/api/sweeps';
 import {
   briefingCreateSchema,
   briefingReturnSchema,
@@ -143,10 +143,10 @@ const rows: Record<string, Row> = {
     body: { json: (f) => ({ parameters: defaultRunParameters, scenarioId: f.scenarioId }), refuses: refusedBy(startRunSchema) },
   },
   'POST /api/plans/:planId/runs/:runId/cancel': { who: 'planner', path: (f) => `/api/plans/${f.planId}/runs/${f.runId}/cancel`, body: 'none' },
-  'POST /api/plans/:planId/batches': {
+  'POST /api/plans/:planId/sweeps': {
     who: 'planner',
-    path: (f) => `/api/plans/${f.planId}/batches`,
-    body: { json: () => ({ name: 'Rain sweep', scenarioId: null, parameters: defaultRunParameters, sweep: { parameter: 'capacityFactor', values: [0.8, 1] } }), refuses: refusedBy(batchCreateSchema) },
+    path: (f) => `/api/plans/${f.planId}/sweeps`,
+    body: { json: () => ({ name: 'Rain sweep', scenarioId: null, parameters: defaultRunParameters, sweep: { parameter: 'capacityFactor', values: [0.8, 1] } }), refuses: refusedBy(sweepCreateSchema) },
   },
   'POST /api/members': {
     who: 'admin',

@@ -21,7 +21,7 @@ const start = (who: SignedInAgent, plan = planId) =>
 
 beforeAll(async () => {
   ctx = await createTestContext({ RUN_STARTS_PER_MINUTE: '3', RUNS_IN_FLIGHT_PER_ORGANIZATION: '5' });
-  app = createApp({ config: ctx.config, db: ctx.db, pool: ctx.pool, clientDir: '/nonexistent', log: (e) => ctx.errors.push(e), runQueue: { enqueue: async (job) => void queued.push('runId' in job ? job.runId : job.batchId) } });
+  app = createApp({ config: ctx.config, db: ctx.db, pool: ctx.pool, clientDir: '/nonexistent', log: (e) => ctx.errors.push(e), runQueue: { enqueue: async (job) => void queued.push('runId' in job ? job.runId : job.sweepId) } });
   planner = await signInAs(app, 'planner');
   admin = await signInAs(app, 'admin');
   planId = (await planner.agent.get('/api/plans').expect(200)).body.plans[0].id;
@@ -49,12 +49,12 @@ describe('starting runs', () => {
     expect(refused.body.error.message).toMatch(/^Your organization has 5 analyses waiting or running; at most 5 are allowed at once\./);
   });
 
-  it('counts a sweep as all of its runs and writes no batch when refused', async () => {
+  it('counts a sweep as all of its runs and writes no sweep when refused', async () => {
     // A minute later for the planner: the per-person limit no longer applies, the organization's still does.
     await ctx.pool.query("UPDATE runs SET created_at = created_at - interval '2 minutes'");
     const before = await countRows(ctx, 'batches');
     const refused = await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Sweep', parameters, sweep: { parameter: 'capacityFactor', values: [0.5, 0.75] } })
       .expect(429);

@@ -22,7 +22,7 @@ async function appWith(runQueue: RunEnqueuer): Promise<SignedInAgent> {
   return signInAs(app, 'planner');
 }
 
-async function jobsFor(key: 'runId' | 'batchId', id: string): Promise<string[]> {
+async function jobsFor(key: 'runId' | 'sweepId', id: string): Promise<string[]> {
   const { rows } = await ctx.pool.query<{ state: string }>("SELECT state FROM pgboss.job WHERE name = 'runs' AND data->>$1 = $2", [key, id]);
   return rows.map((r) => r.state);
 }
@@ -57,7 +57,7 @@ describe('starting a run', () => {
     const before = await Promise.all(['runs', 'batches', 'audit_events'].map((t) => countRows(ctx, t)));
     await planner.agent.post(`/api/plans/${planId}/runs`).set('x-csrf-token', planner.csrf).send({ parameters: nextParameters() }).expect(500);
     await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Sweep', parameters, sweep: { parameter: 'capacityFactor', values: [0.5, 0.75] } })
       .expect(500);
@@ -70,7 +70,7 @@ describe('starting a run', () => {
     const planner = await appWith({
       enqueue: async (job, within) => {
         await queue.enqueue(job, within);
-        queuedId = 'runId' in job ? job.runId : job.batchId;
+        queuedId = 'runId' in job ? job.runId : job.sweepId;
         throw new Error('failed after the job was written');
       },
     });
@@ -85,12 +85,12 @@ describe('starting a run', () => {
   it('a sweep is one job that prepares all its runs', async () => {
     const planner = await appWith(queue);
     const res = await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Sweep', parameters, sweep: { parameter: 'capacityFactor', values: [0.5, 0.75, 1] } })
       .expect(202);
     expect(res.body.runs.map((r: { status: string }) => r.status)).toEqual(['queued', 'queued', 'queued']);
-    expect(await jobsFor('batchId', res.body.id)).toEqual(['created']);
+    expect(await jobsFor('sweepId', res.body.id)).toEqual(['created']);
     for (const r of res.body.runs) expect(await jobsFor('runId', r.id)).toEqual([]);
   });
 });
@@ -122,12 +122,12 @@ describe('the reconciler', () => {
   it('fails a sweep run whose sweep job is over without having queued it', async () => {
     const planner = await appWith(queue);
     const res = await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Lost sweep', parameters, sweep: { parameter: 'capacityFactor', values: [0.6, 0.7] } })
       .expect(202);
     expect((await reconcileRuns(ctx.db, queue, { requeueAfterSeconds: 60 })).failed).toEqual([]);
-    await ctx.pool.query("UPDATE pgboss.job SET state = 'completed' WHERE name = 'runs' AND data->>'batchId' = $1", [res.body.id]);
+    await ctx.pool.query("UPDATE pgboss.job SET state = 'completed' WHERE name = 'runs' AND data->>'sweepId' = $1", [res.body.id]);
     const r = await reconcileRuns(ctx.db, queue, { requeueAfterSeconds: 60 });
     expect(r.failed.sort()).toEqual(res.body.runs.map((x: { id: string }) => x.id).sort());
   });

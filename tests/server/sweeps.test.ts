@@ -1,7 +1,7 @@
-// Batches: a sweep queued as many runs that the worker shares, summarised per value.
+// Sweeps: a sweep queued as many runs that the worker shares, summarised per value.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
-import { batchSchema, type Batch } from '../../shared/api/sweeps';
+import { sweepSchema, type Sweep } from '../../shared/api/sweeps';
 import { defaultRunParameters } from '../../shared/api/runs';
 
 let ctx: TestContext;
@@ -9,13 +9,13 @@ let planner: SignedInAgent;
 let planId: string;
 const parameters = { ...defaultRunParameters, horizonMinutes: 120, timeStepSeconds: 120 };
 
-async function finished(batchId: string): Promise<Batch> {
+async function finished(sweepId: string): Promise<Sweep> {
   for (let i = 0; i < 300; i++) {
-    const b = batchSchema.parse((await planner.agent.get(`/api/plans/${planId}/batches/${batchId}`).expect(200)).body);
+    const b = sweepSchema.parse((await planner.agent.get(`/api/plans/${planId}/sweeps/${sweepId}`).expect(200)).body);
     if (b.runs.every((r) => r.status === 'succeeded' || r.status === 'failed')) return b;
     await new Promise((r) => setTimeout(r, 200));
   }
-  throw new Error('batch did not finish');
+  throw new Error('sweep did not finish');
 }
 
 beforeAll(async () => {
@@ -28,10 +28,10 @@ afterAll(async () => {
   await ctx.drop();
 });
 
-describe('batches', () => {
+describe('sweeps', () => {
   it('sweeps the capacity factor: the steady state scales with it (max flow is linear in the capacities)', async () => {
     const res = await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Weather', parameters, sweep: { parameter: 'capacityFactor', values: [0.5, 0.75, 1] } })
       .expect(202);
@@ -46,7 +46,7 @@ describe('batches', () => {
 
   it('sweeps participation: more people leaving means more vehicles to move', async () => {
     const res = await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Participation', parameters, sweep: { parameter: 'participationRate', values: [0.5, 1] } })
       .expect(202);
@@ -59,7 +59,7 @@ describe('batches', () => {
   it('refuses an out-of-range value and writes nothing', async () => {
     const before = await Promise.all(['batches', 'runs'].map((t) => countRows(ctx, t)));
     const res = await planner.agent
-      .post(`/api/plans/${planId}/batches`)
+      .post(`/api/plans/${planId}/sweeps`)
       .set('x-csrf-token', planner.csrf)
       .send({ name: 'Bad', parameters, sweep: { parameter: 'participationRate', values: [0.5, 1.5] } })
       .expect(400);

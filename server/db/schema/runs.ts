@@ -17,7 +17,7 @@ export const runs = pgTable(
       .notNull()
       .references(() => plans.id, { onDelete: 'cascade' }),
     scenarioId: uuid(),
-    batchId: uuid(),
+    sweepId: uuid('batch_id'),
     sweepValue: real(),
     status: runStatusEnum().notNull().default('queued'),
     phase: text().notNull().default('queued'),
@@ -71,8 +71,9 @@ export const runRoadResults = pgTable(
   (t) => [primaryKey({ columns: [t.runId, t.segmentId] })],
 );
 
-// A sweep of one parameter over a scenario: its runs carry batchId and their sweep value.
-export const batches = pgTable('batches', {
+// A sweep of one parameter over a scenario: its runs carry sweepId and their sweep value. The table
+// and column keep their first names (batches, runs.batch_id) so no migration renames them.
+export const sweeps = pgTable('batches', {
   id: uuid().primaryKey().defaultRandom(),
   planId: uuid()
     .notNull()

@@ -1,5 +1,5 @@
 // The demo organization's records the authorization table points at, made through the API as
-// its members would make them: a finished run (solved by the real worker), a batch, scenarios,
+// its members would make them: a finished run (solved by the real worker), a sweep, scenarios,
 // briefings in each state with their mail in the outbox, members. The seeded demo plan is only
 // read, so a briefing can still be drafted from its run at any point (an edit to the plan would
 // make the run stale); edits that succeed go to a drill plan, and deletions and state changes
@@ -17,8 +17,8 @@ type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 
 export type Fixtures = {
   organizationId: string;
-  /** The seeded demo plan: roads, zones, shelters, a scenario, the finished run, the batch, the briefings. */
-  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; batchId: string; queuedImportId: string };
+  /** The seeded demo plan: roads, zones, shelters, a scenario, the finished run, the sweep, the briefings. */
+  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; sweepId: string; queuedImportId: string };
   /** A demo plan whose roads, zones, shelters, scenario and capacity table take the edits that succeed. */
   drill: { id: string; segmentIds: number[]; zoneId: number; shelterId: number; scenarioId: string };
   /** A demo plan kept for the deletions that are refused. */
@@ -149,14 +149,14 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
   const run = await waitFor('the run', () => api(planner, 'get', `/api/plans/${planId}/runs/${started.id}`), (r) => !['queued', 'running'].includes(r.status));
   expect(run.status, run.failureReason ?? '').toBe('succeeded');
   remember(run.id);
-  const batchName = 'Veltmoor rain sweep';
-  const batchStarted = await api(planner, 'post', `/api/plans/${planId}/batches`, { name: batchName, parameters: drillParameters, sweep: { parameter: 'capacityFactor', values: [0.5, 1] } });
-  const batch = await waitFor(
-    'the batch',
-    () => api(planner, 'get', `/api/plans/${planId}/batches/${batchStarted.id}`),
+  const sweepName = 'Veltmoor rain sweep';
+  const sweepStarted = await api(planner, 'post', `/api/plans/${planId}/sweeps`, { name: sweepName, parameters: drillParameters, sweep: { parameter: 'capacityFactor', values: [0.5, 1] } });
+  const sweep = await waitFor(
+    'the sweep',
+    () => api(planner, 'get', `/api/plans/${planId}/sweeps/${sweepStarted.id}`),
     (b) => b.runs.every((r: { status: string }) => !['queued', 'running'].includes(r.status)),
   );
-  remember(batch.id, batchName, ...batch.runs.map((r: { id: string }) => r.id));
+  remember(sweep.id, sweepName, ...sweep.runs.map((r: { id: string }) => r.id));
 
   // A run waiting for a worker that never takes it (it is not on the queue), so cancelling is always possible.
   const queuedRun = async () => {
@@ -243,7 +243,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
 
   return {
     organizationId: ctx.demoOrganizationId,
-    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), batchId: batch.id, queuedImportId: await queuedImport() },
+    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), sweepId: sweep.id, queuedImportId: await queuedImport() },
     drill,
     keptPlanId,
     briefings,
