@@ -178,7 +178,6 @@ module.exports = {
   ],
   options: {
     doNotFollow: { path: 'node_modules' },
-    includeOnly: '^(shared|server|src|node_modules)/',
     exclude: { path: '(^|/)node_modules/\\.tmp/' },
     tsPreCompilationDeps: true,
     combinedDependencies: false,
