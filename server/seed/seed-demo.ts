@@ -43,7 +43,8 @@ export async function seedDemo(db: Database, rounds: number) {
       name: demoPlanName,
       description:
         'Veltmoor is an invented river town: six residential zones on the west bank of the Sable River, ' +
-        'shelters and exits to the east, four bridges between them.',
+        'shelters and exits to the east, four bridges between them. Its residents, participation rates, persons per vehicle ' +
+        'and departure curves are illustrative values for trying the product, not data about any real place.',
       createdBy: plannerId,
     })
     .returning({ id: plans.id });

@@ -1,4 +1,4 @@
-// How a road's hourly figures and time windows become integer steps (DOMAIN.md §1):
+// How a road's hourly figures and time windows become integer steps (docs/model.md §1):
 // per-step capacity ⌊veh/h · Δ / 3600⌋, travel time ⌈τ / Δ⌉ ≥ 1 step, and closures by the
 // departure step. A vehicle departing in step θ enters the road during [θΔ, (θ+1)Δ); that
 // departure is refused when the step overlaps a closure, while vehicles already on the road
@@ -40,7 +40,7 @@ export function closedAtInstant(closures: readonly RoadClosure[] | undefined, at
 /**
  * Vehicles that can wait at each node from one step to the next: the storage of the roads
  * entering it, summed. A node with no entering road, or with one whose storage is not given,
- * has no limit (DOMAIN.md §1: bounded by storage where the model says so).
+ * has no limit (docs/model.md §1: bounded by storage where the model says so).
  */
 export function nodeStorage(problem: EvacuationProblem): Int32Array {
   const storage = new Float64Array(problem.nodeCount);

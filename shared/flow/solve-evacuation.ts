@@ -148,7 +148,7 @@ const DEFAULT_MAX_FIX_EVALUATIONS = 200;
  *
  * @throws EvacuationInputError for an invalid problem; FlowAbortedError on shouldAbort.
  * @example
- *   // One road, 2 vehicles per step, 3 steps long, 13 vehicles (DOMAIN.md §6): clearance at step 9.
+ *   // One road, 2 vehicles per step, 3 steps long, 13 vehicles (docs/model.md §6): clearance at step 9.
  *   solveEvacuation({ nodeCount: 2, timeStepSeconds: 60, horizonSteps: 12,
  *     roads: [{ from: 0, to: 1, capacityVehPerHour: 120, travelTimeSeconds: 180 }],
  *     zones: [{ id: 'z', entryNodes: [0], vehicles: 13 }],

@@ -1,7 +1,7 @@
 // The static (steady-state) network: roads at their hourly capacity as they stand at one
 // instant, a super source feeding every zone (bounded by its release rate, if any) and a super
 // sink fed by every shelter (bounded by its intake rate, if any). Its maximum flow is an upper
-// bound on evacuees per hour, not a schedule (DOMAIN.md §1).
+// bound on evacuees per hour, not a schedule (docs/model.md §1).
 
 import { UNBOUNDED_CAPACITY, floorCapacity } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';

@@ -1,6 +1,6 @@
 // The time-expanded network of an evacuation problem (Ford & Fulkerson's dynamic flows as used
 // for evacuation by Chalmet, Francis & Saunders 1982), under the discrete convention of
-// DOMAIN.md §1:
+// docs/model.md §1:
 //   - node copies (v, θ) for θ = 0..T; a departure from u in step θ on road e arrives at
 //     (v, θ + τ_e) and exists only if θ + τ_e ≤ T and the road is open for departures in θ;
 //     τ_e ≥ 0 is rounded against node time potentials (route-timing.ts), so a road may end in

@@ -33,7 +33,7 @@ const NO_CAR_ACCESS = new Set(['no', 'agricultural', 'forestry', 'bus', 'psv']);
 /** OSM's access hierarchy: the most specific key that is set decides. */
 const ACCESS_KEYS_MOST_SPECIFIC_FIRST = ['motorcar', 'motor_vehicle', 'vehicle', 'access'] as const;
 
-/** Ways that are one-way without an oneway tag (OSM wiki Key:oneway; DOMAIN.md §3, M). */
+/** Ways that are one-way without an oneway tag (OSM wiki Key:oneway; docs/model.md §3, M). */
 function impliedOneway(tags: Tags, roadClass: RoadClass): boolean {
   const junction = parseText(tags['junction']);
   return roadClass === 'motorway' || junction === 'roundabout' || junction === 'circular';

@@ -1,5 +1,5 @@
 // Plan data → the flow engine's EvacuationProblem, plus the way back from engine road
-// indices to segments. The arithmetic is DOMAIN.md §1: capacity = lanes × veh/h/lane ×
+// indices to segments. The arithmetic is docs/model.md §1: capacity = lanes × veh/h/lane ×
 // factor, travel time = length / speed, storage = jam density × lanes × length.
 import { segmentAttributesSchema, type NetworkSegment, type RoadClass, type SegmentAttributes, type SegmentOverride } from '../api/road-attributes';
 import { type CapacityTable } from '../api/capacity-table';

@@ -1,5 +1,5 @@
 // Per-class defaults pre-filled into every plan's capacity table. Values and their status
-// come from DOMAIN.md §2–3: C = confirmed in a published source, CP = common practice with
+// come from docs/model.md §2–3: C = confirmed in a published source, CP = common practice with
 // no source, X = computed from a C value. Each row repeats its source so that the planner
 // sees it next to the number.
 import type { CapacityTable, CapacityTableRow } from '../api/capacity-table';
@@ -45,7 +45,7 @@ export const MOTORWAY_LINK_CAPACITY_SOURCE =
 const mph = (kmh: number) => kmh / KM_PER_MILE;
 const r0 = (x: number) => Math.round(x);
 
-/** The default rows, one per drivable class (DOMAIN.md §3). */
+/** The default rows, one per drivable class (docs/model.md §3). */
 export const DEFAULT_CAPACITY_ROWS: readonly CapacityTableRow[] = [
   row('motorway', 2, 110, 2000,
     `HCM 7th ed. Eq. 12-6 at FFS 110 km/h gives ${r0(freewayBaseCapacity(mph(110)))} pc/h/ln (C); × f_HV ${ASSUMED_HEAVY_VEHICLE_FACTOR} and rounded down to 2,000 veh/h/ln (CP)`),

@@ -1,5 +1,5 @@
 // Ready-made global capacity factors the planner can pick, each with its source. They
-// multiply every arc's capacity (DOMAIN.md §1: lanes × veh/h/lane × factor).
+// multiply every arc's capacity (docs/model.md §1: lanes × veh/h/lane × factor).
 
 export interface CapacityFactorPreset {
   id: string;

@@ -27,6 +27,11 @@ afterAll(async () => {
 });
 
 describe('the seeded demo plan', () => {
+  it('says that its zone values are illustrative', async () => {
+    const plan = (await viewer.agent.get('/api/plans').expect(200)).body.plans.find((p: { id: string }) => p.id === demoPlanId);
+    expect(plan.description).toMatch(/illustrative values .* not data about any real place/);
+  });
+
   it('has its zones and shelters, each attached to the roads', async () => {
     const zones = (await viewer.agent.get(`/api/plans/${demoPlanId}/zones`).expect(200)).body.zones;
     const shelters = (await viewer.agent.get(`/api/plans/${demoPlanId}/shelters`).expect(200)).body.shelters;

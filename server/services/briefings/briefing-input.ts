@@ -52,6 +52,8 @@ export type BriefingAssumptions = {
   /** Persons per vehicle used to turn vehicles into persons (the vehicle-weighted mean). */
   personsPerVehicle: number;
   personsPerVehicleSource: string;
+  /** Share of residents who leave, per zone, with the default's source (absent in older briefings). */
+  participation?: string | undefined;
   /** The departure (mobilisation) curve in words, with its parameters and source. */
   departureCurve: string;
 };

@@ -8,7 +8,8 @@ import { organizations, plans, roadLayers, runs, scenarios, shelters, users, zon
 import { roleLabels, type Role } from '../../../shared/api/roles';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
 import type { BriefingInput, LonLat, MapSegment, MapZone } from './briefing-input';
-import { formatCount, formatDate, formatDecimal } from '../../../shared/format/numbers';
+import { formatCount, formatDate, formatDecimal, formatShare } from '../../../shared/format/numbers';
+import { ZONE_DEFAULTS } from '../../../shared/model/zone-defaults';
 import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
 import { ConflictError, NotFoundError } from '../../errors';
 import { getCapacityTable } from '../capacity-table';
@@ -131,6 +132,9 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
         zoneRows.length === 1
           ? `the zone's own figure`
           : `vehicle-weighted mean of the zones' figures (${[...new Set(zoneRows.map((z) => formatDecimal(z.personsPerVehicle)))].join(', ')} persons per vehicle)`,
+      participation:
+        `${[...new Set(zoneRows.map((z) => formatShare(z.participationRate)))].join(', ')} of residents leave` +
+        `${zoneRows.length > 1 ? ' (by zone)' : ''}; the default of ${formatShare(ZONE_DEFAULTS.participationRate)} follows ${ZONE_DEFAULTS.participationRateSource}`,
       departureCurve: departureCurvesDescription(zoneRows),
     },
     map: {

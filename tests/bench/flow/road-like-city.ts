@@ -1,7 +1,7 @@
 // Invented road-like test cities for the bench: a grid of streets with arterials every few
 // blocks, a ring road joined to the arterials by ramps, a river crossed only by a few bridges,
 // evacuation zones on the west side and shelters beyond the river on the east side.
-// Capacities follow DOMAIN.md §3 (residential 600 veh/h/lane, primary 2 × 1,000, motorway
+// Capacities follow docs/model.md §3 (residential 600 veh/h/lane, primary 2 × 1,000, motorway
 // 2 × 2,000, motorway_link 1,500); the town and its numbers are made up.
 
 import type { EvacuationProblem, EvacuationRoad, EvacuationZone, EvacuationShelter } from '../../../shared/flow';
@@ -110,7 +110,7 @@ export function generateCity(spec: CitySpec): EvacuationProblem {
   return { nodeCount, roads, zones, shelters, timeStepSeconds: spec.timeStepSeconds, horizonSteps: spec.horizonSteps };
 }
 
-/** Logistic departure curve with half the vehicles gone at a third of the horizon (DOMAIN.md §4 form). */
+/** Logistic departure curve with half the vehicles gone at a third of the horizon (docs/model.md §4 form). */
 function logisticRelease(spec: CitySpec): number[] {
   const T = spec.horizonSteps;
   const half = T / 3;

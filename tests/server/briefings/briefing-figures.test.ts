@@ -38,7 +38,7 @@ describe('map projection', () => {
   });
 
   it('gives one degree of latitude within 0.1 % of the WGS84 value at 45°', () => {
-    // WGS84 meridian degree at 45°: 111,131.777 m (DOMAIN.md §6, computed from a and 1/f).
+    // WGS84 meridian degree at 45°: 111,131.777 m (docs/model.md §6, computed from a and 1/f).
     const [, y] = equirectangularAbout([0, 45]).toMetres([0, 46]);
     const [, y0] = equirectangularAbout([0, 45]).toMetres([0, 45]);
     expect(Math.abs((y - y0) / 111_131.777 - 1)).toBeLessThan(0.001);

@@ -134,6 +134,13 @@ describe.each([
     expect(t).toContain('Horizon 3 hours after the evacuation order');
     expect(t).toContain('Time step 5 minutes');
     expect(t).toContain('Persons per vehicle 2.4');
+    const flat = t.replace(/\s+/g, ' ');
+    // The default persons per vehicle keeps its "from memory"; participation, the factor's preset
+    // and the jam density used for queue space are stated with their sources.
+    expect(flat).toContain('the default of 2 is from memory: about 2.5 persons per household');
+    expect(flat).toContain('Participation 80 %, 90 % of residents leave (by zone); the default of 80 % follows Baker (1991)');
+    expect(flat).toContain('equals the preset “No adjustment”');
+    expect(flat).toContain('Queue space jam density 118.06 veh/km per lane — HCM 6th ed. Exhibit 25-2');
     expect(t).toContain('logistic S-curve, response rate 1.5 per hour');
     expect(t).toContain('algorithm Dinic (blocking flows) (requested: automatic choice)');
     expect(t).toMatch(/secondary 1 50 850 Capacity: 1,900 pc\/h\/ln × g\/C 0.45/);

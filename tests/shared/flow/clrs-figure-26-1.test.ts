@@ -1,6 +1,6 @@
 // Cormen, Leiserson, Rivest & Stein, Introduction to Algorithms, 3rd ed., Figure 26.1: maximum
 // flow 23; a minimum cut is S = {s, v1, v2, v4} with cut arcs v1→v3, v4→v3, v4→t (12 + 7 + 4),
-// as transcribed in DOMAIN.md §6. The 2nd edition adds v1→v2 with capacity 10; same answer.
+// as transcribed in docs/model.md §6. The 2nd edition adds v1→v2 with capacity 10; same answer.
 import { describe, expect, it } from 'vitest';
 import { MAX_FLOW_ALGORITHMS, arcHead, arcTail, buildNetwork, maxFlow, verify } from '../../../shared/flow';
 

@@ -1,4 +1,4 @@
-// The discrete convention of DOMAIN.md §1 on hand-solved cases: closures refuse departures in
+// The discrete convention of docs/model.md §1 on hand-solved cases: closures refuse departures in
 // every step they overlap (vehicles already on the road finish), the steady state is a snapshot
 // at one instant, storage bounds waiting, shelters cap totals, and the result is plain JSON.
 import { describe, expect, it } from 'vitest';

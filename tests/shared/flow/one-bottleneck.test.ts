@@ -1,4 +1,4 @@
-// DOMAIN.md §6, one bottleneck arc (status X, derived from the §1 convention): 13 vehicles,
+// docs/model.md §6, one bottleneck arc (status X, derived from the §1 convention): 13 vehicles,
 // capacity 2 per step, τ = 3 steps → the last arrives at step τ + ⌈W/c⌉ − 1 = 9.
 import { describe, expect, it } from 'vitest';
 import { solveEvacuation, type EvacuationProblem } from '../../../shared/flow';
@@ -13,7 +13,7 @@ const problem: EvacuationProblem = {
   shelters: [{ id: 'hall', node: 1, capacityVehicles: null }],
 };
 
-describe('one bottleneck arc (DOMAIN.md §6)', () => {
+describe('one bottleneck arc (docs/model.md §6)', () => {
   const result = solveEvacuation(problem, { verify: true });
 
   it('clears at step 9 = τ + ⌈W/c⌉ − 1', () => {

@@ -1,6 +1,6 @@
 // Ford & Fulkerson (1958), "Constructing maximal dynamic flows from static flows", Operations
 // Research 6(3): with one source and one sink and no supply limits, the maximum dynamic flow
-// equals the best temporally repeated static flow. Under the discrete convention of DOMAIN.md §1
+// equals the best temporally repeated static flow. Under the discrete convention of docs/model.md §1
 // (a path of length L carries departures at steps 0..t − L) that value is
 //     max over static flows x of (t + 1)·|x| − Σ_e τ_e·x_e,
 // a minimum-cost flow problem that glpk.js solves as a linear program. The engine's evacuation
@@ -62,7 +62,7 @@ describe('Ford & Fulkerson 1958 temporally repeated flows', () => {
     );
   });
 
-  it('a single path of length L carries t − L + 1 departures (DOMAIN.md §1)', () => {
+  it('a single path of length L carries t − L + 1 departures (docs/model.md §1)', () => {
     const problem: EvacuationProblem = {
       nodeCount: 3,
       timeStepSeconds: STEP,

@@ -1,4 +1,4 @@
-// Outside reference: the time-expanded evacuation model of DOMAIN.md §1 written directly as a
+// Outside reference: the time-expanded evacuation model of docs/model.md §1 written directly as a
 // linear program (support/evacuation-lp.ts, which shares no code with the engine) and solved by
 // glpk.js at every horizon t. The engine's curve, computed incrementally by every algorithm, must
 // match it exactly, and every flow it returns must pass verify().

@@ -1,5 +1,5 @@
 // turf's geodesic lengths against a hand computation of the haversine formula, with the
-// Rosetta Code "Haversine formula" value and the WGS84 meridian degree (DOMAIN.md §6).
+// Rosetta Code "Haversine formula" value and the WGS84 meridian degree (docs/model.md §6).
 import { distance, length, lineString } from '@turf/turf';
 import { describe, expect, it } from 'vitest';
 import { pathLengthMeters } from '../../../shared/geo';

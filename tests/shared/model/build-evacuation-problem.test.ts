@@ -1,5 +1,5 @@
-// The plan → engine translation: DOMAIN.md §1 arithmetic on hand-sized networks, and the
-// one-bottleneck check of DOMAIN.md §6 (13 vehicles, 2 per step, τ = 3 → last arrives at
+// The plan → engine translation: docs/model.md §1 arithmetic on hand-sized networks, and the
+// one-bottleneck check of docs/model.md §6 (13 vehicles, 2 per step, τ = 3 → last arrives at
 // step 9) solved by the engine on the problem this module builds.
 import { describe, expect, it } from 'vitest';
 import type { SegmentAttributes } from '../../../shared/api/road-attributes';
@@ -117,7 +117,7 @@ describe('buildEvacuationProblem', () => {
     expect(built.problem.shelters[0]).toEqual({ id: 's', node: 2, capacityVehicles: 400 });
   });
 
-  it('DOMAIN.md §6 one bottleneck: 13 vehicles, 2 per step, τ = 3 steps → all delivered by step 9, not 8', () => {
+  it('docs/model.md §6 one bottleneck: 13 vehicles, 2 per step, τ = 3 steps → all delivered by step 9, not 8', () => {
     // 120 veh/h at Δ = 60 s is 2 per step; 1 km at 20 km/h is 180 s = 3 steps.
     const net = {
       nodeCount: 2,

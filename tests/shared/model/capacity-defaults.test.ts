@@ -1,4 +1,4 @@
-// Default capacities against the published table they cite (DOMAIN.md §2–3: HCM 6th/7th ed.
+// Default capacities against the published table they cite (docs/model.md §2–3: HCM 6th/7th ed.
 // transcriptions, FHWA HPMS Field Manual 2002 App. N); the ramp and minor rows are common practice.
 import { describe, expect, it } from 'vitest';
 import { capacityTableSchema } from '../../../shared/api/capacity-table';
@@ -48,7 +48,7 @@ describe('HCM formulas', () => {
   });
 });
 
-describe('default capacity table (DOMAIN.md §3)', () => {
+describe('default capacity table (docs/model.md §3)', () => {
   it('has one row per drivable class and passes its own schema', () => {
     expect(DEFAULT_CAPACITY_ROWS.map((r) => r.roadClass).sort()).toEqual([...drivableRoadClasses].sort());
     expect(capacityTableSchema.safeParse(defaultCapacityTable()).success).toBe(true);

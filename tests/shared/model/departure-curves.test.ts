@@ -1,4 +1,4 @@
-// Departure curves against the check values of DOMAIN.md §4 (logistic and Rayleigh forms,
+// Departure curves against the check values of docs/model.md §4 (logistic and Rayleigh forms,
 // Li, Ozbay, Bartin et al. 2013; values computed from the formulas).
 import { describe, expect, it } from 'vitest';
 import { releaseSchedule } from '../../../shared/flow';

@@ -4,17 +4,9 @@ import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
 import { formatCount, formatDateTime, formatDecimal, formatSpan, formatStep } from '../../../../shared/format/numbers';
 import { COLOURS, dataTable, td, th } from './document-styles';
-
-const algorithmNames: Record<string, string> = {
-  'edmonds-karp': 'Edmonds–Karp (shortest augmenting paths)',
-  dinic: 'Dinic (blocking flows)',
-  'push-relabel': 'Goldberg–Tarjan push-relabel',
-  auto: 'chosen by the engine',
-};
-
-function algorithmWords(key: string): string {
-  return algorithmNames[key] ?? key;
-}
+import { algorithmWords } from '../../../../shared/format/engine-words';
+import { CAPACITY_FACTOR_PRESETS } from '../../../../shared/model/capacity-factors';
+import { ZONE_DEFAULTS } from '../../../../shared/model/zone-defaults';
 
 function keyValue(rows: [string, string][]): Content {
   return {
@@ -31,6 +23,19 @@ function keyValue(rows: [string, string][]): Content {
   };
 }
 
+/** The ready-made factor a run's factor equals, with its source; '' for a factor of the planner's own. */
+function factorPresetWords(factor: number): string {
+  const preset = CAPACITY_FACTOR_PRESETS.find((f) => Math.abs(f.factor - factor) < 1e-9);
+  return preset ? `; equals the preset “${preset.label}”: ${preset.source}` : '; a value set by the planner';
+}
+
+/** Jam density used for queue space (storage = jam density × lanes × length), with its source. */
+function jamDensityWords(rows: BriefingInput['assumptions']['capacityTable']): string {
+  const distinct = [...new Map(rows.filter((r) => r.jamDensityVehPerKmPerLane !== undefined).map((r) => [`${r.jamDensityVehPerKmPerLane}|${r.jamDensitySource ?? ''}`, r])).values()];
+  if (distinct.length === 0) return 'jam density not stated in the capacity table';
+  return distinct.map((r) => `jam density ${formatDecimal(r.jamDensityVehPerKmPerLane!)} veh/km per lane${r.jamDensitySource ? ` — ${r.jamDensitySource}` : ''}`).join('; ') + '; storage = jam density × lanes × length';
+}
+
 export function assumptionsSection(input: BriefingInput): Content[] {
   const { run, result, assumptions: a } = input;
   const p = run.parameters;
@@ -41,8 +46,10 @@ export function assumptionsSection(input: BriefingInput): Content[] {
     ['Scenario', input.scenarioName ?? 'none (the plan’s own data)'],
     ['Horizon', `${formatSpan(p.horizonMinutes)} after the evacuation order`],
     ['Time step', formatStep(p.timeStepSeconds)],
-    ['Capacity factor', `${formatDecimal(p.capacityFactor)} on every lane capacity${a.capacityFactorNote ? ` — ${a.capacityFactorNote}` : ''}`],
-    ['Persons per vehicle', `${formatDecimal(a.personsPerVehicle)} — ${a.personsPerVehicleSource}`],
+    ['Capacity factor', `${formatDecimal(p.capacityFactor)} on every lane capacity${a.capacityFactorNote ? ` — ${a.capacityFactorNote}` : ''}${factorPresetWords(p.capacityFactor)}`],
+    ['Queue space', jamDensityWords(a.capacityTable)],
+    ...(a.participation ? ([['Participation', a.participation]] as [string, string][]) : []),
+    ['Persons per vehicle', `${formatDecimal(a.personsPerVehicle)} — ${a.personsPerVehicleSource}${/from memory/.test(a.personsPerVehicleSource) ? '' : `; the default of ${formatDecimal(ZONE_DEFAULTS.personsPerVehicle)} is ${ZONE_DEFAULTS.personsPerVehicleSource}`}`],
     ['Departure curve', a.departureCurve],
     ['Engine', `${s.engineVersion}; algorithm ${algorithmWords(s.algorithm)} (requested: ${requested})`],
     [

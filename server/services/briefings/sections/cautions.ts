@@ -1,4 +1,4 @@
-// The cautions every briefing carries, in Cutline's own words (the points of DOMAIN.md §4).
+// The cautions every briefing carries, in Cutline's own words (the points of docs/model.md §4).
 import type { Content } from 'pdfmake/interfaces';
 import { COLOURS } from './document-styles';
 

@@ -1,4 +1,4 @@
-// The evacuation model of DOMAIN.md §1 written directly as linear programs for glpk.js, without
+// The evacuation model of docs/model.md §1 written directly as linear programs for glpk.js, without
 // the engine's network builders: the reference the engine's time expansion is checked against.
 import type { EvacuationProblem, EvacuationRoad } from '../../../../shared/flow';
 import { solveGeneralLp, type GeneralLp, type Glpk } from './glpk';
