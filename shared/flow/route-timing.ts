@@ -1,5 +1,5 @@
 // Road travel times in whole steps that keep *routes* true to free flow, however short the
-// roads (DOMAIN.md §1). Rounding each road on its own (⌈t/Δ⌉ ≥ 1) charges a 7 s street a full
+// roads (docs/model.md §1). Rounding each road on its own (⌈t/Δ⌉ ≥ 1) charges a 7 s street a full
 // 60 s step, so a trip over twenty of them comes out twenty times too slow. Instead every node
 // gets a time potential π(v) that falls by t_e along the fastest trips: the free-flow seconds
 // from v to the nearest shelter, or minus those from the nearest zone entry node to v (Dijkstra

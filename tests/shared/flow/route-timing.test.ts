@@ -1,4 +1,4 @@
-// Route travel times against free flow (DOMAIN.md §1): on grids of roads much shorter than the
+// Route travel times against free flow (docs/model.md §1): on grids of roads much shorter than the
 // time step, the first arrival from a zone must lie within one step of the free-flow shortest
 // path time / Δ, computed here by a textbook Dijkstra (Dijkstra 1959; O(V²), written in this test,
 // not the engine's). Coarse against fine: on a larger grid the 50/90/95 % times at Δ = 300 s stay

@@ -45,7 +45,7 @@ function bellmanFord(problem: EvacuationProblem, origins: readonly number[], for
 }
 
 /**
- * Travel steps per road by DOMAIN.md §1's rounding against node time potentials, written here
+ * Travel steps per road by docs/model.md §1's rounding against node time potentials, written here
  * without the engine (Bellman–Ford where the engine uses Dijkstra). π is the free-flow time to
  * the nearest shelter ('to-shelters') or minus that from the nearest zone entry node
  * ('from-zones'), over roads carrying at least one vehicle per step;
