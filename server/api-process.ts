@@ -9,6 +9,7 @@ import { demoWanted } from './seed/seed-command';
 import { organizations } from './db/schema';
 import { startRunQueue } from './queue/run-queue';
 import { startDevOutbox } from './services/briefings/outbox';
+import { closeImportWorkers } from './import/gis/import-in-worker';
 
 export async function startApiProcess(config: Config): Promise<void> {
   const { db, pool } = createDatabase(config.DATABASE_URL);
@@ -50,7 +51,7 @@ export async function startApiProcess(config: Config): Promise<void> {
     const grace = new Promise<void>((resolve) => setTimeout(resolve, config.SHUTDOWN_GRACE_SECONDS * 1000).unref());
     await Promise.race([closed, grace]);
     server.closeAllConnections();
-    await Promise.allSettled([runQueue.stop(), outbox?.close()]);
+    await Promise.allSettled([runQueue.stop(), outbox?.close(), closeImportWorkers()]);
     await pool.end();
     process.exit(0);
   }

@@ -1,12 +1,12 @@
-// `npm run --silent network -- FILE [options]`: imports a road layer (GeoJSON, .osm, .osm.bz2,
-// OSM JSON) and prints one JSON object summarising the network built from it. With
+// `npm run --silent network -- FILE [options]`: imports a road layer (any format the upload
+// reads: GeoJSON, zipped Shapefile, GeoPackage, KML/KMZ, OSM XML/JSON/PBF) and prints one JSON object summarising the network built from it. With
 // `--dimacs OUT --zones Z.geojson --shelters S.geojson` it also writes the static s–t network
 // (veh/h capacities, super source and sink) in the DIMACS max-flow format for audit.
 import { createWriteStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { once } from 'node:events';
 import { parseArgs } from 'node:util';
-import { propertyMappingSchema, type ImportOptionsInput } from '../../shared/api/road-import';
+import { parseFieldMappingFile, type FieldMapping, type ImportOptionsInput } from '../../shared/api/road-import';
 import { dimacsMaxFlowChunks } from '../../shared/flow';
 import { indexNodes } from '../../shared/geo/node-index';
 import { RoadImportError } from '../../shared/geo/road-import-error';
@@ -17,8 +17,10 @@ import { staticNetworkDimacs } from './static-dimacs';
 import { summariseNetwork } from './summarise-road-graph';
 
 const USAGE = `usage: npm run --silent network -- FILE [--snap-meters M] [--split-crossings | --no-split-crossings]
-       [--tiny-meters M] [--mapping MAPPING.json]
-       [--dimacs OUT.max --zones ZONES.geojson --shelters SHELTERS.geojson]`;
+       [--tiny-meters M] [--mapping MAPPING.json] [--layer NAME] [--crs EPSG:NNNN]
+       [--dimacs OUT.max --zones ZONES --shelters SHELTERS]
+The mapping file is the upload dialog's mapping: {"roads": {...}, "source": {...}, "zones": {...},
+"shelters": {...}} (a bare road mapping also works). Zones and shelters may be any format too.`;
 
 async function main(): Promise<number> {
   const { values, positionals } = parseArgs({
@@ -29,6 +31,8 @@ async function main(): Promise<number> {
       'no-split-crossings': { type: 'boolean' },
       'tiny-meters': { type: 'string' },
       mapping: { type: 'string' },
+      layer: { type: 'string' },
+      crs: { type: 'string' },
       dimacs: { type: 'string' },
       zones: { type: 'string' },
       shelters: { type: 'string' },
@@ -49,7 +53,10 @@ async function main(): Promise<number> {
   if (values['tiny-meters'] !== undefined) options.tinySegmentMeters = Number(values['tiny-meters']);
   if (values['split-crossings']) options.splitAtCrossings = true;
   if (values['no-split-crossings']) options.splitAtCrossings = false;
-  if (values.mapping) options.propertyMapping = propertyMappingSchema.parse(JSON.parse(await readFile(values.mapping, 'utf8')));
+  const mapping: FieldMapping = values.mapping ? parseFieldMappingFile(JSON.parse(await readFile(values.mapping, 'utf8'))) : {};
+  if (mapping.roads) options.propertyMapping = mapping.roads;
+  const source = { ...mapping.source, ...(values.layer ? { layer: values.layer } : {}), ...(values.crs ? { crs: values.crs } : {}) };
+  if (Object.keys(source).length > 0) options.source = source;
 
   const started = performance.now();
   const network = await importRoadLayerFile(file, options);
@@ -59,8 +66,8 @@ async function main(): Promise<number> {
 
   if (values.dimacs && values.zones && values.shelters) {
     const index = indexNodes(network);
-    const z = importZones(await readFile(values.zones), index, {}, values.zones);
-    const s = importShelters(await readFile(values.shelters), index, {}, values.shelters);
+    const z = await importZones(await readFile(values.zones), index, {}, values.zones, { fields: mapping.zones });
+    const s = await importShelters(await readFile(values.shelters), index, {}, values.shelters, { fields: mapping.shelters });
     const { dimacs, comments, built } = staticNetworkDimacs(network, table, z, s, file);
     const out = createWriteStream(values.dimacs);
     for (const chunk of dimacsMaxFlowChunks(dimacs, comments)) if (!out.write(chunk)) await once(out, 'drain');

@@ -45,8 +45,8 @@ function boundedOutput(limit: number) {
   };
 }
 
-/** @throws RoadImportError `unreadableFile` for empty, corrupt, oversized or unknown content. */
-export function decodeUpload(input: Uint8Array, fileName = 'upload', maxExpandedBytes = MAX_EXPANDED_BYTES): DecodedUpload {
+/** Compressed uploads (bzip2, gzip) expanded within the limit; other bytes as they are. */
+export function expandUpload(input: Uint8Array, fileName = 'upload', maxExpandedBytes = MAX_EXPANDED_BYTES): { bytes: Uint8Array; compression: DecodedUpload['compression'] } {
   let bytes = input;
   const compression: DecodedUpload['compression'] = startsWith(input, [0x42, 0x5a, 0x68]) ? 'bzip2' : startsWith(input, [0x1f, 0x8b]) ? 'gzip' : 'none';
   const limit = `${Math.round(maxExpandedBytes / 1024 / 1024)} MB`;
@@ -65,6 +65,20 @@ export function decodeUpload(input: Uint8Array, fileName = 'upload', maxExpanded
     if (error instanceof ExpandedTooLarge || (error as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE') throw tooLarge();
     throw new RoadImportError('unreadableFile', `${fileName}: the ${compression} data is corrupt (${String((error as Error).message ?? error)})`);
   }
+  return { bytes, compression };
+}
+
+/** Where text starts: after a UTF-8 byte-order mark and leading blanks; -1 when there is none. */
+export function textStart(bytes: Uint8Array): number {
+  let i = 0;
+  if (startsWith(bytes, [0xef, 0xbb, 0xbf])) i = 3;
+  while (i < bytes.length && (bytes[i] === 0x20 || bytes[i] === 0x0a || bytes[i] === 0x0d || bytes[i] === 0x09)) i += 1;
+  return i >= bytes.length ? -1 : i;
+}
+
+/** @throws RoadImportError `unreadableFile` for empty, corrupt, oversized or unknown content. */
+export function decodeUpload(input: Uint8Array, fileName = 'upload', maxExpandedBytes = MAX_EXPANDED_BYTES): DecodedUpload {
+  const { bytes, compression } = expandUpload(input, fileName, maxExpandedBytes);
   let i = 0;
   // Skip a UTF-8 byte-order mark and leading blanks.
   if (startsWith(bytes, [0xef, 0xbb, 0xbf])) i = 3;

@@ -1,6 +1,6 @@
 // /api/plans/:planId/road-layer and /segments: upload, read for the map and table, edit.
 import { Router } from 'express';
-import { importOptionsSchema } from '../../shared/api/road-import';
+import { importOptionsSchema, sourceReadOptionsSchema } from '../../shared/api/road-import';
 import {
   segmentBulkUpdateSchema,
   segmentMapQuerySchema,
@@ -13,7 +13,7 @@ import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { ImportRefusedError } from '../errors';
-import { importRoadLayer } from '../import/import-road-layer';
+import { readInWorker } from '../import/gis/import-in-worker';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
 import { assertPlanInOrganization, planDataVersion } from '../services/plan-access';
@@ -39,7 +39,7 @@ export function roadLayersRouter(db: Database, config: Config, answers: AnswerCa
     const file = req.file!;
     let network;
     try {
-      network = importRoadLayer(file.buffer, options, file.originalname);
+      network = await readInWorker({ kind: 'roads', bytes: file.buffer, options, fileName: file.originalname });
     } catch (e) {
       if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
       throw e;
@@ -47,6 +47,20 @@ export function roadLayersRouter(db: Database, config: Config, answers: AnswerCa
     const name = typeof req.body?.name === 'string' && req.body.name.trim() ? req.body.name.trim().slice(0, 200) : file.originalname;
     const layer = await saveRoadLayer(db, actor, planId, network, { name, sourceFileName: file.originalname, importOptions: options });
     res.status(201).json({ layer });
+  });
+
+  // The field-mapping step: what a file holds (fields, samples, CRS, extent, first features), read
+  // in a worker thread like the import itself. Nothing is saved.
+  router.post('/file-schema', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
+    const source = sourceReadOptionsSchema.parse(jsonField(req.body?.source, 'source') ?? {});
+    try {
+      res.json(await readInWorker({ kind: 'schema', bytes: req.file!.buffer, options: source, fileName: req.file!.originalname }));
+    } catch (e) {
+      if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
+      throw e;
+    }
   });
 
   router.get('/segments/map', requireMember('plans:read'), async (req, res) => {

@@ -2,6 +2,7 @@
 import { Router } from 'express';
 import { capacityTableSchema } from '../../shared/api/capacity-table';
 import { planParamsSchema } from '../../shared/api/plans';
+import { shelterUploadOptionsSchema, zoneUploadOptionsSchema } from '../../shared/api/road-import';
 import {
   shelterCreateSchema,
   shelterParamsSchema,
@@ -11,15 +12,13 @@ import {
   zoneGeometrySchema,
   zoneUpdateSchema,
 } from '../../shared/api/zones-shelters';
-import { readShelters } from '../../shared/geo/read-shelters';
-import { readZones } from '../../shared/geo/read-zones';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { ImportRefusedError } from '../errors';
-import { readGeoJsonUpload } from '../import/decode-upload';
+import { readInWorker } from '../import/gis/import-in-worker';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { singleFileUpload } from '../middleware/upload';
+import { jsonField, singleFileUpload } from '../middleware/upload';
 import { getCapacityTable, putCapacityTable } from '../services/capacity-table';
 import { assertPlanInOrganization } from '../services/plan-access';
 import { describeAttachments, loadPlanModel } from '../services/plan-model';
@@ -36,9 +35,9 @@ import {
   updateZone,
 } from '../services/zones-shelters';
 
-function refusing<T>(read: () => T): T {
+async function refusing<T>(read: () => Promise<T>): Promise<T> {
   try {
-    return read();
+    return await read();
   } catch (e) {
     if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
     throw e;
@@ -63,7 +62,8 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
   router.post('/zones/upload', requireMember('plans:write'), upload, async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
-    const features = refusing(() => readZones(readGeoJsonUpload(req.file!.buffer, req.file!.originalname)));
+    const options = zoneUploadOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {});
+    const features = await refusing(() => readInWorker({ kind: 'zones', bytes: req.file!.buffer, options, fileName: req.file!.originalname }));
     const created = await createZones(db, actorOf(req), planId, features.map((f) => ({ ...f.attributes, geometry: zoneGeometrySchema.parse(f.geometry) })), req.file!.originalname);
     res.status(201).json({ zones: created, defaulted: features.map((f) => f.defaulted) });
   });
@@ -90,7 +90,8 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
   router.post('/shelters/upload', requireMember('plans:write'), upload, async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
-    const features = refusing(() => readShelters(readGeoJsonUpload(req.file!.buffer, req.file!.originalname)));
+    const options = shelterUploadOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {});
+    const features = await refusing(() => readInWorker({ kind: 'shelters', bytes: req.file!.buffer, options, fileName: req.file!.originalname }));
     const created = await createShelters(
       db,
       actorOf(req),

@@ -33,8 +33,122 @@ export const propertyMappingSchema = z.object({
 });
 export type PropertyMapping = z.infer<typeof propertyMappingSchema>;
 
+/**
+ * How to read a GIS file beyond its contents: which GeoPackage layer, which coordinate system
+ * when the file names none (the planner's answer), which CSV columns hold the position.
+ */
+export const sourceReadOptionsSchema = z.object({
+  /** GeoPackage table (layer) name; required when the file has several. */
+  layer: z.string().min(1).max(200).optional(),
+  /** The file's coordinate system when it does not say: `EPSG:NNNN` or an OGC URN. */
+  crs: z.string().min(1).max(200).optional(),
+  /** CSV columns holding the position: longitude/latitude, or x/y in `crs`. */
+  xColumn: z.string().min(1).max(200).optional(),
+  yColumn: z.string().min(1).max(200).optional(),
+  /** Text encoding of a Shapefile's .dbf when it has no .cpg (e.g. `windows-1252`). */
+  encoding: z.string().min(1).max(40).optional(),
+});
+export type SourceReadOptions = z.infer<typeof sourceReadOptionsSchema>;
+
+/** The coordinate system a file was in before it was reprojected to WGS84. */
+export const sourceCrsSchema = z.object({
+  /** EPSG code when known (declared, or named by the definition). */
+  epsg: z.int().nullable(),
+  name: z.string(),
+  /** proj4 string or WKT, as used. */
+  definition: z.string(),
+});
+export type SourceCrs = z.infer<typeof sourceCrsSchema>;
+
+export const sourceFormatSchema = z.enum(['geojson', 'osmXml', 'osmJson', 'osmPbf', 'shapefile', 'geopackage', 'kml', 'csv']);
+export type SourceFormat = z.infer<typeof sourceFormatSchema>;
+
+/** Which columns hold a zone's attributes, for files that do not use Cutline's property names. */
+export const zoneFieldMappingSchema = z.object({
+  name: z.string().min(1).max(200).optional(),
+  /** Resident population, persons. */
+  population: z.string().min(1).max(200).optional(),
+  /** Share who leave, 0–1 (a value above 1 is read as a percentage). */
+  participationRate: z.string().min(1).max(200).optional(),
+  personsPerVehicle: z.string().min(1).max(200).optional(),
+});
+export type ZoneFieldMapping = z.infer<typeof zoneFieldMappingSchema>;
+
+/** Which columns hold a shelter's attributes. */
+export const shelterFieldMappingSchema = z.object({
+  name: z.string().min(1).max(200).optional(),
+  /** Persons the shelter takes. */
+  capacityPersons: z.string().min(1).max(200).optional(),
+});
+export type ShelterFieldMapping = z.infer<typeof shelterFieldMappingSchema>;
+
+/** A zone or shelter upload: how to read the file and which columns mean what. */
+export const zoneUploadOptionsSchema = z.object({ source: sourceReadOptionsSchema.optional(), fields: zoneFieldMappingSchema.optional() });
+export type ZoneUploadOptions = z.infer<typeof zoneUploadOptionsSchema>;
+export const shelterUploadOptionsSchema = z.object({ source: sourceReadOptionsSchema.optional(), fields: shelterFieldMappingSchema.optional() });
+export type ShelterUploadOptions = z.infer<typeof shelterUploadOptionsSchema>;
+
+/**
+ * Everything a planner chose to read a county's files: the road columns, how to read the files
+ * (layer, CRS, CSV columns), the zone and shelter columns. Saved per organisation as a named
+ * preset, and the `network` command's --mapping file (a bare road mapping is read as `roads`).
+ */
+export const fieldMappingSchema = z.object({
+  roads: propertyMappingSchema.nullable().optional(),
+  source: sourceReadOptionsSchema.optional(),
+  zones: zoneFieldMappingSchema.optional(),
+  shelters: shelterFieldMappingSchema.optional(),
+});
+export type FieldMapping = z.infer<typeof fieldMappingSchema>;
+
+/** A mapping file: the full form, or only the road mapping as older files have it. */
+export function parseFieldMappingFile(json: unknown): FieldMapping {
+  if (json !== null && typeof json === 'object' && 'roadClass' in json) return { roads: propertyMappingSchema.parse(json) };
+  return fieldMappingSchema.parse(json);
+}
+
+/** One column of an uploaded file, as the field-mapping step shows it. */
+export const fileFieldSchema = z.object({
+  name: z.string(),
+  type: z.enum(['number', 'text', 'boolean', 'mixed', 'empty']),
+  /** Up to 8 distinct values, as text. */
+  samples: z.array(z.string()),
+  /** Distinct values seen (counted up to 1,000; `distinctCapped` when there were more). */
+  distinct: z.int().min(0),
+  distinctCapped: z.boolean(),
+  /** Features with no value in this column. */
+  empty: z.int().min(0),
+});
+export type FileField = z.infer<typeof fileFieldSchema>;
+
+/** The first features of a file (WGS84) with their properties, for the preview map. */
+export const previewFeatureSchema = z.object({
+  index: z.int().min(0),
+  geometry: z.object({ type: z.string(), coordinates: z.unknown() }).nullable(),
+  properties: z.record(z.string(), z.unknown()),
+});
+export type PreviewFeature = z.infer<typeof previewFeatureSchema>;
+
+/** What a file holds, read before it is imported (the field-mapping step). */
+export const fileSchemaSchema = z.object({
+  fileName: z.string(),
+  format: sourceFormatSchema,
+  layers: z.array(z.string()),
+  layer: z.string().nullable(),
+  featureCount: z.int().min(0),
+  /** Features per geometry type ("none" for features without geometry). */
+  geometryTypes: z.record(z.string(), z.int()),
+  fields: z.array(fileFieldSchema),
+  sourceCrs: sourceCrsSchema.nullable(),
+  /** [minLon, minLat, maxLon, maxLat] after reprojection; null when nothing has a position. */
+  extent: z.tuple([z.number(), z.number(), z.number(), z.number()]).nullable(),
+  preview: z.array(previewFeatureSchema),
+});
+export type FileSchema = z.infer<typeof fileSchemaSchema>;
+
 export const importOptionsSchema = z.object({
   propertyMapping: propertyMappingSchema.nullable().default(null),
+  source: sourceReadOptionsSchema.optional(),
   /** Dangling ends this close to another road are joined to it, metres. */
   snapToleranceMeters: z.number().min(0).max(50).default(3),
   /** Split roads where they cross on the same layer. Default: yes for GeoJSON (GIS data often
@@ -79,7 +193,10 @@ export const badFeatureSchema = z.object({
 export type BadFeature = z.infer<typeof badFeatureSchema>;
 
 export const importReportSchema = z.object({
-  sourceFormat: z.enum(['geojson', 'osmXml', 'osmJson']),
+  sourceFormat: sourceFormatSchema,
+  /** The file's coordinate system when it was not WGS84 longitude/latitude (reports stored
+   *  before other formats were read have none). */
+  sourceCrs: sourceCrsSchema.nullable().optional(),
   featureCount: z.int().min(0),
   nodeCount: z.int().min(0),
   segmentCount: z.int().min(0),

@@ -21,6 +21,8 @@ export interface RoadGraph {
 
 export interface RoadSourceContext {
   sourceFormat: ImportReport['sourceFormat'];
+  /** The coordinate system the file was reprojected from, if it was not WGS84. */
+  sourceCrs?: ImportReport['sourceCrs'];
   /** Filled by the OSM reader: ways cut where they referenced nodes missing from the file. */
   waysCutAtMissingNodes?: ImportReport['waysCutAtMissingNodes'];
   /** Features the reader left out before conversion (e.g. OSM ways without `highway`);
@@ -85,7 +87,8 @@ export function buildRoadGraph(
   }
   const cellMeters = chooseCellMeters(edgeLengths, (maxX - minX) * (maxY - minY), Math.max(10, opts.snapToleranceMeters * 2));
 
-  const split = opts.splitAtCrossings ?? context.sourceFormat === 'geojson';
+  // OpenStreetMap ways share nodes at junctions; GIS layers often do not share vertices.
+  const split = opts.splitAtCrossings ?? !context.sourceFormat.startsWith('osm');
   const tolerance = opts.snapToleranceMeters;
   const joinedEnds = joinDanglingEnds(lines, store, tolerance, cellMeters, split);
   const crossings = split ? splitAtCrossings(lines, store, cellMeters) : { joined: 0, onDifferentLayers: 0 };
@@ -206,6 +209,7 @@ function buildReport(p: ReportParts): ImportReport {
 
   return {
     sourceFormat: p.context.sourceFormat,
+    sourceCrs: p.context.sourceCrs ?? null,
     featureCount: reading.featureCount + preDroppedFeatures,
     nodeCount: cut.nodes.length,
     segmentCount: segments.length,

@@ -30,7 +30,16 @@ export const dropReasonWords: Record<DropReason, string> = {
   zeroLength: 'zero length',
 };
 
-const formatWords: Record<ImportReport['sourceFormat'], string> = { geojson: 'GeoJSON', osmXml: 'OpenStreetMap XML', osmJson: 'OpenStreetMap JSON' };
+const formatWords: Record<ImportReport['sourceFormat'], string> = {
+  geojson: 'GeoJSON',
+  osmXml: 'OpenStreetMap XML',
+  osmJson: 'OpenStreetMap JSON',
+  osmPbf: 'OpenStreetMap PBF',
+  shapefile: 'Shapefile',
+  geopackage: 'GeoPackage',
+  kml: 'KML',
+  csv: 'CSV',
+};
 
 const listLimit = 40;
 
@@ -45,7 +54,8 @@ function cut<T>(items: T[]): { items: T[]; more: number } {
 export function importSummary(report: ImportReport): string {
   return (
     `${formatCount(report.segmentCount)} segments and ${formatCount(report.nodeCount)} junctions ` +
-    `(${formatMeters(report.totalLengthMeters)} of road) from ${formatCount(report.featureCount)} features, ${formatWords[report.sourceFormat]}.`
+    `(${formatMeters(report.totalLengthMeters)} of road) from ${formatCount(report.featureCount)} features, ${formatWords[report.sourceFormat]}` +
+    (report.sourceCrs ? `, reprojected from ${report.sourceCrs.epsg !== null ? `EPSG:${report.sourceCrs.epsg} ` : ''}(${report.sourceCrs.name}).` : '.')
   );
 }
 

@@ -102,9 +102,10 @@ describe('uploading a road layer', () => {
     expect(await counts()).toEqual(before);
   });
 
-  it('refuses another coordinate reference system', async () => {
-    const res = await upload(planner, { ...crossing, crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:EPSG::3857' } } }).expect(400);
+  it('refuses a coordinate reference system it does not know (known ones are reprojected: tests/shared/gis)', async () => {
+    const res = await upload(planner, { ...crossing, crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:EPSG::999999' } } }).expect(400);
     expect(res.body.error.importFailure.code).toBe('wrongCrs');
+    expect(res.body.error.importFailure.message).toMatch(/EPSG:999999 is not a coordinate system this server knows/);
   });
 
   it('asks for the file when none is attached', async () => {

@@ -1,0 +1,54 @@
+// A planner's column choices → the property names the zone and shelter readers read, and
+// zones given as points (a CSV of neighbourhood centres with a population) → small squares,
+// so that one zone reader serves both. Pure.
+import type { Feature, FeatureCollection } from 'geojson';
+import type { ShelterFieldMapping, ZoneFieldMapping } from '../../../shared/api/road-import';
+
+/** Half the side of the square a point zone becomes, degrees of latitude (about 11 m): small
+ *  enough to hold no road node, so the zone attaches to the nearest one. */
+export const POINT_ZONE_HALF_SIDE_DEGREES = 0.0001;
+
+function renamed(collection: FeatureCollection, mapping: Record<string, string | undefined>, convert: (key: string, value: unknown) => unknown = (_k, v) => v): FeatureCollection {
+  const entries = Object.entries(mapping).filter((e): e is [string, string] => typeof e[1] === 'string');
+  if (entries.length === 0) return collection;
+  return {
+    type: 'FeatureCollection',
+    features: collection.features.map((f) => {
+      const p: Record<string, unknown> = { ...(f.properties ?? {}) };
+      for (const [key, column] of entries) p[key] = convert(key, (f.properties ?? {})[column]);
+      return { ...f, properties: p };
+    }),
+  };
+}
+
+/** A participation above 1 was written as a percentage (county tables often do). */
+function participation(key: string, value: unknown): unknown {
+  if (key !== 'participationRate') return value;
+  const n = typeof value === 'number' ? value : typeof value === 'string' && value.trim() !== '' ? Number(value.replace('%', '')) : NaN;
+  return Number.isFinite(n) && n > 1 && n <= 100 ? n / 100 : value;
+}
+
+export function applyZoneFields(collection: FeatureCollection, mapping: ZoneFieldMapping = {}): FeatureCollection {
+  const mapped = renamed(collection, mapping, participation);
+  return {
+    type: 'FeatureCollection',
+    features: mapped.features.map((f): Feature => {
+      if (f.geometry?.type !== 'Point') return f;
+      const [lon, lat] = f.geometry.coordinates as [number, number];
+      const dy = POINT_ZONE_HALF_SIDE_DEGREES;
+      const dx = dy / Math.max(0.01, Math.cos((lat * Math.PI) / 180));
+      const ring = [
+        [lon - dx, lat - dy],
+        [lon + dx, lat - dy],
+        [lon + dx, lat + dy],
+        [lon - dx, lat + dy],
+        [lon - dx, lat - dy],
+      ];
+      return { ...f, geometry: { type: 'Polygon', coordinates: [ring] } };
+    }),
+  };
+}
+
+export function applyShelterFields(collection: FeatureCollection, mapping: ShelterFieldMapping = {}): FeatureCollection {
+  return renamed(collection, mapping);
+}
