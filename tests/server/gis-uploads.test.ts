@@ -123,7 +123,7 @@ describe('hostile files of the new formats: refused readably, nothing written', 
     const before = await writable();
     const res = await post(path, bytes(), fileName);
     const error = expectReadableRefusal(res, `${path} ${fileName}`);
-    expect(error.importFailure?.message).toMatch(new RegExp(`^${fileName.replace('.', '\\.')}: `));
+    expect(error.importFailure?.message.startsWith(fileName)).toBe(true);
     expect(await writable()).toEqual(before);
   });
 });
