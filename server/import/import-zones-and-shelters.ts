@@ -26,7 +26,7 @@ async function featuresOf(bytes: Uint8Array, options: ZoneUploadOptions | Shelte
 /** Zones from any format, columns mapped. @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` */
 export async function readZonesUpload(bytes: Uint8Array, options: ZoneUploadOptions = {}, fileName = 'zones'): Promise<ZoneFeature[]> {
   const reading = await featuresOf(bytes, options, fileName, 'zones');
-  return readZones(applyZoneFields(reading.collection, options.fields));
+  return readZones(applyZoneFields(reading.collection, options.fields, reading.format === 'csv'));
 }
 
 /** Shelters from any format, columns mapped. @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` */

@@ -1,5 +1,5 @@
 // A planner's column choices → the property names the zone and shelter readers read, and
-// zones given as points (a CSV of neighbourhood centres with a population) → small squares,
+// zones given as points in a CSV table (neighbourhood centres with a population) → small squares,
 // so that one zone reader serves both. Pure.
 import type { Feature, FeatureCollection } from 'geojson';
 import type { ShelterFieldMapping, ZoneFieldMapping } from '../../../shared/api/road-import';
@@ -14,6 +14,8 @@ function renamed(collection: FeatureCollection, mapping: Record<string, string |
   return {
     type: 'FeatureCollection',
     features: collection.features.map((f) => {
+      // Not a feature at all: left for the reader to name.
+      if (f === null || typeof f !== 'object') return f;
       const p: Record<string, unknown> = { ...(f.properties ?? {}) };
       for (const [key, column] of entries) p[key] = convert(key, (f.properties ?? {})[column]);
       return { ...f, properties: p };
@@ -28,12 +30,14 @@ function participation(key: string, value: unknown): unknown {
   return Number.isFinite(n) && n > 1 && n <= 100 ? n / 100 : value;
 }
 
-export function applyZoneFields(collection: FeatureCollection, mapping: ZoneFieldMapping = {}): FeatureCollection {
+/** @param pointsAreZones a table of points (CSV) gives zones as points; elsewhere a point is no zone. */
+export function applyZoneFields(collection: FeatureCollection, mapping: ZoneFieldMapping = {}, pointsAreZones = false): FeatureCollection {
   const mapped = renamed(collection, mapping, participation);
+  if (!pointsAreZones) return mapped;
   return {
     type: 'FeatureCollection',
     features: mapped.features.map((f): Feature => {
-      if (f.geometry?.type !== 'Point') return f;
+      if (f?.geometry?.type !== 'Point') return f;
       const [lon, lat] = f.geometry.coordinates as [number, number];
       const dy = POINT_ZONE_HALF_SIDE_DEGREES;
       const dx = dy / Math.max(0.01, Math.cos((lat * Math.PI) / 180));

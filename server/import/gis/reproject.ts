@@ -55,8 +55,16 @@ export function extentOf(collection: FeatureCollection): Extent | null {
 }
 
 /**
- * Of the features with positions, how many have one outside longitude/latitude range. A file
- * where most do is in a projected CRS; one where a few do has bad features to list.
+ * Far enough outside longitude/latitude to be a projected coordinate (metres or feet), not a
+ * longitude a rounding error past 180° (which is a bad feature to name, not a CRS question).
+ */
+export function farOutsideLonLat(x: number, y: number): boolean {
+  return Math.abs(x) > 360 || Math.abs(y) > 180;
+}
+
+/**
+ * Of the features with positions, how many have one far outside longitude/latitude range. A
+ * file where most do is in a projected CRS; one where a few do has bad features to list.
  */
 export function outOfRangeShare(collection: FeatureCollection): number {
   let withPositions = 0;
@@ -70,7 +78,7 @@ export function outOfRangeShare(collection: FeatureCollection): number {
         const [x, y] = p;
         if (typeof x === 'number' && typeof y === 'number') {
           any = true;
-          if (Math.abs(x) > 180 || Math.abs(y) > 90) out = true;
+          if (farOutsideLonLat(x, y)) out = true;
         }
         return p;
       });

@@ -328,12 +328,15 @@ export function jsonNotGeoJson(): fc.Arbitrary<HostileFile> {
 /** Another format altogether: XML that is not OpenStreetMap, CSV, KML, GPX. */
 export function otherTextFormats(target: UploadTarget): fc.Arbitrary<HostileFile> {
   const texts = [
-    'lon,lat,name\n-38.5,44.2,Quay\n',
-    '<?xml version="1.0"?><kml xmlns="http://www.opengis.net/kml/2.2"><Placemark><Point><coordinates>-38.5,44.2</coordinates></Point></Placemark></kml>',
     '<?xml version="1.0"?><gpx version="1.1"><trk><trkseg><trkpt lat="44.2" lon="-38.5"/></trkseg></trk></gpx>',
     'type: FeatureCollection\nfeatures: []\n',
     '# just a comment',
   ];
+  // A CSV of points and a KML placemark are shelter files (read since the GIS formats came in);
+  // for roads they hold no line, and a zone is not a KML point nor a CSV row without a population.
+  if (target !== 'shelters') {
+    texts.push('lon,lat,name\n-38.5,44.2,Quay\n', '<?xml version="1.0"?><kml xmlns="http://www.opengis.net/kml/2.2"><Placemark><Point><coordinates>-38.5,44.2</coordinates></Point></Placemark></kml>');
+  }
   // An OpenStreetMap extract is a road file, not zones or shelters.
   if (target !== 'roads') texts.push('<?xml version="1.0"?><osm version="0.6"><node id="1" lat="44.2" lon="-38.5"/></osm>');
   return fc.constantFrom(...texts).map((t) => file('another text format', t, 'upload.txt'));
