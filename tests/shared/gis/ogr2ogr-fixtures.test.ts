@@ -85,6 +85,18 @@ describe('West Oakland through ogr2ogr and osmium', () => {
     expect(n.segments).toEqual(reference.segments);
   });
 
+  it('the network command reads the same zipped Shapefile with a mapping file (the upload form\'s mapping)', async () => {
+    const dir = join(w.dir, 'cli');
+    ogr(['-f', 'ESRI Shapefile', '-t_srs', 'EPSG:2227', dir, w.osm, 'lines', '-nln', 'roads']);
+    const { writeFileSync } = await import('node:fs');
+    const zip = join(w.dir, 'cli.zip');
+    writeFileSync(zip, zipFolder(dir));
+    const mappingFile = join(w.dir, 'mapping.json');
+    writeFileSync(mappingFile, JSON.stringify({ roads: mapping }));
+    const out = JSON.parse(tool(process.execPath, ['--import', 'tsx', 'server/cli/road-summary.ts', zip, '--mapping', mappingFile, '--no-split-crossings']));
+    expect([out.format, out.nodes, out.segments, out.arcs]).toEqual(['shapefile', reference.nodes.length, reference.segments.length, reference.report.arcCount]);
+  });
+
   it('a projected Shapefile without its .prj is refused, naming EPSG:2227 among the codes its extent suggests', async () => {
     const dir = join(w.dir, 'noprj');
     ogr(['-f', 'ESRI Shapefile', '-t_srs', 'EPSG:2227', dir, w.osm, 'lines', '-nln', 'roads']);
