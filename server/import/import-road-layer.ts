@@ -7,7 +7,7 @@ import type { ImportOptionsInput } from '../../shared/api/road-import';
 import { buildRoadGraph, type RoadGraph } from '../../shared/geo/build-road-graph';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import { decodeUpload, parseJsonBytes } from './decode-upload';
-import { readGisFile, type GisReadOptions } from './gis/read-gis-file';
+import { readGisFile, withCrsQuestion, type GisReadOptions } from './gis/read-gis-file';
 import { osmToRoadFeatures } from './osm-to-road-features';
 import { readOsmXml } from './read-osm-xml';
 
@@ -26,7 +26,7 @@ export async function importRoadLayerUpload(bytes: Uint8Array, options: ImportOp
   if (reading.format === 'csv') {
     throw new RoadImportError('unreadableFile', `${fileName}: a CSV table holds points; roads need lines (GeoJSON, Shapefile, GeoPackage, KML or OpenStreetMap)`);
   }
-  return buildRoadGraph(reading.collection, options, { sourceFormat: reading.format, sourceCrs: reading.sourceCrs });
+  return withCrsQuestion(reading, fileName, () => buildRoadGraph(reading.collection, options, { sourceFormat: reading.format, sourceCrs: reading.sourceCrs }));
 }
 
 /**

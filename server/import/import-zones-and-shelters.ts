@@ -9,7 +9,7 @@ import { readShelters, type ShelterFeature } from '../../shared/geo/read-shelter
 import { readZones, type ZoneFeature } from '../../shared/geo/read-zones';
 import { RoadImportError } from '../../shared/geo/road-import-error';
 import { applyShelterFields, applyZoneFields } from './gis/apply-field-mapping';
-import { readGisFile, type GisFeatures } from './gis/read-gis-file';
+import { readGisFile, withCrsQuestion, type GisFeatures } from './gis/read-gis-file';
 
 type AttachableNetwork = Pick<RoadGraph, 'nodes' | 'segments'> | NodeIndex;
 
@@ -26,13 +26,13 @@ async function featuresOf(bytes: Uint8Array, options: ZoneUploadOptions | Shelte
 /** Zones from any format, columns mapped. @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` */
 export async function readZonesUpload(bytes: Uint8Array, options: ZoneUploadOptions = {}, fileName = 'zones'): Promise<ZoneFeature[]> {
   const reading = await featuresOf(bytes, options, fileName, 'zones');
-  return readZones(applyZoneFields(reading.collection, options.fields, reading.format === 'csv'));
+  return withCrsQuestion(reading, fileName, () => readZones(applyZoneFields(reading.collection, options.fields, reading.format === 'csv')));
 }
 
 /** Shelters from any format, columns mapped. @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` */
 export async function readSheltersUpload(bytes: Uint8Array, options: ShelterUploadOptions = {}, fileName = 'shelters'): Promise<ShelterFeature[]> {
   const reading = await featuresOf(bytes, options, fileName, 'shelters');
-  return readShelters(applyShelterFields(reading.collection, options.fields));
+  return withCrsQuestion(reading, fileName, () => readShelters(applyShelterFields(reading.collection, options.fields)));
 }
 
 /** @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` | `attachmentFailed` */

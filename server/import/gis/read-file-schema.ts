@@ -3,6 +3,7 @@
 // map. Pure (readGisFile does the reading, within its bounds).
 import type { Feature } from 'geojson';
 import type { FileField, FileSchema, SourceReadOptions } from '../../../shared/api/road-import';
+import { undeclaredProjectedError } from './crs';
 import { readGisFile } from './read-gis-file';
 import { extentOf } from './reproject';
 
@@ -53,6 +54,8 @@ export async function readFileSchema(bytes: Uint8Array, source: SourceReadOption
     const roads = ways.filter((w) => typeof w.tags?.['highway'] === 'string');
     return { fileName, format: reading.format, layers: [], layer: null, featureCount: ways.length, geometryTypes: { way: ways.length, 'way with highway': roads.length }, fields: [], sourceCrs: null, extent: null, preview: [] };
   }
+  // The planner must name the CRS first: the refusal lists the codes the extent suggests.
+  if (reading.undeclaredProjected) throw undeclaredProjectedError(fileName, reading.undeclaredProjected);
   const features = reading.collection.features;
   const geometryTypes: Record<string, number> = {};
   for (const f of features) {

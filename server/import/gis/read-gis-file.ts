@@ -10,7 +10,7 @@ import { RoadImportError } from '../../../shared/geo/road-import-error';
 import { expandUpload, MAX_EXPANDED_BYTES, parseJsonBytes, textStart } from '../decode-upload';
 import type { OsmJson } from '../osm-json';
 import { readOsmXml } from '../read-osm-xml';
-import { crsFromName, epsgCodeOfName, looksProjected, suggestEpsgCodes, undeclaredProjectedError, type CrsTransform } from './crs';
+import { crsFromName, epsgCodeOfName, looksProjected, suggestEpsgCodes, undeclaredProjectedError, type CrsTransform, type Extent } from './crs';
 import { readCsvPoints } from './read-csv-points';
 import { readGeoPackage, SQLITE_MAGIC } from './read-geopackage';
 import { readKmlText, readKmz } from './read-kml';
@@ -37,6 +37,9 @@ export interface GisFeatures {
   /** Layers the file holds (GeoPackage tables, Shapefiles in one zip); empty for single-layer formats. */
   layers: string[];
   layer: string | null;
+  /** Set when most positions are not longitude/latitude and the file names no CRS: the
+   *  features are left as read, for `withCrsQuestion` to refuse with their problems listed. */
+  undeclaredProjected: Extent | null;
 }
 
 export interface GisOsm {
@@ -85,7 +88,7 @@ function finish(raw: RawGisLayer, format: GisFeatures['format'], label: string, 
   if (!transform && options.crs) transform = crsFromName(options.crs, label);
   // A few positions out of range are bad features (the readers list them); most of them, a projected file.
   if (extent && looksProjected(extent) && outOfRangeShare(raw.collection) >= 0.5) {
-    if (!transform) throw undeclaredProjectedError(label, extent);
+    if (!transform) return { kind: 'features', format, collection: raw.collection, sourceCrs: null, layers: raw.layers, layer: raw.layers.length > 0 ? raw.layer : null, undeclaredProjected: extent };
     if (!transform.toWgs84) {
       const s = suggestEpsgCodes(extent, 5);
       throw new RoadImportError(
@@ -108,7 +111,25 @@ function finish(raw: RawGisLayer, format: GisFeatures['format'], label: string, 
     sourceCrs: transform?.toWgs84 ? transform.crs : null,
     layers: raw.layers,
     layer: raw.layers.length > 0 ? raw.layer : null,
+    undeclaredProjected: null,
   };
+}
+
+/**
+ * Runs a feature reader on a reading; when the file looked projected without naming its CRS,
+ * refuses it as `wrongCrs` with the EPSG codes its extent suggests and the reader's list of
+ * bad features (every position out of longitude/latitude range, and anything else wrong).
+ */
+export function withCrsQuestion<T>(reading: GisFeatures, label: string, read: () => T): T {
+  if (!reading.undeclaredProjected) return read();
+  let bad: BadFeature[] = [];
+  try {
+    read();
+  } catch (error) {
+    if (!(error instanceof RoadImportError)) throw error;
+    bad = error.failure.badFeatures;
+  }
+  throw new RoadImportError('wrongCrs', undeclaredProjectedError(label, reading.undeclaredProjected).failure.message, bad);
 }
 
 /** @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures` */
