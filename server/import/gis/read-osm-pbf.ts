@@ -4,7 +4,7 @@
 // blocks are inflated with node:zlib within the format's own size limits and the import's.
 // Only nodes and ways are kept; relations are counted as such (turn restrictions are not modelled).
 import { inflateSync } from 'node:zlib';
-import { PbfReader } from 'pbf';
+import Pbf from 'pbf';
 import { RoadImportError } from '../../../shared/geo/road-import-error';
 import type { OsmElement, OsmJson } from '../osm-json';
 
@@ -27,7 +27,7 @@ interface Blob {
 }
 
 function readBlob(bytes: Uint8Array): Blob {
-  return new PbfReader(bytes).readFields<Blob>(
+  return new Pbf(bytes).readFields<Blob>(
     (tag, b, pbf) => {
       if (tag === 1) b.raw = pbf.readBytes();
       else if (tag === 2) b.rawSize = pbf.readVarint();
@@ -57,7 +57,7 @@ function blobData(blob: Blob, label: string, budget: { left: number }): Uint8Arr
 
 function readHeaderBlock(data: Uint8Array, label: string): void {
   const required: string[] = [];
-  new PbfReader(data).readFields((tag, _r, pbf) => {
+  new Pbf(data).readFields((tag, _r, pbf) => {
     if (tag === 4) required.push(pbf.readString());
   }, null);
   const unsupported = required.filter((f) => !SUPPORTED_FEATURES.has(f));
@@ -73,7 +73,7 @@ interface Block {
 }
 
 function readPrimitiveBlock(data: Uint8Array, elements: OsmElement[], maxElements: number, label: string): void {
-  const pbf = new PbfReader(data);
+  const pbf = new Pbf(data);
   const block = pbf.readFields<Block>(
     (tag, b, p) => {
       if (tag === 1) {
@@ -216,7 +216,7 @@ export function readOsmPbf(bytes: Uint8Array, label: string, maxExpandedBytes: n
     let type = '';
     let dataSize = -1;
     try {
-      new PbfReader(bytes.subarray(pos, pos + headerLength)).readFields((tag, _r, pbf) => {
+      new Pbf(bytes.subarray(pos, pos + headerLength)).readFields((tag, _r, pbf) => {
         if (tag === 1) type = pbf.readString();
         else if (tag === 3) dataSize = pbf.readVarint();
       }, null);
