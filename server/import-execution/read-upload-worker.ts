@@ -5,10 +5,8 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import type { ImportOptions } from '../../shared/api/road-import';
 import { RoadImportError } from '../../shared/geo/road-import-error';
-import { readShelters } from '../../shared/geo/read-shelters';
-import { readZones } from '../../shared/geo/read-zones';
-import { readGeoJsonUpload } from '../import/decode-upload';
-import { importRoadLayer } from '../import/import-road-layer';
+import { importRoadLayerUpload } from '../import/import-road-layer';
+import { readSheltersUpload, readZonesUpload } from '../import/import-zones-and-shelters';
 
 export type ReadRequest = { kind: 'road-layer' | 'zones' | 'shelters'; bytes: Uint8Array; fileName: string; options: ImportOptions | null };
 export type ReadMessage =
@@ -19,13 +17,14 @@ export type ReadMessage =
 const { kind, bytes, fileName, options } = workerData as ReadRequest;
 const post = (m: ReadMessage) => parentPort!.postMessage(m);
 
+// Every format readGisFile reads (Shapefile, GeoPackage, KML, PBF, CSV, GeoJSON with a crs).
 try {
   const value =
     kind === 'road-layer'
-      ? importRoadLayer(bytes, options ?? {}, fileName)
+      ? await importRoadLayerUpload(bytes, options ?? {}, fileName)
       : kind === 'zones'
-        ? readZones(readGeoJsonUpload(bytes, fileName))
-        : readShelters(readGeoJsonUpload(bytes, fileName));
+        ? await readZonesUpload(bytes, {}, fileName)
+        : await readSheltersUpload(bytes, {}, fileName);
   post({ type: 'done', value });
 } catch (e) {
   if (e instanceof RoadImportError) post({ type: 'refused', failure: e.failure });
