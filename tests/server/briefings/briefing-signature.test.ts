@@ -12,6 +12,7 @@ import { renderBriefing } from '../../../server/services/briefings/render-briefi
 import {
   CertificateError,
   generateOrganizationCertificate,
+  loadStoredCertificate,
   loadOrganizationCertificate,
   readConfiguredCertificate,
   resolveOrganizationCertificate,
@@ -175,9 +176,13 @@ describe('organisation certificate', () => {
   });
 
   it('reads back from its P12, and refuses a wrong passphrase', () => {
-    const again = loadOrganizationCertificate(org.p12, 'demo signing passphrase', 'generated');
+    // The P12 opens with its own password (derived from the passphrase); the stored, sealed key
+    // opens with the passphrase itself.
+    const again = loadOrganizationCertificate(org.p12, org.passphrase, 'generated');
     expect(again.fingerprintSha256).toBe(org.fingerprintSha256);
     expect(() => loadOrganizationCertificate(org.p12, 'wrong passphrase')).toThrow(CertificateError);
+    expect(loadStoredCertificate(org.stored!, 'demo signing passphrase').fingerprintSha256).toBe(org.fingerprintSha256);
+    expect(() => loadStoredCertificate(org.stored!, 'wrong passphrase')).toThrow(CertificateError);
   });
 
   it('uses a configured P12 file instead of generating one', async () => {
@@ -187,7 +192,7 @@ describe('organisation certificate', () => {
       writeFileSync(file, other.p12);
       const configured = await resolveOrganizationCertificate({
         organizationName: 'Demo Emergency Management Office',
-        configured: { path: file, passphrase: 'other signing passphrase' },
+        configured: { path: file, passphrase: other.passphrase },
         passphrase: 'unused passphrase',
       });
       expect(configured.created).toBe(false);
@@ -195,7 +200,7 @@ describe('organisation certificate', () => {
       expect(configured.certificate.fingerprintSha256).toBe(other.fingerprintSha256);
       await expect(readConfiguredCertificate(file, 'nope')).rejects.toThrow(/wrong passphrase/);
 
-      const stored = await resolveOrganizationCertificate({ organizationName: 'x', stored: { p12: org.p12 }, passphrase: 'demo signing passphrase' });
+      const stored = await resolveOrganizationCertificate({ organizationName: 'x', stored: { p12: org.stored! }, passphrase: 'demo signing passphrase' });
       expect(stored).toMatchObject({ created: false, certificate: { fingerprintSha256: org.fingerprintSha256 } });
       const fresh = await resolveOrganizationCertificate({ organizationName: 'New Office', passphrase: 'a new passphrase' });
       expect(fresh.created).toBe(true);
