@@ -114,6 +114,14 @@ const rows: Record<string, Row> = {
     body: { json: () => ({ name: 'Hall', capacityPersons: 300, lon: -38.5, lat: 44.2 }), refuses: refusedBy(shelterCreateSchema) },
   },
   'POST /api/plans/:planId/shelters/upload': { who: 'planner', path: (f) => `/api/plans/${f.planId}/shelters/upload`, body: 'upload' },
+  'POST /api/plans/:planId/imports/:kind': { who: 'planner', path: (f) => `/api/plans/${f.planId}/imports/road-layer`, body: 'upload' },
+  // No import exists under this id: whatever the body, the answer is a readable 404.
+  'POST /api/plans/:planId/imports/:importId/cancel': {
+    who: 'planner',
+    path: (f) => `/api/plans/${f.planId}/imports/00000000-0000-4000-8000-000000000000/cancel`,
+    body: 'none',
+  },
+  'POST /api/plans/:planId/file-schema': { who: 'planner', path: (f) => `/api/plans/${f.planId}/file-schema`, body: 'upload' },
   'PATCH /api/plans/:planId/shelters/:shelterId': {
     who: 'planner',
     path: (f) => `/api/plans/${f.planId}/shelters/${f.shelterId}`,
