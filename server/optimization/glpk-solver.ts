@@ -1,6 +1,6 @@
 // The LinearSolver of shared/plan-optimization backed by glpk.js (the GNU Linear Programming
 // Kit compiled to WebAssembly). glpk.js aborts its module on a program without columns
-// (/work/shared/STACK.md gotcha 12), so an empty program is answered here without it.
+// ("glp_add_cols: ncs = 0", then RuntimeError: Aborted), so an empty program is answered here without it.
 import GLPK from 'glpk.js/node';
 import type { LinearProgram, LinearSolver, LpSolution } from '../../shared/plan-optimization';
 
