@@ -2,7 +2,7 @@
 // directions, steps become minutes, vehicles become persons with each zone's own persons per
 // vehicle (a shelter's persons follow the zones its vehicles came from).
 import type { Bottleneck, Fix, RoadRef, RunResult } from '../../shared/api/runs';
-import type { EvacuationResult } from '../../shared/flow';
+import { suggestedTimeStepSeconds, type EvacuationResult } from '../../shared/flow';
 import { ENGINE_VERSION } from './engine-version';
 import type { RunInput } from '../../shared/model/run-input';
 
@@ -98,6 +98,27 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     shelterIds: cut.shelters.map((s) => input.shelters[s]!.id),
   };
 
+  const timing = r.routeTiming;
+  const worst = timing.worst;
+  const routeTiming = {
+    timeStepSeconds: r.timeStepSeconds,
+    pairs: timing.pairs,
+    largestSeconds: timing.largestSeconds,
+    typicalSeconds: timing.typicalSeconds,
+    worst:
+      worst === null
+        ? null
+        : {
+            zoneId: input.zones[worst.zone]!.id,
+            zoneName: input.zones[worst.zone]!.name,
+            shelterId: input.shelters[worst.shelter]!.id,
+            shelterName: input.shelters[worst.shelter]!.name,
+            freeFlowSeconds: worst.freeFlowSeconds,
+            modelledSeconds: worst.modelledSeconds,
+          },
+    suggestedStepSeconds: suggestedTimeStepSeconds(timing, r.timeStepSeconds),
+  };
+
   const T = r.horizonSteps;
   const delivered = r.curve.deliveredVehiclesByStep;
   return {
@@ -119,6 +140,7 @@ export function toRunResult(input: RunInput, done: SolvedRun): RunResult {
     shelters,
     bottlenecks,
     arrivalLimits,
+    routeTiming,
     fixes,
     stats: {
       engineVersion: ENGINE_VERSION,

@@ -160,6 +160,32 @@ export const arrivalLimitsSchema = z.object({
 });
 export type ArrivalLimits = z.infer<typeof arrivalLimitsSchema>;
 
+// How far the model's trip times lie from free flow (shared/flow/route-timing.ts): for every
+// zone and shelter, the fastest trip in whole time steps against the fastest at free flow.
+// Trips made of fastest roads stay within one step; roads off them round up to whole steps.
+export const routeTimingSchema = z.object({
+  timeStepSeconds: z.number(),
+  // Zone–shelter pairs compared (the shelter reachable from the zone).
+  pairs: z.number().int(),
+  // Largest and median |modelled − free-flow| over those pairs.
+  largestSeconds: z.number(),
+  typicalSeconds: z.number(),
+  worst: z
+    .object({
+      zoneId: z.number().int(),
+      zoneName: z.string(),
+      shelterId: z.number().int(),
+      shelterName: z.string(),
+      freeFlowSeconds: z.number(),
+      modelledSeconds: z.number(),
+    })
+    .nullable(),
+  // Past one step: the longest step that should bring the difference within one present step
+  // (null when none of the offered steps does, or none is needed).
+  suggestedStepSeconds: z.number().nullable(),
+});
+export type RouteTiming = z.infer<typeof routeTimingSchema>;
+
 export const runResultSchema = z.object({
   headline: runHeadlineSchema,
   curve: z.object({ stepMinutes: z.number(), deliveredVehicles: z.array(z.number()) }),
@@ -170,6 +196,8 @@ export const runResultSchema = z.object({
   bottlenecks: z.array(bottleneckSchema),
   // Absent from results stored by engine versions before it was reported.
   arrivalLimits: arrivalLimitsSchema.optional(),
+  // Absent from results stored before engine version cutline-flow 1.3.
+  routeTiming: routeTimingSchema.optional(),
   fixes: z.array(fixSchema),
   stats: runStatsSchema,
 });

@@ -215,6 +215,23 @@ export function measureRouteTiming(problem: EvacuationProblem, steps: Int32Array
   };
 }
 
+/** Steps offered when the model's route times drift, longest first. */
+const SUGGESTED_STEPS_SECONDS = [300, 180, 120, 60, 30, 20, 15, 10, 5];
+
+/**
+ * The longest offered step (shorter than Δ) at which the zones' modelled trips should come within
+ * one present step of free flow, or null when the difference is within one step already or no
+ * offered step is short enough. The excess over free flow comes from roads off the fastest trips,
+ * each rounded up to whole steps, so it shrinks about in proportion to the step: at step δ it is
+ * about largest · δ/Δ, which is at most Δ for δ ≤ Δ²/largest.
+ */
+export function suggestedTimeStepSeconds(timing: Pick<RouteTimingError, 'largestSeconds'>, timeStepSeconds: number): number | null {
+  const dt = timeStepSeconds;
+  if (!(timing.largestSeconds > dt + 1e-9)) return null;
+  const wanted = (dt * dt) / timing.largestSeconds;
+  return SUGGESTED_STEPS_SECONDS.find((x) => x <= wanted && x < dt) ?? null;
+}
+
 /** A binary min-heap of node indices keyed by a double; a node is pushed again when its key falls, and callers skip the stale entries. */
 class MinHeap {
   private nodes: Int32Array;

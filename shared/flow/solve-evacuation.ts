@@ -12,7 +12,7 @@ import { arcFlows, createFlowState } from './flow-state';
 import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice } from './max-flow';
 import { minimumCut } from './min-cut';
 import { perStepCapacity } from './road-timing';
-import type { RouteTimingError } from './route-timing';
+import { suggestedTimeStepSeconds, type RouteTimingError } from './route-timing';
 import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateSummary } from './steady-state';
 import { expandOverTime, nodeLimitAtHorizon } from './time-expanded';
 import { verify } from './verify';
@@ -357,23 +357,18 @@ function collectWarnings(problem: EvacuationProblem): EvacuationWarning[] {
   return warnings;
 }
 
-/** Steps offered when the model's route times drift: the largest of them that should bring the drift within one present step. */
-const SUGGESTED_STEPS_SECONDS = [300, 180, 120, 60, 30, 20, 15, 10, 5];
-
 /**
  * A warning when some zone's fastest modelled trip to a shelter differs from free flow by more
- * than one step. The excess comes from roads that lead away from the nearest shelter, each
- * rounded up to whole steps, so it shrinks about in proportion to the step: the suggestion is
- * the largest step at which it should fall within the present step's length.
+ * than one step, with the step that should bring it within one present step
+ * (`suggestedTimeStepSeconds`).
  */
 function routeTimingWarning(timing: RouteTimingError, problem: EvacuationProblem): EvacuationWarning | null {
   const dt = problem.timeStepSeconds;
   if (timing.worst === null || timing.largestSeconds <= dt + 1e-9) return null;
   const minutes = (seconds: number): string => `${(seconds / 60).toFixed(1)} min`;
   const { zone, shelter, freeFlowSeconds, modelledSeconds } = timing.worst;
-  const wanted = (dt * dt) / timing.largestSeconds;
-  const step = SUGGESTED_STEPS_SECONDS.find((x) => x <= wanted && x < dt);
-  const advice = step
+  const step = suggestedTimeStepSeconds(timing, dt);
+  const advice = step !== null
     ? `a time step of ${step} s should bring it within ${dt} s`
     : 'a shorter time step brings it down about in proportion';
   return {

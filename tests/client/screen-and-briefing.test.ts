@@ -19,6 +19,7 @@ await ignoreStylesheets();
 const { createVuetify } = await import('vuetify');
 const { default: FindingsHeadline } = await import('../../src/components/workspace/FindingsHeadline.vue');
 const { default: FindingsChokePointTable } = await import('../../src/components/workspace/FindingsChokePointTable.vue');
+const { default: FindingsTripTimes } = await import('../../src/components/workspace/FindingsTripTimes.vue');
 
 /** Every text string in a pdfmake document definition, in document order. */
 function documentStrings(node: unknown, out: string[] = []): string[] {
@@ -51,6 +52,13 @@ function briefingTableRows(node: unknown, headerCell: string): string[][] | null
 const notCleared: RunResult = {
   ...storedResult,
   headline: { ...storedResult.headline, deliveredVehicles: 2640, deliveredPersons: 6336, clearanceMinutes: null, p95Minutes: null },
+  // Trip times more than one step off free flow, with a step to try.
+  routeTiming: {
+    ...storedResult.routeTiming!,
+    largestSeconds: 480,
+    worst: { ...storedResult.routeTiming!.worst!, modelledSeconds: 940 },
+    suggestedStepSeconds: 180,
+  },
 };
 
 const mountOptions = () => ({ global: { plugins: [createPinia(), createVuetify()] } });
@@ -77,6 +85,23 @@ describe.each([
     expect(onScreen.length).toBeGreaterThan(10);
     expect(missing).toEqual([]);
     for (const pct of ['50 %', '90 %', '95 %']) expect(printed.has(`${pct} arrived after`)).toBe(true);
+  });
+
+  it('print the same trip-time summary, and past one step the same warning, on screen and in the briefing', () => {
+    const screen = mount(FindingsTripTimes, { props: { timing: result.routeTiming! }, ...mountOptions() });
+    const summary = squeeze(screen.find('[data-test="trip-times-summary"]').text());
+    expect(summary).toMatch(/^Fastest trips from each zone/);
+    // The Method section quotes the summary inside its own paragraph.
+    expect([...printed].some((s) => s.includes(summary))).toBe(true);
+    const warning = screen.find('[data-test="trip-times-warning"]');
+    if (result === notCleared) {
+      const text = squeeze(warning.text());
+      expect(text).toContain('Analyse again with a time step of 3 minutes');
+      expect(printed.has(text)).toBe(true);
+    } else {
+      expect(warning.exists()).toBe(false);
+      expect([...printed].some((s) => s.includes('Analyse again'))).toBe(false);
+    }
   });
 
   it('rank the choke points in the same order with the same capacity and share', () => {

@@ -103,6 +103,19 @@ describe('a run of the demo plan', () => {
     expect(limits.parts.departures).toBe(limits.vehicles);
   });
 
+  it('stores how far trip times lie from free flow, with zone and shelter names (engine cutline-flow 1.3)', () => {
+    const { routeTiming: t, zones, shelters } = run.result!;
+    expect(t).toBeDefined();
+    expect(t!.timeStepSeconds).toBe(60);
+    expect(t!.pairs).toBeGreaterThan(0);
+    expect(t!.pairs).toBeLessThanOrEqual(zones.length * shelters.length);
+    expect(t!.typicalSeconds).toBeLessThanOrEqual(t!.largestSeconds);
+    expect(zones.map((z) => z.name)).toContain(t!.worst!.zoneName);
+    expect(shelters.map((s) => s.name)).toContain(t!.worst!.shelterName);
+    // The suggestion appears exactly when the difference passes one step.
+    expect(t!.suggestedStepSeconds === null).toBe(t!.largestSeconds <= 60);
+  });
+
   it('is listed, and exports CSV and GeoJSON', async () => {
     const list = (await viewer.agent.get(`/api/plans/${planId}/runs`).expect(200)).body.runs;
     expect(list[0].id).toBe(run.id);

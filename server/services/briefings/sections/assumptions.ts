@@ -5,6 +5,7 @@ import type { BriefingInput } from '../briefing-input';
 import { formatCount, formatDateTime, formatDecimal, formatSpan, formatStep } from '../../../../shared/format/numbers';
 import { COLOURS, dataTable, td, th } from './document-styles';
 import { algorithmWords } from '../../../../shared/format/engine-words';
+import { tripTimesMethod, tripTimesWarning } from '../../../../shared/format/trip-times';
 import { CAPACITY_FACTOR_PRESETS } from '../../../../shared/model/capacity-factors';
 import { ZONE_DEFAULTS } from '../../../../shared/model/zone-defaults';
 
@@ -40,6 +41,7 @@ export function assumptionsSection(input: BriefingInput): Content[] {
   const { run, result, assumptions: a } = input;
   const p = run.parameters;
   const s = result.stats;
+  const tripWarning = result.routeTiming ? tripTimesWarning(result.routeTiming) : null;
   const requested = p.algorithm === 'auto' ? 'automatic choice' : algorithmWords(p.algorithm);
   const rows: [string, string][] = [
     ['Data version', `${run.dataVersion}: ${a.dataDescription}`],
@@ -96,5 +98,7 @@ export function assumptionsSection(input: BriefingInput): Content[] {
       fontSize: 8.5,
       lineHeight: 1.3,
     },
+    { text: tripTimesMethod(p.timeStepSeconds, result.routeTiming), fontSize: 8.5, lineHeight: 1.3, margin: [0, 6, 0, 0] },
+    ...(tripWarning ? [{ text: tripWarning, fontSize: 8.5, lineHeight: 1.3, color: COLOURS.warn, margin: [0, 4, 0, 0] } as Content] : []),
   ];
 }

@@ -3,6 +3,7 @@ import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
 import { curveSvg } from '../curve-svg';
 import { headlineFigures as figuresInWords } from '../../../../shared/format/headline';
+import { tripTimesWarning } from '../../../../shared/format/trip-times';
 import { COLOURS } from './document-styles';
 
 function panel(label: string, value: string, notes: string[]): TableCell {
@@ -24,6 +25,8 @@ export function headlineFigures(input: BriefingInput): Content[] {
   const row1: TableCell[] = figures.slice(0, 3);
   const row2: TableCell[] = figures.slice(3, 6);
   const gap = { hLineWidth: () => 0, vLineWidth: () => 0, paddingLeft: (i: number) => (i === 0 ? 0 : 4), paddingRight: (i: number) => (i === 2 ? 0 : 4), paddingTop: () => 4, paddingBottom: () => 4 };
+  // Past one step off free flow the times below carry that error: said here, where they are read.
+  const tripWarning = input.result.routeTiming ? tripTimesWarning(input.result.routeTiming) : null;
   const ppv = h.demandVehicles > 0 ? h.demandPersons / h.demandVehicles : input.assumptions.personsPerVehicle;
   return [
     { text: 'Headline figures', style: 'h1' },
@@ -33,6 +36,7 @@ export function headlineFigures(input: BriefingInput): Content[] {
       style: 'note',
       margin: [0, 4, 0, 0],
     },
+    ...(tripWarning ? [{ text: tripWarning, fontSize: 8.5, color: COLOURS.warn, lineHeight: 1.3, margin: [0, 6, 0, 0] } as Content] : []),
     { text: 'Evacuation curve', style: 'h2', margin: [0, 16, 0, 2] },
     { text: 'How many have arrived at a shelter or exit by each minute, at the best routing the network allows.', style: 'note', margin: [0, 0, 0, 6] },
     {

@@ -1,0 +1,62 @@
+// How far the model's trip times lie from free flow (RunResult.routeTiming), in the words the
+// Findings tab and the briefing both print: one line of what was measured, a warning with a
+// concrete step to try when the difference passes one time step (the bound the rounding keeps
+// on routes over the fastest roads), and the time model for the briefing's Method section.
+import type { RouteTiming } from '../api/runs';
+import { formatStep } from './numbers';
+
+/** Seconds of a trip or a difference: 45 → "45 s", 228 → "3.8 min", 4500 → "1 h 15 min". */
+export function formatTripSeconds(seconds: number): string {
+  if (!Number.isFinite(seconds)) return '–';
+  const s = Math.round(seconds);
+  if (s < 90) return `${s} s`;
+  if (s < 3600) return `${(Math.round(s / 6) / 10).toFixed(1)} min`;
+  const minutes = Math.round(s / 60);
+  const m = minutes % 60;
+  return m === 0 ? `${Math.floor(minutes / 60)} h` : `${Math.floor(minutes / 60)} h ${String(m).padStart(2, '0')} min`;
+}
+
+/** More than one step off free flow somewhere: the rounding's bound on fastest routes is exceeded. */
+export function tripTimesPastBound(t: RouteTiming): boolean {
+  return t.worst !== null && t.largestSeconds > t.timeStepSeconds + 1e-9;
+}
+
+/** One sentence: the largest and typical difference over the zone–shelter pairs, against one step. */
+export function tripTimesSummary(t: RouteTiming): string {
+  if (t.pairs === 0 || t.worst === null) return 'No zone reaches a shelter or exit at free flow, so there are no trip times to compare.';
+  const step = formatStep(t.timeStepSeconds);
+  const within = tripTimesPastBound(t) ? 'more than one time step' : 'within one time step';
+  return (
+    `Fastest trips from each zone to each shelter or exit (${t.pairs} pairs) take up to ${formatTripSeconds(t.largestSeconds)} ` +
+    `longer or shorter in the model than at free flow, typically ${formatTripSeconds(t.typicalSeconds)}: ${within} (${step}).`
+  );
+}
+
+/** The warning past one step, naming the worst pair and the step to try; null within the bound. */
+export function tripTimesWarning(t: RouteTiming): string | null {
+  if (!tripTimesPastBound(t) || t.worst === null) return null;
+  const w = t.worst;
+  const step = formatStep(t.timeStepSeconds);
+  const slower = w.modelledSeconds >= w.freeFlowSeconds ? 'late' : 'early';
+  const advice =
+    t.suggestedStepSeconds !== null
+      ? `Analyse again with a time step of ${formatStep(t.suggestedStepSeconds)}: that should bring the difference within ${step}.`
+      : 'Analyse again with a shorter time step: the difference shrinks about in proportion to the step.';
+  return (
+    `Trip times in the model are up to ${formatTripSeconds(t.largestSeconds)} off free flow, more than one time step (${step}). ` +
+    `The fastest trip from ${w.zoneName} to ${w.shelterName} takes ${formatTripSeconds(w.freeFlowSeconds)} at free flow and ` +
+    `${formatTripSeconds(w.modelledSeconds)} in the model, so arrivals, the curve and the clearance time may come that much ${slower}. ` +
+    `The cause is roads off the fastest trips, each rounded up to whole steps. ${advice}`
+  );
+}
+
+/** The time model and its bound, for the briefing's Method section (with this run's figures when stored). */
+export function tripTimesMethod(timeStepSeconds: number, t: RouteTiming | undefined): string {
+  const step = formatStep(timeStepSeconds);
+  const model =
+    `Travel times are counted in whole time steps of ${step}. Each road's steps are rounded against node time potentials ` +
+    '(the free-flow time from each junction to the nearest shelter or exit, or from the nearest zone), so that rounding errors do not add up along a route ' +
+    '(as in condensed time-expanded networks, Fleischer & Skutella 2007): a trip over the fastest roads is modelled within one time step of its free-flow travel time, however short its roads, ' +
+    'and each road off those fastest trips adds less than one step. Travel times are free-flow times; queues form only where capacity runs out.';
+  return t === undefined ? model : `${model} In this analysis: ${tripTimesSummary(t)}`;
+}

@@ -1,0 +1,56 @@
+// The trip-time words that the Findings tab and the briefing both print (shared/format/trip-times.ts).
+import { describe, expect, it } from 'vitest';
+import type { RouteTiming } from '../../../shared/api/runs';
+import { formatTripSeconds, tripTimesMethod, tripTimesPastBound, tripTimesSummary, tripTimesWarning } from '../../../shared/format/trip-times';
+
+const within: RouteTiming = {
+  timeStepSeconds: 60,
+  pairs: 12,
+  largestSeconds: 42,
+  typicalSeconds: 18,
+  worst: { zoneId: 1, zoneName: 'North Flats', shelterId: 2, shelterName: 'Hill School', freeFlowSeconds: 228, modelledSeconds: 270 },
+  suggestedStepSeconds: null,
+};
+const past: RouteTiming = {
+  ...within,
+  largestSeconds: 150,
+  typicalSeconds: 40,
+  worst: { ...within.worst!, freeFlowSeconds: 230, modelledSeconds: 380 },
+  suggestedStepSeconds: 20,
+};
+
+describe('trip-time words', () => {
+  it('formats trip seconds in seconds, minutes or hours', () => {
+    expect(formatTripSeconds(42.4)).toBe('42 s');
+    expect(formatTripSeconds(228)).toBe('3.8 min');
+    expect(formatTripSeconds(4500)).toBe('1 h 15 min');
+    expect(formatTripSeconds(7200)).toBe('2 h');
+  });
+
+  it('within one step: a summary and no warning', () => {
+    expect(tripTimesPastBound(within)).toBe(false);
+    expect(tripTimesWarning(within)).toBeNull();
+    expect(tripTimesSummary(within)).toBe(
+      'Fastest trips from each zone to each shelter or exit (12 pairs) take up to 42 s longer or shorter in the model than at free flow, typically 18 s: within one time step (1 minute).',
+    );
+  });
+
+  it('past one step: the warning names the worst pair and the step to try', () => {
+    expect(tripTimesPastBound(past)).toBe(true);
+    const w = tripTimesWarning(past)!;
+    expect(w).toContain('up to 2.5 min off free flow, more than one time step (1 minute)');
+    expect(w).toContain('from North Flats to Hill School takes 3.8 min at free flow and 6.3 min in the model');
+    expect(w).toContain('may come that much late');
+    expect(w).toContain('Analyse again with a time step of 20 seconds: that should bring the difference within 1 minute.');
+    expect(tripTimesWarning({ ...past, suggestedStepSeconds: null })).toContain('Analyse again with a shorter time step');
+  });
+
+  it('the method states the rounding and its bound, with this run’s figures when stored', () => {
+    const m = tripTimesMethod(60, within);
+    expect(m).toContain('whole time steps of 1 minute');
+    expect(m).toContain('within one time step of its free-flow travel time');
+    expect(m).toContain('Fleischer & Skutella 2007');
+    expect(m).toContain(tripTimesSummary(within));
+    expect(tripTimesMethod(300, undefined)).not.toContain('In this analysis');
+  });
+});
