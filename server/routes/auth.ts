@@ -11,6 +11,8 @@ import { recordAudit } from '../services/audit';
 import type { SignInRefusal } from '../auth/passport';
 import type { Database } from '../db/client';
 import { setDeviceCookie } from '../auth/device-cookie';
+import { ownPasswordChangeSchema } from '../../shared/api/users';
+import { changeOwnPassword } from '../services/account-passwords';
 
 export type AuthRouterDeps = {
   db: Database;
@@ -69,6 +71,17 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
     skipSuccessfulRequests: true,
   });
 
+  // Wrong current passwords, per account: a borrowed or stolen session must not become a way
+  // to guess the password at the speed of the API.
+  const passwordChangeLimiter = rateLimited({
+    name: 'password-change',
+    windowMs: config.SIGN_IN_WINDOW_MINUTES * 60_000,
+    limit: config.SIGN_IN_ATTEMPTS_PER_WINDOW,
+    message: 'Too many wrong current passwords. Wait a few minutes and try again.',
+    keyGenerator: (req) => req.user?.id ?? ipKeyGenerator(req.ip ?? ''),
+    skipSuccessfulRequests: true,
+  });
+
   router.get('/session', (req, res) => {
     res.json(sessionBody(req, csrfToken(req)));
   });
@@ -103,6 +116,18 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
       });
     });
   });
+
+  // Anyone signed in changes their own password; this session stays, the account's others end.
+  router.post(
+    '/password',
+    (req, _res, next) => next(req.isAuthenticated() ? undefined : new UnauthenticatedError()),
+    passwordChangeLimiter,
+    async (req, res) => {
+      const input = ownPasswordChangeSchema.parse(req.body);
+      await changeOwnPassword(db, req.user!.id, req.sessionID, input, config.PASSWORD_HASH_ROUNDS);
+      res.status(204).end();
+    },
+  );
 
   router.post('/organization', (req, res) => {
     if (!req.isAuthenticated()) throw new UnauthenticatedError();

@@ -1,6 +1,6 @@
 // /api/members: administrators manage who belongs to their organization, and in which role.
 import { Router } from 'express';
-import { memberCreateSchema, memberUpdateSchema, userIdParamsSchema } from '../../shared/api/users';
+import { memberCreateSchema, memberPasswordSchema, memberUpdateSchema, userIdParamsSchema } from '../../shared/api/users';
 import type { Database } from '../db/client';
 import type { Config } from '../config';
 import { listCaps } from '../../shared/api/pagination';
@@ -8,6 +8,7 @@ import { pageOf, sendPage } from '../http/list-page';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { createMember, getMember, listMembers, removeMember, updateMemberRole } from '../services/users';
 import { unlockMember } from '../services/sign-in-lockout';
+import { resetMemberPassword } from '../services/account-passwords';
 
 export function membersRouter(db: Database, config: Config): Router {
   const router = Router();
@@ -33,6 +34,14 @@ export function membersRouter(db: Database, config: Config): Router {
   router.post('/:userId/unlock', async (req, res) => {
     const { userId } = userIdParamsSchema.parse(req.params);
     await unlockMember(db, actorOf(req), userId);
+    res.json(await getMember(db, actorOf(req).organizationId, userId));
+  });
+
+  // Sets a new password for a member who forgot theirs; their sessions end and a lock lifts.
+  router.post('/:userId/password', async (req, res) => {
+    const { userId } = userIdParamsSchema.parse(req.params);
+    const { password } = memberPasswordSchema.parse(req.body);
+    await resetMemberPassword(db, actorOf(req), userId, password, config.PASSWORD_HASH_ROUNDS);
     res.json(await getMember(db, actorOf(req).organizationId, userId));
   });
 

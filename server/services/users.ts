@@ -7,6 +7,7 @@ import type { Role } from '../../shared/api/roles';
 import { ConflictError, NotFoundError } from '../errors';
 import { hashPassword } from './password';
 import { forgetAuthUser } from './auth-user-cache';
+import { endSessionsOf } from './user-sessions';
 import { recordAudit, type Actor } from './audit';
 import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
@@ -83,22 +84,45 @@ export async function getMember(db: Database, organizationId: string, userId: st
   return toMember(row);
 }
 
+/**
+ * Adds a member. A new address gets an account; an address whose account belongs to no
+ * organization any more (a member removed earlier, whose account row stays for the audit
+ * trail) is taken back: the administrator's name and password replace the old ones, any old
+ * lockout and sessions end, and the audit entry says it was a return. An address already in
+ * this organization, or in another one, is refused (409): taking over an account another
+ * organization relies on is not an administrator's to do.
+ */
 export async function createMember(db: Database, actor: Actor, input: MemberCreate, rounds: number): Promise<Member> {
   const passwordHash = await hashPassword(input.password, rounds);
-  return db.transaction(async (tx) => {
-    const [existing] = await tx.select({ id: users.id }).from(users).where(eq(users.email, input.email));
-    if (existing) throw new ConflictError('A user with that e-mail address already exists.');
-    const [user] = await tx
-      .insert(users)
-      .values({ email: input.email, displayName: input.displayName, passwordHash })
-      .returning();
+  const member = await db.transaction(async (tx) => {
+    // Locked, so two administrators adding the same returning person at once take turns.
+    const [existing] = await tx.select({ id: users.id, disabled: users.disabled }).from(users).where(eq(users.email, input.email)).for('update');
+    let userId: string;
+    if (existing) {
+      const joined = await tx.select({ organizationId: memberships.organizationId }).from(memberships).where(eq(memberships.userId, existing.id));
+      if (joined.some((m) => m.organizationId === actor.organizationId)) throw new ConflictError('That person is already a member of this organization.');
+      if (joined.length > 0) throw new ConflictError('A user with that e-mail address already exists.');
+      // Disabled by the installation's operator (in the database): not an administrator's to undo.
+      if (existing.disabled) throw new ConflictError('That account is disabled on this installation.');
+      await tx
+        .update(users)
+        .set({ displayName: input.displayName, passwordHash, failedSignIns: 0, lockedUntil: null, updatedAt: new Date() })
+        .where(eq(users.id, existing.id));
+      await endSessionsOf(tx, existing.id);
+      userId = existing.id;
+    } else {
+      const [user] = await tx.insert(users).values({ email: input.email, displayName: input.displayName, passwordHash }).returning({ id: users.id });
+      userId = user!.id;
+    }
     const [membership] = await tx
       .insert(memberships)
-      .values({ userId: user!.id, organizationId: actor.organizationId, role: input.role })
+      .values({ userId, organizationId: actor.organizationId, role: input.role })
       .returning();
-    await recordAudit(tx, actor, 'member.create', 'user', user!.id, { email: input.email, role: input.role });
-    return toMember({ userId: user!.id, email: user!.email, displayName: user!.displayName, role: membership!.role, joinedAt: membership!.joinedAt, lockedUntil: null });
+    await recordAudit(tx, actor, 'member.create', 'user', userId, { email: input.email, role: input.role, ...(existing ? { returning: true } : {}) });
+    return toMember({ userId, email: input.email, displayName: input.displayName, role: membership!.role, joinedAt: membership!.joinedAt, lockedUntil: null });
   });
+  forgetAuthUser(member.userId);
+  return member;
 }
 
 async function lockMembership(tx: Tx, organizationId: string, userId: string) {

@@ -16,6 +16,20 @@ export const memberCreateSchema = z.object({
 });
 export type MemberCreate = z.infer<typeof memberCreateSchema>;
 
+// An administrator sets a new password for a member (who then signs in with it and may change it).
+export const memberPasswordSchema = z.object({ password: passwordSchema });
+export type MemberPassword = z.infer<typeof memberPasswordSchema>;
+
+// Anyone signed in changes their own password: the current one proves it is them, not a
+// borrowed browser.
+export const ownPasswordChangeSchema = z
+  .object({
+    currentPassword: z.string().min(1, 'Enter your current password.').max(200),
+    newPassword: passwordSchema,
+  })
+  .refine((v) => v.newPassword !== v.currentPassword, { path: ['newPassword'], message: 'Choose a password other than the current one.' });
+export type OwnPasswordChange = z.infer<typeof ownPasswordChangeSchema>;
+
 export const memberUpdateSchema = z.object({ role: roleSchema });
 export type MemberUpdate = z.infer<typeof memberUpdateSchema>;
 

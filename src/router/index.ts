@@ -61,6 +61,7 @@ export const router = createRouter({
       component: () => import('@/views/MemberAdminView.vue'),
       meta: { permission: 'users:manage', title: 'Members' },
     },
+    { path: '/account', name: 'account', component: () => import('@/views/AccountView.vue'), meta: { title: 'Your account' } },
     { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true, title: 'Not found' } },
   ],
 });

@@ -71,6 +71,13 @@ const rows: Row[] = [
   },
   { route: 'POST /api/auth/sign-out', expect: publicRoute(200), ownSession: true },
   {
+    route: 'POST /api/auth/password',
+    // Everyone signed in reaches the check of their current password; a wrong one changes nothing.
+    variant: 'a wrong current password',
+    expect: { ...publicRoute(400), 'signed out': 401 },
+    call: () => ({ body: { currentPassword: 'not-the-password-1', newPassword: 'a-new-long-password-1' } }),
+  },
+  {
     route: 'POST /api/auth/organization',
     variant: 'into the demo organization',
     expect: { 'signed out': 401, admin: 200, planner: 200, official: 200, viewer: 200, 'other admin': 403, 'other planner': 403, 'other official': 403, 'other viewer': 403 },
@@ -308,6 +315,11 @@ const rows: Row[] = [
   },
   { route: 'PATCH /api/members/:userId', expect: adminsOnly(200), call: async (f) => ({ params: { userId: await f.arrange.viewerAgain() }, body: { role: 'official' } }) },
   { route: 'POST /api/members/:userId/unlock', expect: adminsOnly(200), call: async (f) => ({ params: { userId: await f.arrange.locked() } }) },
+  {
+    route: 'POST /api/members/:userId/password',
+    expect: adminsOnly(200),
+    call: async (f, _c, ok) => ({ params: { userId: await pick(ok, f.fresh.member, f.members.roleChangeId) }, body: { password: 'a-new-long-password-1' } }),
+  },
   { route: 'DELETE /api/members/:userId', expect: adminsOnly(204), call: async (f, _c, ok) => ({ params: { userId: await pick(ok, f.fresh.member, f.members.roleChangeId) } }) },
   { route: 'GET /api/audit', expect: adminsOnly(200, 'own') },
   { route: 'GET /api/audit', variant: 'before an id past every entry', expect: adminsOnly(200, 'own'), call: () => ({ query: 'before=999999999' }) },
