@@ -1,7 +1,6 @@
-// Scenarios of a plan: list, read, create, change, delete; and a run of the plan under one.
+// Scenarios of a plan: list, read, create, change, delete (runs under a scenario start in api/runs.ts).
 import { z } from 'zod';
 import { scenarioListSchema, scenarioSchema, type ScenarioCreate, type ScenarioOverlay } from '@shared/api/scenarios';
-import { runSchema, type RunParameters } from '@shared/api/runs';
 import { request } from './http';
 
 const base = (planId: string) => `/plans/${planId}/scenarios`;
@@ -14,7 +13,3 @@ export const createScenario = (planId: string, input: ScenarioCreate) => request
 export const updateScenario = (planId: string, scenarioId: string, change: ScenarioChange) =>
   request('PATCH', `${base(planId)}/${scenarioId}`, scenarioSchema, change);
 export const deleteScenario = (planId: string, scenarioId: string) => request('DELETE', `${base(planId)}/${scenarioId}`, z.undefined());
-
-/** Queues a run of the plan with the scenario's overlay applied (null: the base plan). */
-export const startScenarioRun = (planId: string, parameters: RunParameters, scenarioId: string | null) =>
-  request('POST', `/plans/${planId}/runs`, runSchema, { parameters, scenarioId });

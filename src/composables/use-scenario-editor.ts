@@ -1,24 +1,25 @@
 // The scenario editor's state: the stored scenario, the overlay being edited (a plain copy; the
 // map and panels change it only through the pure edits in forms/scenario-overlay.ts), the plan's
-// zones, shelters and road-layer extent, saving, and a run under the scenario followed until it ends.
+// zones, shelters and road-layer extent, saving, and a run under the scenario (started, followed
+// and kept by the runs store).
 import { computed, ref, shallowRef } from 'vue';
 import type { Scenario, ScenarioOverlay } from '@shared/api/scenarios';
 import type { RoadLayer } from '@shared/api/road-layers';
 import type { Shelter, Zone } from '@shared/api/zones-shelters';
 import type { RunParameters, RunWithResult } from '@shared/api/runs';
-import { getScenario, startScenarioRun, updateScenario } from '@/api/scenarios';
 import { getRoadLayer } from '@/api/road-layers';
 import { listZones } from '@/api/zones';
 import { listShelters } from '@/api/shelters';
-import { getRun, listRuns } from '@/api/runs';
 import { ApiError } from '@/api/api-error';
 import { emptyOverlay, validateOverlay } from '@/forms/scenario-overlay';
 import type { FieldErrors } from '@/forms/zod-errors';
-import { runIsActive } from '@/format/run-result';
 import { messageOf } from '@/format/error-message';
-import { usePolling } from './use-polling';
+import { useRunsStore } from '@/stores/runs';
+import { useScenariosStore } from '@/stores/scenarios';
 
 export function useScenarioEditor(planId: () => string, scenarioId: () => string) {
+  const runs = useRunsStore();
+  const scenarios = useScenariosStore();
   const scenario = shallowRef<Scenario | null>(null);
   const name = ref('');
   const description = ref('');
@@ -30,7 +31,8 @@ export function useScenarioEditor(planId: () => string, scenarioId: () => string
   const saving = ref(false);
   const error = ref('');
   const overlayErrors = ref<FieldErrors>({});
-  const run = ref<RunWithResult | null>(null);
+  const runId = ref<string | null>(null);
+  const run = computed<RunWithResult | null>(() => (runId.value ? (runs.details[runId.value] ?? null) : null));
   const runError = ref('');
   const starting = ref(false);
 
@@ -38,13 +40,6 @@ export function useScenarioEditor(planId: () => string, scenarioId: () => string
     const s = scenario.value;
     return s !== null && (s.name !== name.value || s.description !== description.value || JSON.stringify(s.overlay) !== JSON.stringify(overlay.value));
   });
-
-  const poll = usePolling(async () => {
-    const r = run.value;
-    if (!r) return false;
-    run.value = await getRun(planId(), r.id);
-    return runIsActive(run.value.status);
-  }, 700);
 
   function take(s: Scenario) {
     scenario.value = s;
@@ -57,17 +52,15 @@ export function useScenarioEditor(planId: () => string, scenarioId: () => string
     loading.value = true;
     error.value = '';
     try {
-      const [s, z, sh, l, runs] = await Promise.all([getScenario(planId(), scenarioId()), listZones(planId()), listShelters(planId()), getRoadLayer(planId()), listRuns(planId())]);
+      runId.value = null;
+      const [s, z, sh, l] = await Promise.all([scenarios.get(planId(), scenarioId()), listZones(planId()), listShelters(planId()), getRoadLayer(planId()), runs.refresh(planId())]);
       take(s);
       zones.value = z;
       shelters.value = sh;
       layer.value = l;
       // The latest run of this scenario, finished or working, is shown again.
-      const latest = runs.find((r) => r.scenarioId === s.id);
-      if (latest) {
-        run.value = await getRun(planId(), latest.id);
-        if (runIsActive(run.value.status)) poll.start();
-      }
+      const latest = runs.runs.find((r) => r.scenarioId === s.id);
+      if (latest) runId.value = (await runs.fetchRun(planId(), latest.id)).id;
     } catch (e) {
       error.value = messageOf(e);
     } finally {
@@ -91,7 +84,7 @@ export function useScenarioEditor(planId: () => string, scenarioId: () => string
     overlayErrors.value = {};
     saving.value = true;
     try {
-      take(await updateScenario(planId(), scenarioId(), { name: name.value.trim(), description: description.value.trim(), overlay: checked.value }));
+      take(await scenarios.update(planId(), scenarioId(), { name: name.value.trim(), description: description.value.trim(), overlay: checked.value }));
       return true;
     } catch (e) {
       if (e instanceof ApiError && e.fields.length) overlayErrors.value = Object.fromEntries(e.fields.map((f) => [f.path.replace(/^overlay\./, ''), f.message]));
@@ -108,10 +101,7 @@ export function useScenarioEditor(planId: () => string, scenarioId: () => string
     if (dirty.value && !(await save())) return;
     starting.value = true;
     try {
-      const queued = await startScenarioRun(planId(), parameters, scenarioId());
-      run.value = { ...queued, result: null };
-      if (runIsActive(queued.status)) poll.start();
-      else run.value = await getRun(planId(), queued.id);
+      runId.value = (await runs.startRun(planId(), parameters, scenarioId())).id;
     } catch (e) {
       runError.value = messageOf(e);
     } finally {

@@ -1,11 +1,12 @@
 // The runs store: start with validated assumptions, poll every half second until the run ends,
 // keep polling through a dropped answer, say when the server has no run endpoints, and flag a
-// shown result once the data changes.
+// shown result once the data changes. One poll loop serves every run and sweep of the plan.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { createPinia, setActivePinia } from 'pinia';
 import type { Run, RunWithResult } from '../../shared/api/runs';
 import { ApiError } from '../../src/api/http';
 
+vi.mock('../../src/api/sweeps', () => ({ getSweep: vi.fn(), listSweeps: vi.fn(), startSweep: vi.fn() }));
 vi.mock('../../src/api/runs', () => ({
   startRun: vi.fn(),
   listRuns: vi.fn(),
@@ -14,14 +15,15 @@ vi.mock('../../src/api/runs', () => ({
   runExportUrl: vi.fn(),
 }));
 const runsApi = await import('../../src/api/runs');
+const sweepsApi = await import('../../src/api/sweeps');
 const { useRunsStore, pollIntervalMs } = await import('../../src/stores/runs');
 
 const planId = '00000000-0000-4000-8000-00000000000a';
 const runId = '00000000-0000-4000-8000-00000000000b';
 
-function run(status: Run['status'], progress = 0): RunWithResult {
+function run(status: Run['status'], progress = 0, id = runId): RunWithResult {
   return {
-    id: runId,
+    id,
     planId,
     scenarioId: null,
     status,
@@ -36,6 +38,11 @@ function run(status: Run['status'], progress = 0): RunWithResult {
     finishedAt: null,
     result: null,
   };
+}
+
+function withoutResult(r: RunWithResult): Run {
+  const { result: _result, ...rest } = r;
+  return rest;
 }
 
 beforeEach(() => {
@@ -67,7 +74,7 @@ describe('runs store', () => {
       .mockResolvedValueOnce(run('running', 0.8))
       .mockResolvedValueOnce({ ...run('succeeded', 1) });
     expect(await store.start()).toBe(true);
-    expect(runsApi.startRun).toHaveBeenCalledWith(planId, { horizonMinutes: 360, timeStepSeconds: 60, capacityFactor: 1, algorithm: 'auto' });
+    expect(runsApi.startRun).toHaveBeenCalledWith(planId, { horizonMinutes: 360, timeStepSeconds: 60, capacityFactor: 1, algorithm: 'auto' }, null);
     expect(store.active).toBe(true);
     await vi.advanceTimersByTimeAsync(pollIntervalMs);
     expect(store.current?.progress).toBe(0.3);
@@ -134,5 +141,63 @@ describe('runs store', () => {
     store.stopPolling();
     await vi.advanceTimersByTimeAsync(pollIntervalMs * 5);
     expect(runsApi.getRun).not.toHaveBeenCalled();
+  });
+
+  it('follows every run of the plan in one loop: one look per interval, not one per run', async () => {
+    const other = '00000000-0000-4000-8000-00000000000c';
+    const listed = '00000000-0000-4000-8000-00000000000d';
+    const listedRun = withoutResult(run('queued', 0, listed));
+    vi.mocked(runsApi.listRuns).mockResolvedValue([listedRun]);
+    const store = useRunsStore();
+    await store.refresh(planId);
+    vi.mocked(runsApi.startRun).mockResolvedValueOnce(run('queued')).mockResolvedValueOnce(run('queued', 0, other));
+    vi.mocked(runsApi.getRun).mockImplementation(async (_p, id) => run('running', 0.5, id));
+    await store.startRun(planId, { horizonMinutes: 360, timeStepSeconds: 60, capacityFactor: 1, algorithm: 'auto' });
+    await store.startRun(planId, { horizonMinutes: 360, timeStepSeconds: 60, capacityFactor: 1, algorithm: 'auto' }, 'scenario');
+    vi.mocked(runsApi.listRuns).mockClear();
+    await vi.advanceTimersByTimeAsync(pollIntervalMs);
+    // One look: both started runs read in full, and the list once for the run only listed.
+    expect(runsApi.getRun).toHaveBeenCalledTimes(2);
+    expect(runsApi.listRuns).toHaveBeenCalledTimes(1);
+    expect(store.details[other]?.progress).toBe(0.5);
+    expect(store.runs.map((r) => r.id).sort()).toEqual([listed, other, runId].sort());
+    // Everything ends: the loop stops by itself.
+    vi.mocked(runsApi.getRun).mockImplementation(async (_p, id) => run('succeeded', 1, id));
+    vi.mocked(runsApi.listRuns).mockResolvedValue([{ ...listedRun, status: 'succeeded', progress: 1 }]);
+    await vi.advanceTimersByTimeAsync(pollIntervalMs);
+    expect(store.anyActive).toBe(false);
+    const calls = vi.mocked(runsApi.getRun).mock.calls.length + vi.mocked(runsApi.listRuns).mock.calls.length;
+    await vi.advanceTimersByTimeAsync(pollIntervalMs * 5);
+    expect(vi.mocked(runsApi.getRun).mock.calls.length + vi.mocked(runsApi.listRuns).mock.calls.length).toBe(calls);
+  });
+
+  it('follows an open sweep in the same loop until all its runs end, and keeps a finished run it read', async () => {
+    const sweepId = '00000000-0000-4000-8000-0000000000e1';
+    const headline = null;
+    const sweep = (status: Run['status']) => ({
+      id: sweepId,
+      planId,
+      name: 'Participation sweep',
+      scenarioId: null,
+      parameter: 'participationRate' as const,
+      values: [0.5],
+      createdAt: '2026-12-01T00:00:00.000Z',
+      runs: [{ ...withoutResult(run(status, status === 'succeeded' ? 1 : 0.2)), sweepValue: 0.5, headline }],
+    });
+    vi.mocked(sweepsApi.getSweep).mockResolvedValueOnce(sweep('running') as never).mockResolvedValueOnce(sweep('succeeded') as never);
+    const store = useRunsStore();
+    await store.refresh(planId);
+    await store.followSweep(planId, sweepId);
+    expect(store.anyActive).toBe(true);
+    await vi.advanceTimersByTimeAsync(pollIntervalMs);
+    expect(store.sweeps[sweepId]?.runs[0]?.status).toBe('succeeded');
+    expect(store.runs[0]?.status).toBe('succeeded');
+    await vi.advanceTimersByTimeAsync(pollIntervalMs * 4);
+    expect(sweepsApi.getSweep).toHaveBeenCalledTimes(2);
+    // A finished run read once is kept: reading it again asks the server nothing.
+    vi.mocked(runsApi.getRun).mockResolvedValue(run('succeeded', 1));
+    await store.fetchRun(planId, runId);
+    await store.fetchRun(planId, runId);
+    expect(runsApi.getRun).toHaveBeenCalledTimes(1);
   });
 });
