@@ -8,9 +8,11 @@ import '@fontsource/roboto/700.css';
 import '../styles/app.css';
 import { vuetify } from './vuetify';
 import { router } from '../router';
+import { registerCharts } from './chart';
 
 export function registerPlugins(app: App) {
   app.use(createPinia());
   app.use(vuetify);
   app.use(router);
+  registerCharts();
 }
