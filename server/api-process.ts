@@ -8,16 +8,18 @@ import { demoAccounts } from './seed/demo-accounts';
 import { demoWanted } from './seed/seed-command';
 import { organizations } from './db/schema';
 import { startRunQueue } from './queue/run-queue';
+import { startProposalQueue } from './queue/proposal-queue';
 import { startDevOutbox } from './services/briefings/outbox';
 import { closeImportWorkers } from './import/gis/import-in-worker';
 
 export async function startApiProcess(config: Config): Promise<void> {
   const { db, pool } = createDatabase(config.DATABASE_URL);
   const runQueue = await startRunQueue(config);
+  const proposalQueue = await startProposalQueue(runQueue.boss, config);
   // Development outbox: briefing e-mail goes to a loopback SMTP server that keeps it (admins read it on /outbox).
   const outbox = await startDevOutbox(db, config);
   let stopping = false;
-  const app = createApp({ config: outbox ? { ...config, SMTP_URL: outbox.url } : config, db, pool, runQueue, importQueue: runQueue, isStopping: () => stopping });
+  const app = createApp({ config: outbox ? { ...config, SMTP_URL: outbox.url } : config, db, pool, runQueue, importQueue: runQueue, proposalQueue, isStopping: () => stopping });
 
   // A fresh production installation has no organization and no demo: say how to make the first.
   const noOrganization = config.NODE_ENV === 'production' && (await db.select({ id: organizations.id }).from(organizations).limit(1)).length === 0;

@@ -38,6 +38,8 @@ import { pinoHttp } from 'pino-http';
 import { createLogger } from './logger';
 import { scenariosRouter } from './routes/scenarios';
 import { sweepsRouter } from './routes/sweeps';
+import { proposalsRouter } from './routes/proposals';
+import type { ProposalEnqueuer } from './queue/proposal-queue';
 import { briefingsRouter } from './routes/briefings';
 
 export type AppDeps = {
@@ -51,6 +53,8 @@ export type AppDeps = {
   runQueue: RunEnqueuer;
   // Where uploaded files are queued for import (the same pg-boss; workers take them too).
   importQueue?: ImportEnqueuer;
+  // Where searches for the best change are queued (server/queue/proposal-queue.ts); the run workers take them.
+  proposalQueue?: ProposalEnqueuer;
   // True once the process is shutting down: /readyz then answers 503.
   isStopping?: () => boolean;
   // Where the JSON log lines go (standard output unless given).
@@ -63,9 +67,15 @@ const noImportQueue: ImportEnqueuer = {
   },
 };
 
+const noProposalQueue: ProposalEnqueuer = {
+  enqueue: async () => {
+    throw new Error('this process has no proposal queue');
+  },
+};
+
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url));
 
-export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, importQueue = noImportQueue, isStopping, logDestination }: AppDeps) {
+export function createApp({ config, db, pool, log: givenLog, clientDir = defaultClientDir, runQueue, importQueue = noImportQueue, proposalQueue = noProposalQueue, isStopping, logDestination }: AppDeps) {
   const logger = createLogger(config, logDestination);
   const log = givenLog ?? ((err: unknown) => logger.error({ err }, 'unhandled error'));
   const app = express();
@@ -135,6 +145,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
   app.use('/api/plans/:planId', importsRouter(db, config, importQueue));
+  app.use('/api/plans/:planId', proposalsRouter(db, config, proposalQueue));
   app.use('/api/plans/:planId', sweepsRouter(db, config, runQueue));
   app.use('/api/plans/:planId', mapTilesRouter(db, answers));
   app.use('/api/members', membersRouter(db, config));

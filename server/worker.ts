@@ -7,6 +7,8 @@ import { startRunQueue } from './queue/run-queue';
 import { startRunReconciler } from './queue/run-reconciler';
 import { createImportExecutor } from './import-execution/import-executor';
 import { createRunExecutor } from './run-execution/run-executor';
+import { startProposalQueue } from './queue/proposal-queue';
+import { createProposalExecutor } from './optimization/proposal-executor';
 import { lowerProcessPriority } from './run-execution/lower-priority';
 
 const config = loadConfig();
@@ -28,6 +30,13 @@ await queue.workImports(1, async ({ importId }) => {
   console.log(`[worker] pid ${process.pid} finished import ${importId}`);
 });
 const reconciler = startRunReconciler(db, queue, config.RUN_RECONCILE_SECONDS, log);
+// Searches for the best change (proposals) share the worker and its budget.
+const proposalQueue = await startProposalQueue(queue.boss, config);
+const proposalExecutor = createProposalExecutor(db, config, log);
+await proposalQueue.work(config.WORKER_CONCURRENCY, async ({ proposalId }) => {
+  console.log(`[worker] pid ${process.pid} took proposal ${proposalId}`);
+  await proposalExecutor.execute(proposalId);
+});
 console.log(`[worker] ${hostname()} pid ${process.pid}: taking runs from the queue (${config.WORKER_CONCURRENCY} at a time)`);
 
 let stopping = false;
@@ -41,9 +50,14 @@ async function shutdown(signal: string) {
   console.log(`[worker] pid ${process.pid} ${signal}: taking no new runs; ${executor.activeCount()} in hand, waiting up to ${grace} s`);
   reconciler.stop();
   await queue.stopTaking();
+  await proposalQueue.stopTaking();
   if (!(await executor.drain(grace * 1000))) {
     for (const runId of executor.interruptAll()) console.log(`[worker] pid ${process.pid} returned run ${runId} to the queue`);
     await executor.drain(10_000);
+  }
+  if (!(await proposalExecutor.drain(1000))) {
+    for (const id of proposalExecutor.interruptAll()) console.log(`[worker] pid ${process.pid} returned proposal ${id} to the queue`);
+    await proposalExecutor.drain(10_000);
   }
   await queue.stop();
   await pool.end();

@@ -31,6 +31,7 @@ export const listCaps = {
   scenarios: 200,
   runs: 200,
   sweeps: 100,
+  proposals: 100,
   members: 500,
   briefings: 200,
   officials: 500,

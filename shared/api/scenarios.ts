@@ -40,6 +40,15 @@ export const scenarioDepartureDelaySchema = z.object({
   delayMinutes: minutes,
 });
 
+// A departure schedule per zone (e.g. the quickest order a proposal found): vehicles leaving in
+// each interval of stepMinutes from the order. Applied as the zone's cumulative share, so it
+// still fits when the zone's size or the run's time step differs.
+export const scenarioDepartureScheduleSchema = z.object({
+  zoneId: z.number().int().positive(),
+  stepMinutes: z.number().min(1 / 6).max(60),
+  departuresByStep: z.array(z.number().int().min(0)).min(1).max(5000),
+});
+
 export const scenarioOverlaySchema = z.object({
   closures: z.array(scenarioClosureSchema).max(5000).default([]),
   laneChanges: z.array(scenarioLaneChangeSchema).max(5000).default([]),
@@ -48,6 +57,7 @@ export const scenarioOverlaySchema = z.object({
   removedShelterIds: z.array(z.number().int().positive()).max(1000).default([]),
   addedShelters: z.array(shelterCreateSchema).max(200).default([]),
   departureDelays: z.array(scenarioDepartureDelaySchema).max(1000).default([]),
+  departureSchedules: z.array(scenarioDepartureScheduleSchema).max(1000).default([]),
 });
 export type ScenarioOverlay = z.infer<typeof scenarioOverlaySchema>;
 

@@ -70,4 +70,31 @@ export function applyScenarioToProblem(built: BuiltEvacuationProblem, overlay: S
     const shares = zone.releaseFractionByStep ?? [1];
     zone.releaseFractionByStep = [...new Array<number>(steps).fill(0), ...shares].slice(0, problem.horizonSteps + 1);
   }
+  for (const schedule of overlay.departureSchedules ?? []) {
+    const zone = problem.zones.find((z) => z.id === String(schedule.zoneId));
+    if (!zone) throw new ModelInputError(`a departure schedule names zone ${schedule.zoneId}, which is not in the plan`);
+    delete zone.releaseVehiclesByStep;
+    zone.releaseFractionByStep = scheduleShares(schedule.departuresByStep, schedule.stepMinutes * 60, problem.timeStepSeconds, problem.horizonSteps);
+  }
+}
+
+/**
+ * Cumulative share departed by the end of each step θ = 0..horizon of a schedule given per
+ * interval of `scheduleStepSeconds`: a departure counted in interval i leaves in the run's step
+ * that contains the start of that interval, so equal steps reproduce the schedule exactly.
+ */
+export function scheduleShares(departuresByStep: readonly number[], scheduleStepSeconds: number, timeStepSeconds: number, horizon: number): number[] {
+  const total = departuresByStep.reduce((sum, n) => sum + n, 0);
+  const byStep = new Array<number>(horizon + 1).fill(0);
+  departuresByStep.forEach((n, i) => {
+    const step = Math.min(horizon, Math.floor((i * scheduleStepSeconds) / timeStepSeconds + 1e-9));
+    byStep[step]! += n;
+  });
+  const shares: number[] = [];
+  let cumulative = 0;
+  for (const n of byStep) {
+    cumulative += n;
+    shares.push(total > 0 ? cumulative / total : 1);
+  }
+  return shares;
 }

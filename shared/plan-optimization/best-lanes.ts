@@ -28,8 +28,8 @@ import type { LinearProgram, LinearSolver } from './linear-program';
 import { checkAbort, type OptimisationHooks } from './problem-tools';
 
 /** The documented size up to which the exact MIP is tried. */
-export const MIP_MAX_ARCS = 4_000;
-export const MIP_MAX_CANDIDATES = 400;
+export const MIP_MAX_ARCS = 10_000;
+export const MIP_MAX_CANDIDATES = 5_000;
 export const MIP_TIME_LIMIT_SECONDS = 20;
 /** Largest network whose LP relaxation is solved for the bound. */
 export const LP_MAX_ARCS = 60_000;

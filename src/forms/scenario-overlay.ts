@@ -107,6 +107,7 @@ export function overlaySummary(overlay: ScenarioOverlay): string {
     overlay.removedShelterIds.length ? plural(overlay.removedShelterIds.length, 'shelter taken out', 'shelters taken out') : '',
     overlay.addedShelters.length ? plural(overlay.addedShelters.length, 'shelter added', 'shelters added') : '',
     overlay.departureDelays.length ? plural(overlay.departureDelays.length, 'zone delayed', 'zones delayed') : '',
+    overlay.departureSchedules.length ? plural(overlay.departureSchedules.length, 'zone on a departure schedule', 'zones on a departure schedule') : '',
   ].filter(Boolean);
   return parts.length ? parts.join(', ') : 'No changes to the base plan yet';
 }

@@ -232,6 +232,45 @@ const rows: Row[] = [
     call: (f) => ({ params: { planId: f.far.planId }, body: { parameters: f.parameters, scenarioId: f.plan.scenarioId } }),
   },
   { route: 'GET /api/plans/:planId/runs', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
+  // Searches for the best change (proposals)
+  { route: 'POST /api/plans/:planId/proposals', expect: writers(202), call: (f) => ({ params: { planId: f.plan.id }, body: { kind: 'zone-routes', parameters: f.parameters } }) },
+  {
+    route: 'POST /api/plans/:planId/proposals',
+    variant: 'under the demo scenario, in the caller’s own plan',
+    expect: otherOrganizationOnly(writers(202)),
+    call: (f) => ({ params: { planId: f.far.planId }, body: { kind: 'zone-routes', parameters: f.parameters, scenarioId: f.plan.scenarioId } }),
+  },
+  { route: 'GET /api/plans/:planId/proposals', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
+  { route: 'GET /api/plans/:planId/proposals/:proposalId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, proposalId: f.plan.proposalId } }) },
+  {
+    route: 'GET /api/plans/:planId/proposals/:proposalId',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(readers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, proposalId: f.plan.proposalId } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/proposals/:proposalId/cancel',
+    expect: writers(200),
+    call: async (f, _c, ok) => ({ params: { planId: f.plan.id, proposalId: await pick(ok, f.fresh.queuedProposal, f.plan.queuedProposalId) } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/proposals/:proposalId/cancel',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(writers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, proposalId: f.plan.queuedProposalId } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/proposals/:proposalId/scenario',
+    expect: writers(201),
+    call: (f, c) => ({ params: { planId: f.plan.id, proposalId: f.plan.proposalId }, body: { name: named(f, c, 'Quickest order') } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/proposals/:proposalId/scenario',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(writers(201)),
+    call: (f, c) => ({ params: { planId: f.far.planId, proposalId: f.plan.proposalId }, body: { name: named(f, c, 'Quickest order') } }),
+  },
+
   { route: 'GET /api/plans/:planId/runs/:runId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId } }) },
   { route: 'GET /api/plans/:planId/runs/:runId', variant: throughOwnPlan, expect: otherOrganizationOnly(readers(200)), call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.runId } }) },
   {

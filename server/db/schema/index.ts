@@ -8,3 +8,4 @@ export * from './settings';
 export * from './briefings';
 export * from './scenarios';
 export * from './imports';
+export * from './proposals';

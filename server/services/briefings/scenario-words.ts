@@ -22,5 +22,6 @@ export function scenarioChanges(o: ScenarioOverlay, names: ScenarioNames): strin
   if (o.removedShelterIds.length) out.push(`shelters left out: ${list(o.removedShelterIds.map(names.shelter))}`);
   if (o.addedShelters.length) out.push(`shelters added: ${list(o.addedShelters.map((s) => s.name))}`);
   if (o.departureDelays.length) out.push(`later departures: ${list(o.departureDelays.map((d) => `${names.zone(d.zoneId)} +${formatDuration(d.delayMinutes)}`))}`);
+  if (o.departureSchedules.length) out.push(`departure schedules for ${list(o.departureSchedules.map((d) => names.zone(d.zoneId)))}`);
   return out;
 }

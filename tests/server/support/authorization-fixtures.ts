@@ -17,8 +17,8 @@ type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 
 export type Fixtures = {
   organizationId: string;
-  /** The seeded demo plan: roads, zones, shelters, a scenario, the finished run, the sweep, the briefings. */
-  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; sweepId: string; queuedImportId: string };
+  /** The seeded demo plan: roads, zones, shelters, a scenario, the finished run, the sweep, a finished search, the briefings. */
+  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; sweepId: string; queuedImportId: string; proposalId: string; queuedProposalId: string };
   /** A demo plan whose roads, zones, shelters, scenario and capacity table take the edits that succeed. */
   drill: { id: string; segmentIds: number[]; zoneId: number; shelterId: number; scenarioId: string };
   /** A demo plan kept for the deletions that are refused. */
@@ -39,6 +39,7 @@ export type Fixtures = {
     scenario(): Promise<string>;
     queuedRun(): Promise<string>;
     queuedImport(): Promise<string>;
+    queuedProposal(): Promise<string>;
     draft(): Promise<string>;
     awaitingSignOff(): Promise<string>;
     member(): Promise<string>;
@@ -179,6 +180,22 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
     return rows[0]!.id;
   };
 
+  // A search solved by the worker (the quickest departure order: its answer saves as a scenario),
+  // and one waiting for a worker that never takes it.
+  const proposalStarted = await api(planner, 'post', `/api/plans/${planId}/proposals`, { kind: 'release-order', parameters: drillParameters });
+  const proposal = await waitFor('the search', () => api(planner, 'get', `/api/plans/${planId}/proposals/${proposalStarted.id}`), (r) => !['queued', 'running'].includes(r.status));
+  expect(proposal.status, proposal.failureReason ?? '').toBe('succeeded');
+  remember(proposal.id);
+  const queuedProposal = async () => {
+    const { rows } = await ctx.pool.query<{ id: string }>(
+      `INSERT INTO proposals (plan_id, kind, status, phase, input, input_hash)
+       VALUES ($1, 'zone-routes', 'queued', 'queued', '{"request":{"kind":"zone-routes"}}'::jsonb, 'authorization-test-' || gen_random_uuid()) RETURNING id`,
+      [planId],
+    );
+    remember(rows[0]!.id);
+    return rows[0]!.id;
+  };
+
   // The drill plan: a small road layer, a zone, a shelter, a scenario.
   const newPlan = async (name: string) => {
     const p = await api(planner, 'post', '/api/plans', { name, description: 'Veltmoor drill copy' });
@@ -243,7 +260,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
 
   return {
     organizationId: ctx.demoOrganizationId,
-    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), sweepId: sweep.id, queuedImportId: await queuedImport() },
+    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), sweepId: sweep.id, queuedImportId: await queuedImport(), proposalId: proposal.id, queuedProposalId: await queuedProposal() },
     drill,
     keptPlanId,
     briefings,
@@ -261,6 +278,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
       scenario: drillScenario,
       queuedImport,
       queuedRun,
+      queuedProposal,
       draft,
       awaitingSignOff,
       member: () => member(),

@@ -12,6 +12,8 @@ import { startRunQueue } from '../../../server/queue/run-queue';
 import { createRunExecutor } from '../../../server/run-execution/run-executor';
 import type { RunEnqueuer } from '../../../server/queue/run-enqueuer';
 import { createImportExecutor } from '../../../server/import-execution/import-executor';
+import { startProposalQueue, type ProposalQueue } from '../../../server/queue/proposal-queue';
+import { createProposalExecutor } from '../../../server/optimization/proposal-executor';
 
 export const otherAccounts = [
   { role: 'admin' as Role, email: 'admin@other.example', displayName: 'Other Admin', password: 'other-admin-2026' },
@@ -52,13 +54,17 @@ export async function createTestContext(env: Record<string, string> = {}, option
   const errors: unknown[] = [];
   const log = (e: unknown) => errors.push(e);
   const queue = options.withRunWorker ? await startRunQueue(config) : null;
+  let proposalQueue: ProposalQueue | null = null;
   if (queue) {
     const executor = createRunExecutor(database.db, config, log, queue);
     await queue.work(1, (job) => executor.execute(job));
     const importer = createImportExecutor(database.db, config, log);
     await queue.workImports(1, ({ importId }) => importer.execute(importId));
+    proposalQueue = await startProposalQueue(queue.boss, config);
+    const proposalExecutor = createProposalExecutor(database.db, config, log);
+    await proposalQueue.work(1, ({ proposalId }) => proposalExecutor.execute(proposalId));
   }
-  const app = createApp({ config, db: database.db, pool: database.pool, log, clientDir: '/nonexistent', runQueue: queue ?? noQueue, ...(queue ? { importQueue: queue } : {}) });
+  const app = createApp({ config, db: database.db, pool: database.pool, log, clientDir: '/nonexistent', runQueue: queue ?? noQueue, ...(queue ? { importQueue: queue } : {}), proposalQueue: proposalQueue ?? undefined });
   return {
     ...database,
     drop: async () => {

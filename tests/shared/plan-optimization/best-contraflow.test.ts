@@ -70,7 +70,7 @@ describe('best contraflow, steady state', () => {
       }),
       { numRuns: 60 },
     );
-  });
+  }, 60_000);
 
   it('with at most k corridors stays within the brute-force best for k corridors and the pooled bound', () => {
     fc.assert(
@@ -90,7 +90,7 @@ describe('best contraflow, steady state', () => {
       }),
       { numRuns: 40 },
     );
-  });
+  }, 60_000);
 
   it('a two-lane road whose inbound lane is idle: reversing it doubles the throughput (worked by hand)', () => {
     // 0 → 1 one lane each way, 10 per step each; everyone leaves from 0 towards the exit at 1.
@@ -144,5 +144,5 @@ describe('best contraflow, time-expanded', () => {
       }),
       { numRuns: 25 },
     );
-  });
+  }, 60_000);
 });

@@ -65,7 +65,7 @@ describe('best k added lanes', () => {
       }),
       { numRuns: 40 },
     );
-  });
+  }, 60_000);
 
   it('two roads in series need a lane each: greedy stops, the MIP finds both (worked by hand)', () => {
     // Two parallel routes 0→1→3 and 0→2→3, each road 10/step, one lane; one lane on 0→1 alone gains nothing.

@@ -20,11 +20,12 @@ describe('closure ranking', () => {
     fc.assert(
       fc.property(randomPlan({ maxPairs: 4 }), fc.integer({ min: 0, max: 4 }), ({ problem }, closeStep) => {
         const closeAtSeconds = closeStep * STEP_SECONDS;
-        const ranking = rankClosures(problem, { closeAtSeconds, candidates: problem.roads.map((_, e) => e) });
+        const ranking = rankClosures(problem, { closeAtSeconds, candidates: problem.roads.map((_, e) => e), maxClearanceTests: 1000 });
         const base = solveEvacuation(problem, { steadyStateAtSeconds: closeAtSeconds });
         expect(ranking.baseVehPerHour).toBe(base.steadyState.throughputVehPerHour);
         expect(ranking.baseClearanceStep).toBe(base.curve.clearanceStep);
         for (const impact of ranking.impacts) {
+          expect(impact.clearanceTested).toBe(true);
           const closed = cloneProblem(problem);
           closed.roads[impact.road]!.closures = [{ fromSeconds: closeAtSeconds, untilSeconds: null }];
           const fresh = solveEvacuation(closed, { steadyStateAtSeconds: closeAtSeconds });
@@ -40,7 +41,7 @@ describe('closure ranking', () => {
       }),
       { numRuns: 50 },
     );
-  });
+  }, 60_000);
 
   it('by default tests the roads that carry flow, and a bridge that is the only way out ranks first (worked by hand)', () => {
     // 0 → 1 → 2 (exit), and a slower detour 0 → 3 → 2; road 1 → 2 is the bridge.

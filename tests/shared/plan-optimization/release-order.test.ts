@@ -48,7 +48,7 @@ describe('best release order', () => {
       }),
       { numRuns: 30 },
     );
-  });
+  }, 60_000);
 
   it('one source, one exit: agrees with Ford & Fulkerson temporally repeated flows', () => {
     const instance = fc.integer({ min: 2, max: 6 }).chain((n) =>
@@ -82,7 +82,7 @@ describe('best release order', () => {
       }),
       { numRuns: 40 },
     );
-  });
+  }, 60_000);
 
   it('moves waits at the entry node back home (worked by hand)', () => {
     // One road, 2 per step, 1 step: 10 vehicles free at step 0 depart 2 per step at steps 0..4.

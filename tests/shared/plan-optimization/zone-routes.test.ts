@@ -29,7 +29,7 @@ describe('zone routes', () => {
       }),
       { numRuns: 50 },
     );
-  });
+  }, 60_000);
 
   it('two zones, two shelters (worked by hand)', () => {
     // Zone A at 0 → shelter at 2 via 0→2; zone B at 1 → exit at 3 via 1→3; no link between them.

@@ -1,0 +1,12 @@
+// The self-contained input of one proposal: the run input it optimises (engine problem and the
+// labels back to segments, zones and shelters), the request, and the candidate segments the
+// request's limits (classes, drawn area, chosen set) came to when it was started.
+import type { ParsedProposalRequest } from '../../shared/api/proposals';
+import type { RunInput } from '../../shared/model/run-input';
+
+export type ProposalInput = {
+  run: RunInput;
+  request: ParsedProposalRequest;
+  /** Segment ids that may change (or be tested); null = no limit. */
+  candidateSegmentIds: number[] | null;
+};
