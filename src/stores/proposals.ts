@@ -1,0 +1,86 @@
+// Searches for the best change in the open plan: the one being looked at, polled while it works,
+// and saving its answer as a scenario, then running that scenario beside the current run to compare.
+import { defineStore } from 'pinia';
+import { computed, ref } from 'vue';
+import type { Proposal, ProposalRequest } from '@shared/api/proposals';
+import type { RunParameters } from '@shared/api/runs';
+import type { Scenario } from '@shared/api/scenarios';
+import * as api from '@/api/proposals';
+import { startScenarioRun } from '@/api/scenarios';
+import { messageOf } from '@/format/error-message';
+
+export const useProposalsStore = defineStore('proposals', () => {
+  const planId = ref('');
+  const current = ref<Proposal | null>(null);
+  const error = ref('');
+  const starting = ref(false);
+  const saved = ref<Scenario | null>(null);
+  let timer: ReturnType<typeof setTimeout> | null = null;
+
+  const active = computed(() => current.value !== null && (current.value.status === 'queued' || current.value.status === 'running'));
+
+  function stop() {
+    if (timer) clearTimeout(timer);
+    timer = null;
+  }
+
+  async function poll() {
+    stop();
+    const p = current.value;
+    if (!p) return;
+    try {
+      current.value = await api.getProposal(p.planId, p.id);
+    } catch (e) {
+      error.value = messageOf(e);
+    }
+    if (active.value) timer = setTimeout(() => void poll(), 500);
+  }
+
+  function open(id: string) {
+    stop();
+    planId.value = id;
+    current.value = null;
+    saved.value = null;
+    error.value = '';
+  }
+
+  async function start(body: ProposalRequest) {
+    starting.value = true;
+    error.value = '';
+    saved.value = null;
+    try {
+      current.value = await api.startProposal(planId.value, body);
+      if (active.value) timer = setTimeout(() => void poll(), 500);
+    } catch (e) {
+      error.value = messageOf(e);
+    } finally {
+      starting.value = false;
+    }
+  }
+
+  async function cancel() {
+    if (!current.value) return;
+    try {
+      current.value = await api.cancelProposal(planId.value, current.value.id);
+      stop();
+    } catch (e) {
+      error.value = messageOf(e);
+    }
+  }
+
+  /** Saves the answer as a scenario and starts a run of it; returns the new run's id. */
+  async function saveAndRun(name: string, parameters: RunParameters, segmentId?: number): Promise<string | null> {
+    if (!current.value) return null;
+    error.value = '';
+    try {
+      saved.value = await api.saveProposal(planId.value, current.value.id, name, segmentId);
+      const run = await startScenarioRun(planId.value, parameters, saved.value.id);
+      return run.id;
+    } catch (e) {
+      error.value = messageOf(e);
+      return null;
+    }
+  }
+
+  return { planId, current, error, starting, saved, active, open, start, cancel, saveAndRun, stop };
+});

@@ -1,0 +1,42 @@
+// Times each search on the demo town and on a county-sized invented city (tests/bench/flow's
+// road-like city generator). Figures go into README.md beside this file; never run in tests.
+//   npx tsx tests/bench/optimization/run.ts [demo|county|all]
+import { antiparallelPairs, bestContraflow, bestLaneImprovements, bestReleaseOrder, rankClosures, zoneRoutes } from '../../../shared/plan-optimization';
+import type { EvacuationProblem } from '../../../shared/flow';
+import { loadGlpkSolver } from '../../../server/optimization/glpk-solver';
+import { generateCity } from '../flow/road-like-city';
+import { demoProblem } from './demo-problem';
+
+const which = process.argv[2] ?? 'all';
+const solver = await loadGlpkSolver();
+
+function time<T>(label: string, fn: () => T, describe: (r: T) => string): T {
+  const started = performance.now();
+  const r = fn();
+  console.log(`${label.padEnd(46)} ${((performance.now() - started) / 1000).toFixed(1).padStart(7)} s  ${describe(r)}`);
+  return r;
+}
+
+function all(name: string, problem: EvacuationProblem, county: boolean) {
+  console.log(`\n${name}: ${problem.nodeCount} junctions, ${problem.roads.length} roads, ${problem.zones.length} zones, Δ = ${problem.timeStepSeconds} s, T = ${problem.horizonSteps}`);
+  const pairs = antiparallelPairs(problem);
+  time('best contraflow, steady state', () => bestContraflow(problem, pairs, { timeExpanded: false }), (r) => `${r.steady.baseVehPerHour} → ${r.steady.achievedVehPerHour} veh/h (${r.steady.method}, ${r.steady.corridors.length} corridors of ${pairs.length} pairs)`);
+  time('best contraflow, steady, at most 3 corridors', () => bestContraflow(problem, pairs, { timeExpanded: false, maxCorridors: 3 }), (r) => `${r.steady.achievedVehPerHour} of bound ${r.steady.boundVehPerHour} veh/h (${r.steady.method})`);
+  if (!county) time('best contraflow, with time-expanded bound', () => bestContraflow(problem, pairs), (r) => `clearance ${r.timeExpanded!.base.clearanceStep} → ${r.timeExpanded!.chosen.clearanceStep} steps, bound ${r.timeExpanded!.bound.clearanceStep}`);
+  time('200 closures, steady state only', () => rankClosures(problem, { clearance: false, maxCandidates: 200 }), (r) => `${r.impacts.length} roads, worst −${r.impacts.map((i) => i.lossVehPerHour).sort((a, b) => b - a)[0]} veh/h`);
+  time('200 closures, clearance for the worst 20', () => rankClosures(problem, { maxCandidates: 200 }), (r) => `${r.impacts.length} roads, ${r.impacts.filter((i) => i.clearanceTested).length} with clearance`);
+  time('best 2 added lanes', () => bestLaneImprovements(problem, { budget: 2, maxLanesPerRoad: 1 }, solver), (r) => `${r.baseVehPerHour} → ${r.achievedVehPerHour} veh/h (${r.method}, bound ${r.boundVehPerHour})`);
+  time('quickest release order', () => bestReleaseOrder(problem), (r) => `clearance ${r.quickestClearanceStep} steps vs ${r.expectedClearanceStep} expected`);
+  time('zone routes', () => zoneRoutes(problem), (r) => `${r.zones.length} zones`);
+}
+
+if (which === 'demo' || which === 'all') {
+  all('Demo town (product defaults Δ = 60 s, 6 h)', demoProblem(60, 360), false);
+}
+if (which === 'county' || which === 'all') {
+  const county = generateCity({
+    width: 250, height: 250, seed: 7, blockMeters: 120, arterialEvery: 8, bridges: 5, zoneBlocks: 10, zoneShare: 0.3,
+    vehiclesPerNode: 4, shelters: 12, timeStepSeconds: 60, horizonSteps: 120,
+  });
+  all('County-sized city (250 × 250 junctions)', county, true);
+}
