@@ -1,7 +1,7 @@
 // /api/plans/:planId/proposals: start a search for the best change (202, computed by a worker),
 // list, poll, cancel, and save the answer as a scenario.
 import { Router } from 'express';
-import { planParamsSchema } from '../../shared/api/road-layers';
+import { planParamsSchema } from '../../shared/api/plans';
 import { proposalParamsSchema, proposalRequestSchema, saveProposalSchema } from '../../shared/api/proposals';
 import { listCaps } from '../../shared/api/pagination';
 import type { Config } from '../config';
