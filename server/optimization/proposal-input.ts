@@ -9,4 +9,6 @@ export type ProposalInput = {
   request: ParsedProposalRequest;
   /** Segment ids that may change (or be tested); null = no limit. */
   candidateSegmentIds: number[] | null;
+  /** The hash a run of the same problem carries (runs.input_hash): the briefing of that run prints this search. */
+  runInputHash?: string;
 };

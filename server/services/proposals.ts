@@ -4,7 +4,7 @@ import { createHash } from 'node:crypto';
 import { and, count, desc, eq, getTableColumns, gt, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { proposals, roadSegments } from '../db/schema';
-import type { ParsedProposalRequest, Proposal } from '../../shared/api/proposals';
+import type { ParsedProposalRequest, Proposal, ProposalResult } from '../../shared/api/proposals';
 import type { ScenarioOverlay } from '../../shared/api/scenarios';
 import { limitPlusOne, type Page } from '../../shared/api/pagination';
 import { BadRequestError, ConflictError, HttpError, NotFoundError } from '../errors';
@@ -69,7 +69,7 @@ export async function startProposal(
   // Prepared when it is started (runs are now prepared by the worker; a search still reads its snapshot here).
   const prepared = buildRunInput(await loadPlanModel(db, actor.organizationId, planId), request.parameters, maxExpandedArcs, scenario);
   const candidateSegmentIds = await candidateSegments(db, prepared.layerId, request);
-  const input: ProposalInput = { run: prepared.input, request, candidateSegmentIds };
+  const input: ProposalInput = { run: prepared.input, request, candidateSegmentIds, runInputHash: prepared.inputHash };
   const inputHash = createHash('sha256')
     .update(JSON.stringify({ engine: ENGINE_VERSION, request, candidateSegmentIds, problem: prepared.input.problem }))
     .digest('hex');
@@ -193,4 +193,22 @@ export async function assertProposalQuota(db: Database, actor: Actor, perMinute:
   if (recent!.n + 1 > perMinute) {
     throw new HttpError(429, 'rate_limited', `You have started ${recent!.n} searches in the last minute; at most ${perMinute} a minute are allowed. Wait a minute and try again.`);
   }
+}
+
+/** The answers of finished searches on exactly the problem this run solved (same input hash), oldest first, one per kind (the latest). */
+export async function searchesOfRun(db: Database, planId: string, runInputHash: string | null): Promise<ProposalResult[]> {
+  if (!runInputHash) return [];
+  const rows = await db
+    .select({ kind: proposals.kind, result: proposals.result })
+    .from(proposals)
+    .where(and(eq(proposals.planId, planId), eq(proposals.status, 'succeeded'), sql`${proposals.input} ->> 'runInputHash' = ${runInputHash}`))
+    .orderBy(desc(proposals.createdAt));
+  const seen = new Set<string>();
+  const out: ProposalResult[] = [];
+  for (const r of rows) {
+    if (!r.result || seen.has(r.kind)) continue;
+    seen.add(r.kind);
+    out.push(r.result);
+  }
+  return out.reverse();
 }

@@ -15,6 +15,7 @@ import { arrivalLimitsTable, bottleneckTable, fixRanking, mapFigure } from './se
 import { STATUS_WORDS } from './sections/sign-off';
 import { titlePage } from './sections/title-page';
 import { shelterTable, zoneTable } from './sections/zones-and-shelters';
+import { searchesSection } from './sections/searches';
 
 /** Keys of the PDF information dictionary that identify a Cutline briefing. */
 export const INFO_KEYS = {
@@ -117,6 +118,7 @@ export function buildBriefingDocument(input: BriefingInput): TDocumentDefinition
       ...pageBreak([...mapFigure(input), ...bottleneckTable(input), ...arrivalLimitsTable(input), ...fixRanking(input)]),
       ...zoneTable(input),
       ...shelterTable(input),
+      ...pageBreak(searchesSection(input)),
       ...pageBreak(assumptionsSection(input)),
       ...pageBreak(cautionsSection()),
     ],

@@ -1,6 +1,7 @@
 // Everything a briefing prints, gathered by the caller (the briefing service) from the database.
 // The document builder reads nothing else: no clock, no database, no files.
 import type { Run, RunResult } from '../../../shared/api/runs';
+import type { ProposalResult } from '../../../shared/api/proposals';
 
 export type BriefingStatus = 'draft' | 'awaiting-sign-off' | 'signed' | 'returned';
 
@@ -88,4 +89,6 @@ export type BriefingInput = {
   /** IANA time zone for dates on the page; the organisation's. */
   timeZone: string;
   pageSize?: 'LETTER' | 'A4' | undefined;
+  /** Searches for the best change run on exactly this run's problem (one per kind), printed on a page of their own. */
+  searches?: ProposalResult[] | undefined;
 };

@@ -14,6 +14,7 @@ import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
 import { ConflictError, NotFoundError } from '../../errors';
 import { getCapacityTable } from '../capacity-table';
 import { toRun } from '../runs';
+import { searchesOfRun } from '../proposals';
 
 type RunRow = typeof runs.$inferSelect;
 import { departureCurvesDescription } from './departure-words';
@@ -91,6 +92,7 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
   const table = await getCapacityTable(db, organizationId, run.planId);
   const { segments, names } = await mapSegments(db, layer.id);
   const scenario = await scenarioOfRun(db, run);
+  const searches = await searchesOfRun(db, run.planId, run.inputHash);
   const changes = scenario
     ? scenarioChanges(scenario.overlay, {
         segment: (id) => names.get(id) ?? `segment ${id}`,
@@ -120,6 +122,7 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
     status: 'draft',
     run: toRun(run),
     result: run.result!,
+    ...(searches.length ? { searches } : {}),
     assumptions: {
       dataDescription:
         `road layer “${layer.name}” imported ${formatDate(layer.createdAt, o.timeZone)} from ${layer.sourceFileName} ` +
