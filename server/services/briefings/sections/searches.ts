@@ -3,7 +3,7 @@
 import type { Content, TableCell } from 'pdfmake/interfaces';
 import { proposalCaution, proposalKindTitles, type ProposalResult } from '../../../../shared/api/proposals';
 import type { BriefingInput } from '../briefing-input';
-import { formatCount, formatDuration } from '../format';
+import { formatCount, formatDuration } from '../../../../shared/format/numbers';
 import { dataTable, td, th } from './document-styles';
 
 const vph = (n: number) => `${formatCount(Math.round(n))} veh/h`;
