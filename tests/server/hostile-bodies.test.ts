@@ -11,6 +11,7 @@ import { z } from 'zod';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signInRequestSchema, switchOrganizationRequestSchema } from '../../shared/api/auth';
 import { sweepCreateSchema } from '../../shared/api/sweeps';
+import { proposalRequestSchema, saveProposalSchema } from '../../shared/api/proposals';
 import {
   briefingCreateSchema,
   briefingReturnSchema,
@@ -155,6 +156,22 @@ const rows: Record<string, Row> = {
     who: 'planner',
     path: (f) => `/api/plans/${f.planId}/sweeps`,
     body: { json: () => ({ name: 'Rain sweep', scenarioId: null, parameters: defaultRunParameters, sweep: { parameter: 'capacityFactor', values: [0.8, 1] } }), refuses: refusedBy(sweepCreateSchema) },
+  },
+  'POST /api/plans/:planId/proposals': {
+    who: 'planner',
+    path: (f) => `/api/plans/${f.planId}/proposals`,
+    body: { json: () => ({ kind: 'lanes', parameters: defaultRunParameters, budgetLanes: 2 }), refuses: refusedBy(proposalRequestSchema) },
+  },
+  // No search exists under this id: whatever the body, the answer is a readable 404.
+  'POST /api/plans/:planId/proposals/:proposalId/cancel': {
+    who: 'planner',
+    path: (f) => `/api/plans/${f.planId}/proposals/00000000-0000-4000-8000-000000000000/cancel`,
+    body: 'none',
+  },
+  'POST /api/plans/:planId/proposals/:proposalId/scenario': {
+    who: 'planner',
+    path: (f) => `/api/plans/${f.planId}/proposals/00000000-0000-4000-8000-000000000000/scenario`,
+    body: { json: () => ({ name: 'Searched change' }), refuses: refusedBy(saveProposalSchema) },
   },
   'POST /api/members': {
     who: 'admin',
