@@ -5,7 +5,7 @@
 import { and, desc, eq, inArray, isNotNull } from 'drizzle-orm';
 import type { Database, Tx } from '../db/client';
 import { sweeps, plans, runInputs, runs, scenarios } from '../db/schema';
-import type { Scenario } from '../../shared/api/scenarios';
+import { storedOverlay, type Scenario } from '../../shared/api/scenarios';
 import { HttpError } from '../errors';
 import { loadPlanModel, type PlanModel } from '../services/plan-model';
 import { buildRunInput } from './build-run-input';
@@ -57,7 +57,7 @@ export async function prepareRuns(db: Database, runIds: string[], options: Prepa
     if (first.scenarioId) {
       const [s] = await db.select().from(scenarios).where(and(eq(scenarios.id, first.scenarioId), eq(scenarios.planId, first.planId)));
       if (!s) throw new HttpError(404, 'not_found', 'The scenario was deleted before the analysis started.');
-      scenario = { ...s, createdAt: s.createdAt.toISOString(), updatedAt: s.updatedAt.toISOString() } as Scenario;
+      scenario = { ...s, overlay: storedOverlay(s.overlay), createdAt: s.createdAt.toISOString(), updatedAt: s.updatedAt.toISOString() } as Scenario;
     }
     if (first.sweepId) {
       const [b] = await db.select({ parameter: sweeps.parameter }).from(sweeps).where(eq(sweeps.id, first.sweepId));

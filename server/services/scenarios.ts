@@ -3,7 +3,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { scenarios } from '../db/schema';
 import type { Scenario } from '../../shared/api/scenarios';
-import { scenarioCreateSchema, scenarioUpdateSchema } from '../../shared/api/scenarios';
+import { scenarioCreateSchema, scenarioUpdateSchema, storedOverlay } from '../../shared/api/scenarios';
 import type { z } from 'zod';
 import { NotFoundError } from '../errors';
 import { recordAudit, type Actor } from './audit';
@@ -12,7 +12,7 @@ import { limitPlusOne, type Page } from '../../shared/api/pagination';
 
 type Row = typeof scenarios.$inferSelect;
 function toScenario(r: Row): Scenario {
-  return { id: r.id, planId: r.planId, name: r.name, description: r.description, overlay: r.overlay, createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString() };
+  return { id: r.id, planId: r.planId, name: r.name, description: r.description, overlay: storedOverlay(r.overlay), createdAt: r.createdAt.toISOString(), updatedAt: r.updatedAt.toISOString() };
 }
 
 export async function listScenarios(db: Database, organizationId: string, planId: string, page: Page): Promise<Scenario[]> {

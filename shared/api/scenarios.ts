@@ -60,6 +60,8 @@ export const scenarioOverlaySchema = z.object({
   departureSchedules: z.array(scenarioDepartureScheduleSchema).max(1000).default([]),
 });
 export type ScenarioOverlay = z.infer<typeof scenarioOverlaySchema>;
+/** An overlay as stored: rows written before a kind of change existed lack its list, so read them through the schema's defaults. */
+export const storedOverlay = (value: unknown): ScenarioOverlay => scenarioOverlaySchema.parse(value ?? {});
 
 export const scenarioCreateSchema = z.object({
   name: z.string().trim().min(1, 'Give the scenario a name.').max(120),

@@ -7,6 +7,7 @@ import type { Database, Tx } from '../../db/client';
 import { organizations, plans, roadLayers, runs, scenarios, shelters, users, zones } from '../../db/schema';
 import { roleLabels, type Role } from '../../../shared/api/roles';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
+import { storedOverlay } from '../../../shared/api/scenarios';
 import type { BriefingInput, LonLat, MapSegment, MapZone } from './briefing-input';
 import { formatCount, formatDate, formatDecimal, formatShare } from '../../../shared/format/numbers';
 import { ZONE_DEFAULTS } from '../../../shared/model/zone-defaults';
@@ -62,7 +63,7 @@ async function scenarioOfRun(db: Database | Tx, run: RunRow) {
   if (scenario.updatedAt > run.createdAt) {
     throw new ConflictError(`The scenario “${scenario.name}” changed after this analysis. Analyse it again and brief the new run.`);
   }
-  return scenario;
+  return { ...scenario, overlay: storedOverlay(scenario.overlay) };
 }
 
 /**
