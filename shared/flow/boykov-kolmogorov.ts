@@ -11,6 +11,7 @@
 
 import { raisedResidual } from './capacity';
 import { FlowAbortedError } from './errors';
+import type { ResidualUndoLog } from './residual-undo-log';
 import type { FlowNetwork } from './flow-network';
 import type { MaxFlowStats, SolveContext } from './solve-context';
 
@@ -48,6 +49,7 @@ export function createBoykovKolmogorov(
   source: number,
   sink: number,
   initialNodeLimit: number,
+  undoLog: ResidualUndoLog | null = null,
 ): BoykovKolmogorovSolver {
   const { firstOut, head, mate } = network;
   const n = network.nodeCount;
@@ -117,11 +119,13 @@ export function createBoykovKolmogorov(
       if (residual[a]! < bottleneck) bottleneck = residual[a]!;
       v = head[a]!;
     }
+    if (undoLog !== null) undoLog.note(bridge);
     residual[bridge]! -= bottleneck;
     residual[mate[bridge]!]! += bottleneck;
     for (let v = head[mate[bridge]!]!; v !== source; ) {
       const a = parent[v]!;
       const up = head[mate[a]!]!;
+      if (undoLog !== null) undoLog.note(a);
       residual[a]! -= bottleneck;
       residual[mate[a]!]! += bottleneck;
       if (residual[a] === 0) orphanFront(v);
@@ -130,6 +134,7 @@ export function createBoykovKolmogorov(
     for (let v = head[bridge]!; v !== sink; ) {
       const a = parent[v]!;
       const down = head[a]!;
+      if (undoLog !== null) undoLog.note(a);
       residual[a]! -= bottleneck;
       residual[mate[a]!]! += bottleneck;
       if (residual[a] === 0) orphanFront(v);
@@ -298,6 +303,7 @@ export function createBoykovKolmogorov(
       }
     },
     raiseCapacity(r: number, amount: number): void {
+      if (undoLog !== null) undoLog.note(r);
       residual[r] = raisedResidual(residual, mate, r, amount);
       const tail = head[mate[r]!]!;
       if (tree[tail] !== FREE) activate(tail);

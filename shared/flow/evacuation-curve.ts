@@ -10,6 +10,7 @@ import { netOutflow, type FlowState } from './flow-state';
 import { createIncrementalBfs } from './incremental-bfs';
 import { maximiseInPlace, type MaxFlowAlgorithm } from './max-flow';
 import { emptyStats, type MaxFlowStats } from './solve-context';
+import { ResidualUndoLog } from './residual-undo-log';
 import { nodeLimitAtHorizon, type TimeExpandedNetwork } from './time-expanded';
 
 export interface CurveMarks {
@@ -27,9 +28,15 @@ export interface CurveComputation {
   marks: CurveMarks;
   /** The last horizon solved (min(T, clearanceStep)); `state` holds its maximum flow. */
   finalHorizon: number;
-  /** The horizon whose minimum cut `cutResidual` holds (see bottleneckHorizonFor). */
+  /** The horizon whose minimum cut `takeCutResidual()` gives. */
   cutHorizon: number;
-  cutResidual: Int32Array;
+  /**
+   * The residual capacities of a maximum flow at `cutHorizon`, not to be modified. When that is
+   * the horizon before clearance (resumable solvers) they are rebuilt in `state` itself, which
+   * from then on holds that horizon's flow instead of the final one: read the final flow first.
+   * Otherwise the final state, or a copy taken at an explicit cut horizon.
+   */
+  takeCutResidual: () => Int32Array;
   stats: MaxFlowStats;
 }
 
@@ -53,7 +60,14 @@ export function curveMarks(deliveredByStep: readonly number[], demand: number): 
 
 /**
  * Solves horizons 0..T in turn on `state` (which ends holding the maximum flow of the final
- * horizon) and keeps a copy of the residual capacities at the cut horizon.
+ * horizon) and gives the residual capacities at the cut horizon on request.
+ *
+ * The resumable solvers (incremental BFS, Boykov–Kolmogorov) log each arc pair's residual before
+ * the horizon's first change to it (`ResidualUndoLog`), so the residual of the horizon before
+ * clearance is rebuilt in place when asked for, and the delivered count is the running sum of the flow
+ * each horizon adds: nothing is copied or rescanned per horizon beyond what the augmentations
+ * touch. The other algorithms restart their search over every node below the limit at each
+ * horizon anyway, so for them the residual prefix is copied after each horizon as before.
  */
 export function computeEvacuationCurve(
   expanded: TimeExpandedNetwork,
@@ -66,30 +80,35 @@ export function computeEvacuationCurve(
   const stats = emptyStats();
   const deliveredByStep: number[] = [];
   const explicitCut = options.cutHorizon;
-  // Residual capacities of the arcs of nodes below a horizon's limit are a prefix of the array;
-  // the rest still equals the capacities, so copying the prefix is a full snapshot.
-  const snapshot = network.capacity.slice();
+  const resumable = options.algorithm === 'incremental-bfs' || options.algorithm === 'boykov-kolmogorov';
+  const undoLog = resumable ? new ResidualUndoLog(network.mate, residual) : null;
+  const persistent =
+    options.algorithm === 'incremental-bfs'
+      ? createIncrementalBfs(network, residual, source, sink, nodeLimitAtHorizon(expanded, 0), undefined, undoLog)
+      : options.algorithm === 'boykov-kolmogorov'
+        ? createBoykovKolmogorov(network, residual, source, sink, nodeLimitAtHorizon(expanded, 0), undoLog)
+        : null;
+
+  // For the other algorithms: residual capacities of the arcs of nodes below a horizon's limit
+  // are a prefix of the array; the rest still equals the capacities, so the prefix is a snapshot.
+  let snapshot: Int32Array | null = null;
   let snapshotHorizon = -1;
   const takeSnapshot = (horizon: number): void => {
+    snapshot ??= network.capacity.slice();
     snapshot.set(residual.subarray(0, network.firstOut[nodeLimitAtHorizon(expanded, horizon)]!));
     snapshotHorizon = horizon;
   };
 
-  const persistent =
-    options.algorithm === 'incremental-bfs'
-      ? createIncrementalBfs(network, residual, source, sink, nodeLimitAtHorizon(expanded, 0))
-      : options.algorithm === 'boykov-kolmogorov'
-        ? createBoykovKolmogorov(network, residual, source, sink, nodeLimitAtHorizon(expanded, 0))
-        : null;
-
   let clearanceStep: number | null = null;
+  let delivered = 0;
   let horizon = 0;
   for (; horizon <= T; horizon++) {
     if (options.shouldAbort?.()) throw new FlowAbortedError('evacuation curve aborted by the caller');
     const nodeLimit = nodeLimitAtHorizon(expanded, horizon);
     if (persistent) {
+      undoLog!.startRound();
       if (horizon > 0) persistent.extendNodeLimit(nodeLimit);
-      persistent.maximise(stats, options.shouldAbort);
+      delivered += persistent.maximise(stats, options.shouldAbort);
     } else {
       const run = maximiseInPlace(network, source, sink, state, {
         algorithm: options.algorithm,
@@ -97,32 +116,45 @@ export function computeEvacuationCurve(
         shouldAbort: options.shouldAbort,
       });
       addStats(stats, run.stats);
+      delivered = netOutflow(network, state, source, nodeLimit);
     }
-    const delivered = netOutflow(network, state, source, nodeLimit);
     deliveredByStep.push(delivered);
     options.onHorizon?.(horizon);
     if (delivered >= demand) {
       clearanceStep = horizon;
       break;
     }
-    if (explicitCut === undefined || explicitCut === horizon) takeSnapshot(horizon);
+    if (explicitCut === horizon) {
+      snapshot = residual.slice();
+      snapshotHorizon = horizon;
+    } else if (!persistent && explicitCut === undefined) takeSnapshot(horizon);
   }
   const finalHorizon = Math.min(horizon, T);
   // Nothing more can arrive once everyone has: the rest of the curve is flat.
   while (deliveredByStep.length <= T) deliveredByStep.push(deliveredByStep[deliveredByStep.length - 1] ?? 0);
 
+  const beforeClearance = explicitCut === undefined && clearanceStep !== null && clearanceStep > 0;
   let cutHorizon: number;
-  let cutResidual: Int32Array;
+  let cut: () => Int32Array;
   if (explicitCut !== undefined && snapshotHorizon === explicitCut) {
     cutHorizon = explicitCut;
-    cutResidual = snapshot;
-  } else if (explicitCut === undefined && clearanceStep !== null && clearanceStep > 0 && snapshotHorizon === clearanceStep - 1) {
+    cut = () => snapshot!;
+  } else if (beforeClearance && persistent) {
+    // Undoing the clearing horizon's changes leaves the maximum flow of the horizon before it.
+    cutHorizon = clearanceStep! - 1;
+    let undone = false;
+    cut = () => {
+      if (!undone) undoLog!.undoInto(residual);
+      undone = true;
+      return residual;
+    };
+  } else if (beforeClearance && snapshotHorizon === clearanceStep! - 1) {
     cutHorizon = snapshotHorizon;
-    cutResidual = snapshot;
+    cut = () => snapshot!;
   } else {
     // Cleared at step 0, or an explicit cut horizon at or after clearance: the final flow's cut.
     cutHorizon = finalHorizon;
-    cutResidual = residual.slice();
+    cut = () => residual;
   }
   return {
     deliveredByStep,
@@ -130,7 +162,7 @@ export function computeEvacuationCurve(
     marks: curveMarks(deliveredByStep, demand),
     finalHorizon,
     cutHorizon,
-    cutResidual,
+    takeCutResidual: cut,
     stats,
   };
 }

@@ -16,6 +16,7 @@
 
 import { raisedResidual } from './capacity';
 import { FlowAbortedError } from './errors';
+import type { ResidualUndoLog } from './residual-undo-log';
 import type { FlowNetwork } from './flow-network';
 import type { MaxFlowStats, SolveContext } from './solve-context';
 
@@ -71,6 +72,7 @@ export function createIncrementalBfs(
   sink: number,
   initialNodeLimit: number,
   initialBuckets = 1 << 16,
+  undoLog: ResidualUndoLog | null = null,
 ): IncrementalSolver {
   const { firstOut, head, mate } = network;
   const n = network.nodeCount;
@@ -162,12 +164,14 @@ export function createIncrementalBfs(
       if (residual[a]! < bottleneck) bottleneck = residual[a]!;
       v = head[a]!;
     }
+    if (undoLog !== null) undoLog.note(bridge);
     residual[bridge]! -= bottleneck;
     residual[mate[bridge]!]! += bottleneck;
     let sourceOrphans = 0;
     for (let v = head[mate[bridge]!]!; v !== source; ) {
       const a = parent[v]!;
       const up = head[mate[a]!]!;
+      if (undoLog !== null) undoLog.note(a);
       residual[a]! -= bottleneck;
       residual[mate[a]!]! += bottleneck;
       if (residual[a] === 0) {
@@ -180,6 +184,7 @@ export function createIncrementalBfs(
     for (let v = head[bridge]!; v !== sink; ) {
       const a = parent[v]!;
       const down = head[a]!;
+      if (undoLog !== null) undoLog.note(a);
       residual[a]! -= bottleneck;
       residual[mate[a]!]! += bottleneck;
       if (residual[a] === 0) addOrphan(v);
@@ -354,6 +359,7 @@ export function createIncrementalBfs(
       }
     },
     raiseCapacity(r: number, amount: number): void {
+      if (undoLog !== null) undoLog.note(r);
       residual[r] = raisedResidual(residual, mate, r, amount);
       const tail = head[mate[r]!]!;
       if (tree[tail] !== FREE) activate(tail);
