@@ -6,10 +6,11 @@ import type { Proposal, ProposalRequest } from '@shared/api/proposals';
 import type { RunParameters } from '@shared/api/runs';
 import type { Scenario } from '@shared/api/scenarios';
 import * as api from '@/api/proposals';
-import { startScenarioRun } from '@/api/scenarios';
+import { useRunsStore } from '@/stores/runs';
 import { messageOf } from '@/format/error-message';
 
 export const useProposalsStore = defineStore('proposals', () => {
+  const runs = useRunsStore();
   const planId = ref('');
   const current = ref<Proposal | null>(null);
   const error = ref('');
@@ -74,7 +75,8 @@ export const useProposalsStore = defineStore('proposals', () => {
     error.value = '';
     try {
       saved.value = await api.saveProposal(planId.value, current.value.id, name, segmentId);
-      const run = await startScenarioRun(planId.value, parameters, saved.value.id);
+      // Through the runs store, so its one poll loop follows the new run.
+      const run = await runs.startRun(planId.value, parameters, saved.value.id);
       return run.id;
     } catch (e) {
       error.value = messageOf(e);
