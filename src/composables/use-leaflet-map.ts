@@ -2,7 +2,7 @@
 // roads, results over them, choke points on top), one canvas renderer for the many road lines,
 // SVG for the few things that need DOM events. The map lives in a shallowRef and is marked raw:
 // Vue proxies break Leaflet's identity checks.
-import { markRaw, onBeforeUnmount, ref, shallowRef } from 'vue';
+import { markRaw, onBeforeUnmount, ref, shallowRef, watch } from 'vue';
 import { L } from '@/map/leaflet';
 import type { Bbox } from '@/map/viewport';
 
@@ -75,10 +75,21 @@ export function useLeafletMap() {
     );
   }
 
+  /** Fits the extent once the map exists, and again whenever the extent changes. */
+  function fitWhenReady(extent: () => Bbox | null | undefined) {
+    watch(
+      [handle, extent],
+      ([h, bbox]) => {
+        if (h && bbox) fitBbox(bbox);
+      },
+      { immediate: true },
+    );
+  }
+
   onBeforeUnmount(() => {
     // LMap removes the map itself; dropping the handle stops our watchers from touching it.
     handle.value = null;
   });
 
-  return { handle, zoom, attach, fitBbox };
+  return { handle, zoom, attach, fitBbox, fitWhenReady };
 }
