@@ -51,7 +51,12 @@ const configSchema = z.object({
   TILE_URL: z.string().default(''),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // Per-run budget: a larger problem is refused before it starts; a longer or hungrier solve is stopped.
-  RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(30_000_000),
+  // What one run's time-expanded network may take, in arcs and in bytes (estimated at
+  // shared/model/run-budget.ts's measured bytes per arc and node). The defaults hold on a 2-core,
+  // 24 GB machine shared with other work: 4 GB, about 70 million arcs. A larger run is refused
+  // with the shortest coarser step that fits.
+  RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(70_000_000),
+  RUN_MAX_EXPANDED_MEGABYTES: z.coerce.number().int().min(16).default(4096),
   RUN_TIME_BUDGET_SECONDS: z.coerce.number().positive().default(900),
   RUN_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(6144),
   // How often the queue looks for jobs of dead workers to retry.

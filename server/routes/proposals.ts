@@ -1,6 +1,7 @@
 // /api/plans/:planId/proposals: start a search for the best change (202, computed by a worker),
 // list, poll, cancel, and save the answer as a scenario.
 import { Router } from 'express';
+import { runBudget } from '../run-execution/run-budget';
 import { planParamsSchema } from '../../shared/api/plans';
 import { proposalParamsSchema, proposalRequestSchema, saveProposalSchema } from '../../shared/api/proposals';
 import { listCaps } from '../../shared/api/pagination';
@@ -22,7 +23,7 @@ export function proposalsRouter(db: Database, config: Config, queue: ProposalEnq
     // A search costs at least a run: the person's run limits apply, and searches have their own count.
     await assertRunQuota(db, actor, 1, config);
     await assertProposalQuota(db, actor, config.RUN_STARTS_PER_MINUTE);
-    const row = await startProposal(db, actor, planId, request, config.RUN_MAX_EXPANDED_ARCS);
+    const row = await startProposal(db, actor, planId, request, runBudget(config));
     if (row.status === 'queued') await queue.enqueue(row.id);
     res.status(202).json(toProposal(row));
   });

@@ -10,6 +10,7 @@ import { BadRequestError } from '../errors';
 import { attachAll, modelSegments, type PlanModel } from '../services/plan-model';
 import { horizonSteps } from '../services/runs';
 import { ENGINE_VERSION } from './engine-version';
+import { budgetRefusal, type RunBudget } from '../../shared/model/run-budget';
 import type { RunInput } from '../../shared/model/run-input';
 
 export type PreparedRun = { dataVersion: number; layerId: number; input: RunInput; inputHash: string };
@@ -33,7 +34,7 @@ function withScenarioShelters(model: PlanModel, scenario: Scenario): PlanModel {
 export function buildRunInput(
   loaded: PlanModel,
   parameters: RunParameters,
-  maxExpandedArcs: number,
+  budget: RunBudget,
   scenario: Scenario | null = null,
   // A sweep of participation sets every zone's rate.
   participationRate: number | null = null,
@@ -62,13 +63,8 @@ export function buildRunInput(
     if (e instanceof ModelInputError) throw new BadRequestError(`The plan's data cannot be analysed: ${e.message}.`);
     throw e;
   }
-  const expandedArcs = (built.problem.roads.length + built.problem.nodeCount) * (built.problem.horizonSteps + 1);
-  if (expandedArcs > maxExpandedArcs) {
-    throw new BadRequestError(
-      `This analysis would need about ${(expandedArcs / 1e6).toFixed(1)} million time-expanded arcs, more than this server's budget of ` +
-        `${(maxExpandedArcs / 1e6).toFixed(0)} million. Use a longer time step or a shorter horizon.`,
-    );
-  }
+  const refusal = budgetRefusal({ nodeCount: built.problem.nodeCount, roads: built.problem.roads.length }, parameters, budget);
+  if (refusal) throw new BadRequestError(refusal);
   const input: RunInput = {
     problem: built.problem,
     algorithm: parameters.algorithm,

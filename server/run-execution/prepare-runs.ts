@@ -3,6 +3,7 @@
 // for the solve. A sweep's runs share the one snapshot. Safe to repeat after a crash: a run that
 // already has its input, or is no longer queued or running, is left alone.
 import { and, desc, eq, inArray, isNotNull } from 'drizzle-orm';
+import type { RunBudget } from '../../shared/model/run-budget';
 import type { Database, Tx } from '../db/client';
 import { sweeps, plans, runInputs, runs, scenarios } from '../db/schema';
 import { storedOverlay, type Scenario } from '../../shared/api/scenarios';
@@ -15,7 +16,7 @@ type RunRow = typeof runs.$inferSelect;
 const inFlight = inArray(runs.status, ['queued', 'running']);
 
 export type PrepareOptions = {
-  maxExpandedArcs: number;
+  budget: RunBudget;
   /** A sweep's runs are queued for their solve as each is prepared, in the same transaction. */
   queueSolve?: (runId: string, tx: Tx) => Promise<void>;
   /** Called with each run's phase while it is prepared. */
@@ -82,7 +83,7 @@ async function prepareOne(db: Database, r: RunRow, model: PlanModel, scenario: S
   let built: ReturnType<typeof buildRunInput>;
   try {
     const participation = sweepParameter === 'participationRate' ? r.sweepValue : null;
-    built = buildRunInput(model, r.parameters, options.maxExpandedArcs, scenario, participation);
+    built = buildRunInput(model, r.parameters, options.budget, scenario, participation);
   } catch (e) {
     const reason = reasonOf(e);
     if (reason === null) throw e;

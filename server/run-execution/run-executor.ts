@@ -5,6 +5,7 @@
 // the same job after a crash: a run that already finished is left alone, so no result is stored
 // twice.
 import { and, asc, eq, inArray } from 'drizzle-orm';
+import { runBudget } from './run-budget';
 import type { Database } from '../db/client';
 import { runInputs, runs } from '../db/schema';
 import type { Config } from '../config';
@@ -18,7 +19,7 @@ const cancelPollMs = 1000;
 
 export function createRunExecutor(
   db: Database,
-  config: Pick<Config, 'RUN_TIME_BUDGET_SECONDS' | 'RUN_MEMORY_BUDGET_MEGABYTES' | 'RUN_MAX_EXPANDED_ARCS'>,
+  config: Pick<Config, 'RUN_TIME_BUDGET_SECONDS' | 'RUN_MEMORY_BUDGET_MEGABYTES' | 'RUN_MAX_EXPANDED_ARCS' | 'RUN_MAX_EXPANDED_MEGABYTES'>,
   log: (err: unknown) => void,
   // Where a sweep's prepared runs are queued for their solve.
   queue: RunEnqueuer,
@@ -46,7 +47,7 @@ export function createRunExecutor(
     let ready: string[];
     try {
       ready = await prepareRuns(db, [runId], {
-        maxExpandedArcs: config.RUN_MAX_EXPANDED_ARCS,
+        budget: runBudget(config),
         onPhase: async (id, phase) => void (await setState(id, { phase })),
       });
     } finally {
@@ -115,7 +116,7 @@ export function createRunExecutor(
       .orderBy(asc(runs.sweepValue));
     const ids = members.map((m) => m.id);
     await prepareRuns(db, ids, {
-      maxExpandedArcs: config.RUN_MAX_EXPANDED_ARCS,
+      budget: runBudget(config),
       onPhase: async (id, phase) => void (await setState(id, { phase })),
       queueSolve: (runId, tx) => queue.enqueue({ runId }, queueSqlOf(tx)),
     });

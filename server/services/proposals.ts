@@ -1,6 +1,7 @@
 // Proposals: start (the plan snapshot and engine problem as for a run, plus the candidate
 // segments the request's limits select), list, read, cancel, and save the answer as a scenario.
 import { createHash } from 'node:crypto';
+import type { RunBudget } from '../../shared/model/run-budget';
 import { and, count, desc, eq, getTableColumns, gt, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { proposals, roadSegments } from '../db/schema';
@@ -63,11 +64,11 @@ export async function startProposal(
   actor: Actor,
   planId: string,
   request: ParsedProposalRequest,
-  maxExpandedArcs: number,
+  budget: RunBudget,
 ): Promise<ProposalRow> {
   const scenario = request.scenarioId ? await getScenario(db, actor.organizationId, planId, request.scenarioId) : null;
   // Prepared when it is started (runs are now prepared by the worker; a search still reads its snapshot here).
-  const prepared = buildRunInput(await loadPlanModel(db, actor.organizationId, planId), request.parameters, maxExpandedArcs, scenario);
+  const prepared = buildRunInput(await loadPlanModel(db, actor.organizationId, planId), request.parameters, budget, scenario);
   const candidateSegmentIds = await candidateSegments(db, prepared.layerId, request);
   const input: ProposalInput = { run: prepared.input, request, candidateSegmentIds, runInputHash: prepared.inputHash };
   const inputHash = createHash('sha256')

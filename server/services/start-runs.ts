@@ -4,6 +4,8 @@
 // reuse of an identical result: server/run-execution/prepare-runs.ts) and solves it. What is checked here
 // is cheap and bounded (counts and indexed look-ups), so the request answers at once on a county.
 import { and, count, eq, inArray } from 'drizzle-orm';
+import { budgetRefusal, type RunBudget } from '../../shared/model/run-budget';
+import { runBudget } from '../run-execution/run-budget';
 import type { z } from 'zod';
 import type { Config } from '../config';
 import type { Database, Tx } from '../db/client';
@@ -16,7 +18,7 @@ import { queueSqlOf, type RunEnqueuer } from '../queue/run-enqueuer';
 import { recordAudit, type Actor } from './audit';
 import { assertRunQuota } from './run-quota';
 import { getScenario } from './scenarios';
-import { horizonSteps, toRun } from './runs';
+import { toRun } from './runs';
 
 export type RunStart = {
   parameters: RunParameters;
@@ -28,11 +30,11 @@ export type RunStart = {
 export type StartedRuns = { runs: Run[]; sweepId: string | null };
 
 /** Refusals a planner can act on, decided before anything is written. */
-async function checkRunnable(tx: Tx, organizationId: string, planId: string, parameters: RunParameters[], scenario: Scenario | null, maxExpandedArcs: number) {
+async function checkRunnable(tx: Tx, organizationId: string, planId: string, parameters: RunParameters[], scenario: Scenario | null, budget: RunBudget) {
   const [plan] = await tx.select({ dataVersion: plans.dataVersion }).from(plans).where(and(eq(plans.id, planId), eq(plans.organizationId, organizationId)));
   if (!plan) throw new NotFoundError('plan');
   const [layer] = await tx
-    .select({ id: roadLayers.id, nodeCount: roadLayers.nodeCount })
+    .select({ id: roadLayers.id, nodeCount: roadLayers.nodeCount, segmentCount: roadLayers.segmentCount })
     .from(roadLayers)
     .where(and(eq(roadLayers.planId, planId), eq(roadLayers.active, true)));
   if (!layer) throw new BadRequestError('This plan has no road layer yet: upload one first.');
@@ -43,16 +45,16 @@ async function checkRunnable(tx: Tx, organizationId: string, planId: string, par
   const removed = scenario?.overlay.removedShelterIds.length ?? 0;
   const added = scenario?.overlay.addedShelters.length ?? 0;
   if (shelterCount!.n - removed + added <= 0) throw new BadRequestError('Add at least one shelter or exit before running.');
-  // A lower bound of the time-expanded size (every node at every step; the roads come on top):
-  // what is surely too large is refused now; the worker checks the exact size when it builds.
+  // A lower bound of the time-expanded size (every junction and at least one direction of every
+  // segment at every step): what is surely too large is refused now, with a coarser step that
+  // fits; the worker checks the exact size when it builds the problem.
   for (const p of parameters) {
-    const atLeast = layer.nodeCount * (horizonSteps(p) + 1);
-    if (atLeast > maxExpandedArcs) {
-      throw new BadRequestError(
-        `This analysis would need more than ${(atLeast / 1e6).toFixed(1)} million time-expanded arcs, more than this server's budget of ` +
-          `${(maxExpandedArcs / 1e6).toFixed(0)} million. Use a longer time step or a shorter horizon.`,
-      );
-    }
+    // Offers are sized on at most two directions per segment, so the worker accepts them.
+    const refusal = budgetRefusal({ nodeCount: layer.nodeCount, roads: layer.segmentCount }, p, budget, 'more than', {
+      nodeCount: layer.nodeCount,
+      roads: 2 * layer.segmentCount,
+    });
+    if (refusal) throw new BadRequestError(refusal);
   }
   return { dataVersion: plan.dataVersion, layerId: layer.id };
 }
@@ -95,7 +97,7 @@ async function checkScenarioReferences(tx: Tx, planId: string, layerId: number, 
 export async function startRuns(
   db: Database,
   queue: RunEnqueuer,
-  config: Pick<Config, 'RUN_STARTS_PER_MINUTE' | 'RUNS_IN_FLIGHT_PER_ORGANIZATION' | 'RUN_MAX_EXPANDED_ARCS'>,
+  config: Pick<Config, 'RUN_STARTS_PER_MINUTE' | 'RUNS_IN_FLIGHT_PER_ORGANIZATION' | 'RUN_MAX_EXPANDED_ARCS' | 'RUN_MAX_EXPANDED_MEGABYTES'>,
   actor: Actor,
   planId: string,
   start: RunStart,
@@ -113,7 +115,7 @@ export async function startRuns(
       planId,
       each.map((e) => e.parameters),
       scenario,
-      config.RUN_MAX_EXPANDED_ARCS,
+      runBudget(config),
     );
     let sweepId: string | null = null;
     if (sweep) {

@@ -176,14 +176,32 @@ describe('refusals', () => {
     await start(defaultRunParameters, viewer).expect(403);
   });
 
-  it('a problem larger than the budget is refused before it is queued', async () => {
-    const small = await createTestContext({ RUN_MAX_EXPANDED_ARCS: '1000' });
+  it('a problem larger than the budget is refused before it is queued, with a coarser step that fits', async () => {
+    const small = await createTestContext({ RUN_MAX_EXPANDED_ARCS: '200000' }, { withRunWorker: true });
     try {
       const p = await signInAs(small.app, 'planner');
       const id = (await p.agent.get('/api/plans').expect(200)).body.plans[0].id;
       const res = await p.agent.post(`/api/plans/${id}/runs`).set('x-csrf-token', p.csrf).send({ parameters: defaultRunParameters }).expect(400);
-      expect(res.body.error.message).toMatch(/million time-expanded arcs/);
+      const message: string = res.body.error.message;
+      expect(message).toMatch(/would need more than [\d,]+ time-expanded arcs/);
       expect(await countRows(small, 'runs')).toBe(0);
+      // The offered step is accepted by the same budget.
+      const offered = /At a time step of (\d+) minutes it fits/.exec(message);
+      expect(offered, message).not.toBeNull();
+      expect(message).toContain(`stay within ${offered![1]} minutes of free flow (instead of 1 minute)`);
+      const accepted = await p.agent
+        .post(`/api/plans/${id}/runs`)
+        .set('x-csrf-token', p.csrf)
+        .send({ parameters: { ...defaultRunParameters, timeStepSeconds: Number(offered![1]) * 60 } })
+        .expect(202);
+      // …and by the worker's exact count.
+      const until = Date.now() + 60_000;
+      let run: RunWithResult;
+      do {
+        await new Promise((r) => setTimeout(r, 200));
+        run = runWithResultSchema.parse((await p.agent.get(`/api/plans/${id}/runs/${accepted.body.id}`).expect(200)).body);
+      } while (['queued', 'running'].includes(run.status) && Date.now() < until);
+      expect(run.status, run.failureReason ?? '').toBe('succeeded');
     } finally {
       await small.drop();
     }

@@ -1,0 +1,90 @@
+// What a run may cost, told before it starts: the time-expanded network's size in arcs and in
+// bytes against the server's budget, and when it does not fit, the shortest coarser time step
+// that does, with what that step changes. A coarser step keeps trips true to free flow within one
+// step (road steps are rounded against node time potentials, shared/flow/route-timing.ts), so
+// the cost of a coarser step is resolution, not a drift that grows with the route's length.
+
+/**
+ * Bytes per time-expanded arc for the whole solve: the network (28: head, mate and capacity of
+ * both residual arcs, the arc's residual index), what each arc stands for (5), the flow state (8),
+ * the curve's undo-log flags (2), plus the read-out's per-arc arrays and allocation slack,
+ * measured: the 5.09 M-arc bench network peaks at 354 MB for the whole analysis
+ * (tests/bench/flow/README.md), about 56 bytes per arc after Node's own 60–80 MB.
+ */
+export const BYTES_PER_EXPANDED_ARC = 56;
+/** Bytes per time-expanded node: CSR offsets (4) and the solver's per-node arrays (incremental BFS: 22, plus read-out). */
+export const BYTES_PER_EXPANDED_NODE = 40;
+
+/** Steps offered when a run does not fit, shortest first. */
+export const OFFERED_STEPS_SECONDS = [60, 90, 120, 180, 240, 300, 600, 900, 1800, 3600];
+
+export type ExpandedSize = { arcs: number; nodes: number; bytes: number };
+export type RunBudget = { maxExpandedArcs: number; maxBytes: number };
+
+export function horizonStepsOf(horizonMinutes: number, timeStepSeconds: number): number {
+  return Math.max(1, Math.round((horizonMinutes * 60) / timeStepSeconds));
+}
+
+/**
+ * The time-expanded size for `roads` directed roads on `nodeCount` junctions over T steps: a copy
+ * of every road and a waiting arc at every junction for each of the T + 1 steps (zone and shelter
+ * arcs, a few per zone and shelter and step, are left out; closed steps make it smaller).
+ */
+export function expandedSize(nodeCount: number, roads: number, horizonSteps: number): ExpandedSize {
+  const layers = horizonSteps + 1;
+  const arcs = (roads + nodeCount) * layers;
+  const nodes = nodeCount * layers;
+  return { arcs, nodes, bytes: arcs * BYTES_PER_EXPANDED_ARC + nodes * BYTES_PER_EXPANDED_NODE };
+}
+
+export function fits(size: ExpandedSize, budget: RunBudget): boolean {
+  return size.arcs <= budget.maxExpandedArcs && size.bytes <= budget.maxBytes;
+}
+
+/** 60 → "1 minute", 120 → "2 minutes", 90 → "90 seconds" (as shared/format/numbers formatStep, which the model may not import). */
+function formatStep(seconds: number): string {
+  if (seconds % 60 === 0) return seconds === 60 ? '1 minute' : `${seconds / 60} minutes`;
+  return `${seconds} seconds`;
+}
+
+const millions = (n: number): string => (n >= 1e6 ? `${(n / 1e6).toFixed(1)} million` : Math.round(n).toLocaleString('en-US'));
+const gigabytes = (bytes: number): string => (bytes >= 2 ** 30 ? `${(bytes / 2 ** 30).toFixed(1)} GB` : `${Math.ceil(bytes / 2 ** 20).toLocaleString('en-US')} MB`);
+
+/**
+ * Null when the run fits the budget; otherwise the refusal a planner can act on: the size, the
+ * budget, the shortest offered coarser step that fits with its size and effect, and the longest
+ * horizon that fits at the chosen step.
+ */
+export function budgetRefusal(
+  network: { nodeCount: number; roads: number },
+  parameters: { horizonMinutes: number; timeStepSeconds: number },
+  budget: RunBudget,
+  /** 'about' for an exact count, 'more than' for a lower bound. */
+  precision: 'about' | 'more than' = 'about',
+  /** An upper bound of the network, for the coarser step and shorter horizon offered, so that
+   *  what is offered on a lower bound is not refused when the exact size is known. */
+  offerFor: { nodeCount: number; roads: number } = network,
+): string | null {
+  const { nodeCount, roads } = network;
+  const { horizonMinutes, timeStepSeconds } = parameters;
+  const size = expandedSize(nodeCount, roads, horizonStepsOf(horizonMinutes, timeStepSeconds));
+  if (fits(size, budget)) return null;
+  const head =
+    `This analysis would need ${precision} ${millions(size.arcs)} time-expanded arcs and ${gigabytes(size.bytes)} of memory, ` +
+    `more than this server's budget of ${millions(budget.maxExpandedArcs)} arcs and ${gigabytes(budget.maxBytes)}.`;
+  const coarser = OFFERED_STEPS_SECONDS.filter((s) => s > timeStepSeconds)
+    .map((s) => ({ s, size: expandedSize(offerFor.nodeCount, offerFor.roads, horizonStepsOf(horizonMinutes, s)) }))
+    .find((c) => fits(c.size, budget));
+  const perLayer = expandedSize(offerFor.nodeCount, offerFor.roads, 0);
+  const layersThatFit = Math.min(Math.floor(budget.maxExpandedArcs / perLayer.arcs), Math.floor(budget.maxBytes / perLayer.bytes));
+  const horizonThatFits = Math.floor(((layersThatFit - 1) * timeStepSeconds) / 60);
+  const shorter =
+    horizonThatFits >= 10 ? ` Or keep the ${formatStep(timeStepSeconds)} step and shorten the horizon to at most ${horizonThatFits} minutes.` : '';
+  if (!coarser) return `${head} No time step up to one hour fits: use a smaller road layer or area.${shorter}`;
+  const step = formatStep(coarser.s);
+  return (
+    `${head} At a time step of ${step} it fits (at most ${millions(coarser.size.arcs)} arcs, ${gigabytes(coarser.size.bytes)}). ` +
+    `What that changes: travel times are counted in whole ${step} steps, so each zone's fastest trips stay within ${step} of free flow ` +
+    `(instead of ${formatStep(timeStepSeconds)}), and the curve, the clearance time and the 50/90/95 % times are read in ${step} steps.${shorter}`
+  );
+}
