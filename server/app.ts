@@ -13,6 +13,7 @@ import type { Config } from './config';
 import type { Database } from './db/client';
 import { configurePassport } from './auth/passport';
 import { createSessionStore } from './auth/session-store';
+import { csrfState } from './auth/csrf-state';
 import { configureAuthUserCache } from './services/auth-user-cache';
 import { errorHandler } from './middleware/error-handler';
 import { refuseNulText } from './middleware/refuse-nul-text';
@@ -20,7 +21,7 @@ import { apiNotFound } from './middleware/not-found';
 import { uploadLimits } from './middleware/upload-slots';
 import { createAnswerCache } from './http/answer-cache';
 import { mapTilesRouter } from './routes/map-tiles';
-import { authRouter } from './routes/auth';
+import { authRouter, sessionCookieName } from './routes/auth';
 import { plansRouter } from './routes/plans';
 import { membersRouter } from './routes/members';
 import { auditRouter } from './routes/audit';
@@ -112,7 +113,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
 
   app.use(
     session({
-      name: 'cutline.sid',
+      name: sessionCookieName,
       store: createSessionStore(pool, 60_000, config.AUTH_CACHE_MILLISECONDS),
       secret: config.SESSION_SECRET,
       resave: false,
@@ -126,10 +127,12 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use(passport.initialize());
   app.use(passport.session());
 
-  // Synchroniser-token CSRF protection: the token lives in the session and must come back in
-  // the x-csrf-token header of every state-changing request.
+  // CSRF protection: the token must come back in the x-csrf-token header of every
+  // state-changing request. It lives in the session once signed in, in a signed cookie before
+  // (server/auth/csrf-state.ts), so anonymous visits write no session rows.
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
     size: 32,
+    ...csrfState(config.SESSION_SECRET, config.COOKIE_SECURE),
     getTokenFromRequest: (req) => req.get('x-csrf-token'),
     errorConfig: { statusCode: 403, code: 'EBADCSRFTOKEN', message: 'Invalid CSRF token' },
   });

@@ -13,6 +13,8 @@ export function createLogger(config: Pick<Config, 'LOG_LEVEL' | 'NODE_ENV'>, des
         'req.headers["x-csrf-token"]',
         'res.headers["set-cookie"]',
         '*.password',
+        '*.currentPassword',
+        '*.newPassword',
         '*.passwordHash',
       ],
       censor: '[hidden]',

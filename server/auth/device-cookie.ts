@@ -6,6 +6,7 @@
 // grants nothing by itself: the password is still checked, and the rate limits still count.
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { CookieOptions, Request, Response } from 'express';
+import { cookieValue } from './cookies';
 
 export const DEVICE_COOKIE = 'cutline.device';
 const MAX_AGE_DAYS = 180;
@@ -20,24 +21,9 @@ export function setDeviceCookie(res: Response, userId: string, secret: string, s
   res.cookie(DEVICE_COOKIE, `${payload}.${signature(payload, secret)}`, options);
 }
 
-function cookieValue(req: Request, name: string): string | null {
-  const header = req.headers.cookie;
-  if (!header) return null;
-  for (const part of header.split(';')) {
-    const eq = part.indexOf('=');
-    if (eq > 0 && part.slice(0, eq).trim() === name) return decodeURIComponent(part.slice(eq + 1).trim());
-  }
-  return null;
-}
-
 /** True when the request carries a device cookie this server signed for this account, not too old. */
 export function deviceKnownFor(req: Request, userId: string, secret: string): boolean {
-  let value: string | null;
-  try {
-    value = cookieValue(req, DEVICE_COOKIE);
-  } catch {
-    return false;
-  }
+  const value = cookieValue(req, DEVICE_COOKIE);
   if (!value || value.length > 512) return false;
   const [payload, mac] = value.split('.');
   if (!payload || !mac) return false;

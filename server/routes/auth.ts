@@ -14,6 +14,8 @@ import { setDeviceCookie } from '../auth/device-cookie';
 import { ownPasswordChangeSchema } from '../../shared/api/users';
 import { changeOwnPassword } from '../services/account-passwords';
 
+export const sessionCookieName = 'cutline.sid';
+
 export type AuthRouterDeps = {
   db: Database;
   config: Config;
@@ -110,9 +112,12 @@ export function authRouter({ db, config, passport, csrfToken }: AuthRouterDeps):
   router.post('/sign-out', (req, res, next) => {
     req.logout((err) => {
       if (err) return next(err);
-      req.session.regenerate((regenerateError) => {
-        if (regenerateError) return next(regenerateError);
-        res.json(sessionBody(req, csrfToken(req, true)));
+      // Destroyed, not regenerated: a regenerated session is stored even when empty, and a
+      // signed-out browser needs none (its next CSRF token is cookie-held).
+      req.session.destroy((destroyError) => {
+        if (destroyError) return next(destroyError);
+        res.clearCookie(sessionCookieName, { path: '/' });
+        res.json({ user: null, csrfToken: csrfToken(req, true) } satisfies SessionResponse);
       });
     });
   });

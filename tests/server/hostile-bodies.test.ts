@@ -26,7 +26,7 @@ import { segmentBulkUpdateSchema } from '../../shared/api/road-layers';
 import { defaultRunParameters, runParametersSchema } from '../../shared/api/runs';
 import { scenarioCreateSchema, scenarioUpdateSchema } from '../../shared/api/scenarios';
 import { mapSettingsSchema } from '../../shared/api/settings';
-import { memberCreateSchema, memberUpdateSchema } from '../../shared/api/users';
+import { memberCreateSchema, memberPasswordSchema, memberUpdateSchema } from '../../shared/api/users';
 import { shelterCreateSchema, shelterUpdateSchema, zoneCreateSchema, zoneUpdateSchema } from '../../shared/api/zones-shelters';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';
 import { createTestContext, csrfFor, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
@@ -74,6 +74,12 @@ const rows: Record<string, Row> = {
     who: 'planner',
     path: () => '/api/auth/organization',
     body: { json: (f) => ({ organizationId: f.organizationId }), refuses: refusedBy(switchOrganizationRequestSchema) },
+  },
+  'POST /api/auth/password': {
+    who: 'planner',
+    path: () => '/api/auth/password',
+    // Never the planner's current password, so every body is refused and the password stays.
+    body: { json: () => ({ currentPassword: 'not-the-current-one-1', newPassword: 'a-new-long-password-1' }), refuses: () => true },
   },
   'POST /api/plans': { who: 'planner', path: () => '/api/plans', body: { json: () => ({ name: 'Hostile plan', description: 'made by a test' }), refuses: refusedBy(planCreateSchema) } },
   'PATCH /api/plans/:id': { who: 'planner', path: (f) => `/api/plans/${f.planId}`, body: { json: () => ({ name: 'Renamed', description: 'edited' }), refuses: refusedBy(planUpdateSchema) } },
@@ -179,6 +185,11 @@ const rows: Record<string, Row> = {
     body: { json: () => ({ email: 'new.member@cutline.example', displayName: 'New Member', role: 'viewer', password: 'long-enough-pass-1' }), refuses: refusedBy(memberCreateSchema) },
   },
   'PATCH /api/members/:userId': { who: 'admin', path: (f) => `/api/members/${f.viewerId}`, body: { json: () => ({ role: 'viewer' }), refuses: refusedBy(memberUpdateSchema) } },
+  'POST /api/members/:userId/password': {
+    who: 'admin',
+    path: (f) => `/api/members/${f.viewerId}/password`,
+    body: { json: () => ({ password: 'long-enough-pass-1' }), refuses: refusedBy(memberPasswordSchema) },
+  },
   'POST /api/members/:userId/unlock': { who: 'admin', path: (f) => `/api/members/${f.viewerId}/unlock`, body: 'none' },
   'PUT /api/settings/map': {
     who: 'admin',

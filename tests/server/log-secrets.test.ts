@@ -34,6 +34,9 @@ describe('the log', () => {
     const agent = request.agent(app);
     const first = await agent.get('/api/auth/session').expect(200);
     seen.push(first.body.csrfToken);
+    // Signed out, the token is held in a signed cookie: neither may be logged.
+    const csrfCookie = /cutline\.csrf=([^;]+)/.exec((first.headers['set-cookie'] as unknown as string[]).join(';'))![1]!;
+    seen.push(csrfCookie, decodeURIComponent(csrfCookie));
     await agent.post('/api/auth/sign-in').set('x-csrf-token', first.body.csrfToken).send({ email: admin.email, password: 'a-wrong-password-typed-7' }).expect(401);
     const signedIn = await agent.post('/api/auth/sign-in').set('x-csrf-token', first.body.csrfToken).send({ email: admin.email, password: admin.password }).expect(200);
     const csrf = signedIn.body.csrfToken as string;
@@ -50,6 +53,9 @@ describe('the log', () => {
       .expect(201);
     await agent.get('/api/members').set('authorization', 'Bearer not-a-real-token-99').expect(200);
     seen.push('not-a-real-token-99');
+    const changedPassword = 'admin-changed-password-43';
+    seen.push(changedPassword);
+    await agent.post('/api/auth/password').set('x-csrf-token', csrf).send({ currentPassword: admin.password, newPassword: changedPassword }).expect(204);
     await agent.post('/api/auth/sign-out').set('x-csrf-token', csrf).expect(200);
 
     const log = lines.join('');

@@ -72,9 +72,9 @@ describe('the account lockout', () => {
     const [payload, mac] = value.split('.');
     const forgedPayload = Buffer.from(JSON.stringify({ u: ctx.userIds[official.email], t: Date.now(), n: 'x' })).toString('base64url');
     for (const cookie of [value, `${forgedPayload}.${mac}`, `${payload}.${mac!.slice(0, -2)}AA`, 'garbage', `${forgedPayload}.`]) {
-      // A session of its own (its cookie and CSRF token), plus the device cookie under test.
+      // A CSRF token of its own (held in a cookie while signed out), plus the device cookie under test.
       const session = await request(ctx.app).get('/api/auth/session');
-      const sid = ((session.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => c.startsWith('cutline.sid='))!.split(';')[0]!;
+      const sid = ((session.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => c.startsWith('cutline.csrf='))!.split(';')[0]!;
       const res = await request(ctx.app)
         .post('/api/auth/sign-in')
         .set('x-forwarded-for', stranger())

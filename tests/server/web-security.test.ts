@@ -58,9 +58,22 @@ describe('the session cookie', () => {
   });
 
   it('is Secure behind an HTTPS proxy when COOKIE_SECURE=true', async () => {
-    // The first response that stores something in the session (its CSRF token) sets the cookie.
-    const res = await request(secure.app).get('/api/auth/session').set('x-forwarded-proto', 'https').expect(200);
-    const cookie = (res.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('cutline.sid='));
+    // Signed out, the only cookie is the CSRF token's, under the __Host- prefix.
+    const agent = request.agent(secure.app);
+    const res = await agent.get('/api/auth/session').set('x-forwarded-proto', 'https').expect(200);
+    const csrfCookie = (res.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('__Host-cutline.csrf='));
+    expect(csrfCookie).toMatch(/; Secure/);
+    expect(csrfCookie).toMatch(/HttpOnly/);
+    expect(csrfCookie).toMatch(/Path=\/;/);
+    const account = accountFor('viewer');
+    const signedIn = await agent
+      .post('/api/auth/sign-in')
+      .set('x-forwarded-proto', 'https')
+      .set('cookie', csrfCookie!.split(';')[0]!)
+      .set('x-csrf-token', res.body.csrfToken)
+      .send({ email: account.email, password: account.password })
+      .expect(200);
+    const cookie = (signedIn.headers['set-cookie'] as unknown as string[]).find((c) => c.startsWith('cutline.sid='));
     expect(cookie).toMatch(/; Secure/);
     expect(cookie).toMatch(/HttpOnly/);
     // Over plain HTTP a Secure cookie is not sent at all.

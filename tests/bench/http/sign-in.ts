@@ -5,11 +5,11 @@ import type { Role } from '../../../shared/api/roles';
 
 export type BenchSession = { email: string; role: Role; cookie: string; csrfToken: string };
 
-function sessionCookie(res: Response, previous: string | null): string {
-  const set = res.headers.getSetCookie().find((c) => c.startsWith('cutline.sid='));
-  const cookie = set ? set.split(';')[0]! : previous;
-  if (!cookie) throw new Error(`no session cookie in the answer to ${res.url}`);
-  return cookie;
+// Signed out the CSRF token is held in the `cutline.csrf` cookie; signed in, in the session.
+function cookieNamed(res: Response, name: 'cutline.csrf' | 'cutline.sid'): string {
+  const set = res.headers.getSetCookie().find((c) => c.startsWith(`${name}=`));
+  if (!set) throw new Error(`no ${name} cookie in the answer to ${res.url}`);
+  return set.split(';')[0]!;
 }
 
 export async function signIn(baseUrl: string, email: string, password: string): Promise<BenchSession> {
@@ -17,13 +17,13 @@ export async function signIn(baseUrl: string, email: string, password: string): 
   const anonymous = sessionResponseSchema.parse(await first.json());
   const res = await fetch(`${baseUrl}/api/auth/sign-in`, {
     method: 'POST',
-    headers: { 'content-type': 'application/json', cookie: sessionCookie(first, null), 'x-csrf-token': anonymous.csrfToken },
+    headers: { 'content-type': 'application/json', cookie: cookieNamed(first, 'cutline.csrf'), 'x-csrf-token': anonymous.csrfToken },
     body: JSON.stringify({ email, password }),
   });
   if (res.status !== 200) throw new Error(`sign-in of ${email} failed: ${res.status} ${await res.text()}`);
   const body = sessionResponseSchema.parse(await res.json());
   if (!body.user) throw new Error(`sign-in of ${email} returned no user`);
-  return { email, role: body.user.role, cookie: sessionCookie(res, null), csrfToken: body.csrfToken };
+  return { email, role: body.user.role, cookie: cookieNamed(res, 'cutline.sid'), csrfToken: body.csrfToken };
 }
 
 /** `times` sessions of every account, signed in one after another (bcrypt is the cost). */
