@@ -15,13 +15,18 @@ export class SolveFailure extends Error {
 export type SolveBudget = { timeSeconds: number; memoryMegabytes: number };
 type Done = Extract<SolveMessage, { type: 'done' }>;
 
+function overBudget(budget: SolveBudget, usedBytes?: number): string {
+  const used = usedBytes === undefined ? '' : ` (${Math.round(usedBytes / (1024 * 1024))} MB in use, road graphs included)`;
+  return `The analysis needed more than its memory budget of ${budget.memoryMegabytes} MB${used} and was stopped. Shorten the horizon, lengthen the time step or use a smaller study area.`;
+}
+
 export function solveInWorker(
   request: SolveRequest,
   budget: SolveBudget,
   onProgress: (phase: string, fraction: number) => void,
 ): { done: Promise<Done>; cancel: () => void; interrupt: () => void } {
   const worker = new Worker(new URL('./solve-worker-entry.mjs', import.meta.url), {
-    workerData: request,
+    workerData: { ...request, memoryMegabytes: budget.memoryMegabytes },
     resourceLimits: { maxOldGenerationSizeMb: budget.memoryMegabytes },
   });
   let settled = false;
@@ -40,13 +45,11 @@ export function solveInWorker(
     worker.on('message', (m: SolveMessage) => {
       if (m.type === 'progress') onProgress(m.phase, m.fraction);
       else if (m.type === 'done') finish(() => resolve(m));
+      else if (m.memoryBytes !== undefined) finish(() => reject(new SolveFailure(overBudget(budget, m.memoryBytes), 'budget')));
       else finish(() => reject(new SolveFailure(m.message, m.input ? 'input' : 'crash')));
     });
     worker.on('error', (err: Error & { code?: string }) => {
-      const message =
-        err.code === 'ERR_WORKER_OUT_OF_MEMORY'
-          ? `The analysis needed more than its memory budget of ${budget.memoryMegabytes} MB and was stopped.`
-          : `The solver failed: ${err.message}`;
+      const message = err.code === 'ERR_WORKER_OUT_OF_MEMORY' ? overBudget(budget) : `The solver failed: ${err.message}`;
       finish(() => reject(new SolveFailure(message, err.code === 'ERR_WORKER_OUT_OF_MEMORY' ? 'budget' : 'crash')));
     });
     worker.on('exit', () => {
