@@ -23,8 +23,11 @@ const configSchema = z.object({
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   // Failed sign-ins per address in that window, whatever the e-mail (password spraying).
   SIGN_IN_ATTEMPTS_PER_ADDRESS: z.coerce.number().int().positive().default(50),
-  // Failed sign-ins in a row (from any address) that lock an account, and for how long.
+  // Account back-off (server/services/sign-in-lockout.ts): after this many failed sign-ins in a
+  // row (from any address) the account waits SIGN_IN_BACKOFF_SECONDS before the next attempt,
+  // and each further failure doubles the wait, up to SIGN_IN_LOCKOUT_MINUTES.
   SIGN_IN_LOCKOUT_FAILURES: z.coerce.number().int().min(1).default(10),
+  SIGN_IN_BACKOFF_SECONDS: z.coerce.number().positive().default(30),
   SIGN_IN_LOCKOUT_MINUTES: z.coerce.number().positive().default(15),
   // How long one process keeps a session and its user after reading them (0: read every request).
   // A sign-out, removed membership or role change made by another API process shows within it.

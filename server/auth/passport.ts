@@ -15,7 +15,7 @@ export type SignInRefusal = { message: 'locked' | 'refused'; lockedUntil?: Date 
 
 export function configurePassport(
   db: Database,
-  config: Pick<Config, 'SIGN_IN_LOCKOUT_FAILURES' | 'SIGN_IN_LOCKOUT_MINUTES' | 'PASSWORD_HASH_ROUNDS' | 'SESSION_SECRET'>,
+  config: Pick<Config, 'SIGN_IN_LOCKOUT_FAILURES' | 'SIGN_IN_BACKOFF_SECONDS' | 'SIGN_IN_LOCKOUT_MINUTES' | 'PASSWORD_HASH_ROUNDS' | 'SESSION_SECRET'>,
 ): passport.PassportStatic {
   const instance = new passport.Passport();
   instance.use(

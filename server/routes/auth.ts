@@ -40,11 +40,12 @@ function sessionBody(req: Request, csrfToken: string): SessionResponse {
 }
 
 function lockedError(until: Date): HttpError {
-  const minutes = Math.max(1, Math.ceil((until.getTime() - Date.now()) / 60_000));
+  const seconds = Math.max(1, Math.ceil((until.getTime() - Date.now()) / 1000));
+  const wait = seconds < 60 ? `${seconds} second${seconds === 1 ? '' : 's'}` : `${Math.ceil(seconds / 60)} minute${Math.ceil(seconds / 60) === 1 ? '' : 's'}`;
   return new HttpError(
     423,
     'account_locked',
-    `This account is locked after repeated failed sign-ins. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or ask an administrator of your organization to unlock it.`,
+    `This account is locked after repeated failed sign-ins. Try again in ${wait}, or ask an administrator of your organization to unlock it.`,
   );
 }
 
