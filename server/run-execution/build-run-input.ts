@@ -63,7 +63,9 @@ export function buildRunInput(
     if (e instanceof ModelInputError) throw new BadRequestError(`The plan's data cannot be analysed: ${e.message}.`);
     throw e;
   }
-  const refusal = budgetRefusal({ nodeCount: built.problem.nodeCount, roads: built.problem.roads.length }, parameters, budget);
+  const { problem } = built;
+  const entries = problem.zones.reduce((sum, z) => sum + z.entryNodes.length + 2, 0) + 2 * problem.shelters.length;
+  const refusal = budgetRefusal({ nodeCount: problem.nodeCount, roads: problem.roads.length, entries }, parameters, budget);
   if (refusal) throw new BadRequestError(refusal);
   const input: RunInput = {
     problem: built.problem,

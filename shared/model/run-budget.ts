@@ -27,12 +27,14 @@ export function horizonStepsOf(horizonMinutes: number, timeStepSeconds: number):
 
 /**
  * The time-expanded size for `roads` directed roads on `nodeCount` junctions over T steps: a copy
- * of every road and a waiting arc at every junction for each of the T + 1 steps (zone and shelter
- * arcs, a few per zone and shelter and step, are left out; closed steps make it smaller).
+ * of every road and a waiting arc at every junction for each of the T + 1 steps, plus `entries`
+ * arcs per step (each zone's arcs to its entry nodes, and the zones' and shelters' own arcs:
+ * zones spread over many junctions make this a tenth of the total on the generated county).
+ * Closed steps make it smaller.
  */
-export function expandedSize(nodeCount: number, roads: number, horizonSteps: number): ExpandedSize {
+export function expandedSize(nodeCount: number, roads: number, horizonSteps: number, entries = 0): ExpandedSize {
   const layers = horizonSteps + 1;
-  const arcs = (roads + nodeCount) * layers;
+  const arcs = (roads + nodeCount + entries) * layers;
   const nodes = nodeCount * layers;
   return { arcs, nodes, bytes: arcs * BYTES_PER_EXPANDED_ARC + nodes * BYTES_PER_EXPANDED_NODE };
 }
@@ -47,6 +49,11 @@ function formatStep(seconds: number): string {
   return `${seconds} seconds`;
 }
 
+/** 180 → "3-minute", 90 → "90-second". */
+function stepAdjective(seconds: number): string {
+  return seconds % 60 === 0 ? `${seconds / 60}-minute` : `${seconds}-second`;
+}
+
 const millions = (n: number): string => (n >= 1e6 ? `${(n / 1e6).toFixed(1)} million` : Math.round(n).toLocaleString('en-US'));
 const gigabytes = (bytes: number): string => (bytes >= 2 ** 30 ? `${(bytes / 2 ** 30).toFixed(1)} GB` : `${Math.ceil(bytes / 2 ** 20).toLocaleString('en-US')} MB`);
 
@@ -55,36 +62,38 @@ const gigabytes = (bytes: number): string => (bytes >= 2 ** 30 ? `${(bytes / 2 *
  * budget, the shortest offered coarser step that fits with its size and effect, and the longest
  * horizon that fits at the chosen step.
  */
+export type NetworkSize = { nodeCount: number; roads: number; entries?: number };
+
 export function budgetRefusal(
-  network: { nodeCount: number; roads: number },
+  network: NetworkSize,
   parameters: { horizonMinutes: number; timeStepSeconds: number },
   budget: RunBudget,
   /** 'about' for an exact count, 'more than' for a lower bound. */
   precision: 'about' | 'more than' = 'about',
   /** An upper bound of the network, for the coarser step and shorter horizon offered, so that
    *  what is offered on a lower bound is not refused when the exact size is known. */
-  offerFor: { nodeCount: number; roads: number } = network,
+  offerFor: NetworkSize = network,
 ): string | null {
-  const { nodeCount, roads } = network;
   const { horizonMinutes, timeStepSeconds } = parameters;
-  const size = expandedSize(nodeCount, roads, horizonStepsOf(horizonMinutes, timeStepSeconds));
+  const size = expandedSize(network.nodeCount, network.roads, horizonStepsOf(horizonMinutes, timeStepSeconds), network.entries);
   if (fits(size, budget)) return null;
   const head =
     `This analysis would need ${precision} ${millions(size.arcs)} time-expanded arcs and ${gigabytes(size.bytes)} of memory, ` +
     `more than this server's budget of ${millions(budget.maxExpandedArcs)} arcs and ${gigabytes(budget.maxBytes)}.`;
   const coarser = OFFERED_STEPS_SECONDS.filter((s) => s > timeStepSeconds)
-    .map((s) => ({ s, size: expandedSize(offerFor.nodeCount, offerFor.roads, horizonStepsOf(horizonMinutes, s)) }))
+    .map((s) => ({ s, size: expandedSize(offerFor.nodeCount, offerFor.roads, horizonStepsOf(horizonMinutes, s), offerFor.entries) }))
     .find((c) => fits(c.size, budget));
-  const perLayer = expandedSize(offerFor.nodeCount, offerFor.roads, 0);
+  const perLayer = expandedSize(offerFor.nodeCount, offerFor.roads, 0, offerFor.entries);
   const layersThatFit = Math.min(Math.floor(budget.maxExpandedArcs / perLayer.arcs), Math.floor(budget.maxBytes / perLayer.bytes));
   const horizonThatFits = Math.floor(((layersThatFit - 1) * timeStepSeconds) / 60);
   const shorter =
     horizonThatFits >= 10 ? ` Or keep the ${formatStep(timeStepSeconds)} step and shorten the horizon to at most ${horizonThatFits} minutes.` : '';
   if (!coarser) return `${head} No time step up to one hour fits: use a smaller road layer or area.${shorter}`;
   const step = formatStep(coarser.s);
+  const steps = `${stepAdjective(coarser.s)} steps`;
   return (
     `${head} At a time step of ${step} it fits (at most ${millions(coarser.size.arcs)} arcs, ${gigabytes(coarser.size.bytes)}). ` +
-    `What that changes: travel times are counted in whole ${step} steps, so each zone's fastest trips stay within ${step} of free flow ` +
-    `(instead of ${formatStep(timeStepSeconds)}), and the curve, the clearance time and the 50/90/95 % times are read in ${step} steps.${shorter}`
+    `What that changes: travel times are counted in whole ${steps}, so each zone's fastest trips stay within ${step} of free flow ` +
+    `(instead of ${formatStep(timeStepSeconds)}), and the curve, the clearance time and the 50/90/95 % times are read in ${steps}.${shorter}`
   );
 }

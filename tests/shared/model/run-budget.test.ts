@@ -26,6 +26,7 @@ describe('run budget', () => {
     const refusal = budgetRefusal(county, { horizonMinutes: 360, timeStepSeconds: 60 }, budget)!;
     expect(refusal).toContain('At a time step of 3 minutes it fits (at most 54.2 million arcs, 3.2 GB)');
     expect(refusal).toContain('fastest trips stay within 3 minutes of free flow (instead of 1 minute)');
+    expect(refusal).toContain('counted in whole 3-minute steps');
     // 70 M / 448,216 = 156 layers; 4 GiB / (448,216 × 56 + 90,000 × 40) = 149 layers → 148 steps of 1 minute.
     expect(refusal).toContain('shorten the horizon to at most 148 minutes');
   });
@@ -54,10 +55,9 @@ describe('run budget', () => {
       timeStepSeconds: 60,
       horizonSteps: T,
     });
-    const estimate = expandedSize(n * n, roads.length, T).arcs;
-    // Zone and shelter arcs (a few per step) are left out of the estimate.
-    const terminals = 4 * (T + 1);
-    expect(expanded.network.arcCount - terminals).toBeLessThanOrEqual(estimate);
+    // Per step: one entry node + 2 for the zone, 2 for the shelter (as build-run-input counts them).
+    const estimate = expandedSize(n * n, roads.length, T, 1 + 2 + 2).arcs;
+    expect(expanded.network.arcCount).toBeLessThanOrEqual(estimate);
     expect(expanded.network.arcCount).toBeGreaterThan(0.9 * estimate);
   });
 });
