@@ -26,9 +26,13 @@ export type MapZone = {
 export type MapShelter = { id: number; name: string; location: LonLat };
 
 export type BriefingMapInput = {
+  /** The roads drawn: at county scale only the classes the page can show, each class merged into
+   *  lines (negative ids), plus every choke point and fix as its own segment (map-roads.ts). */
   segments: MapSegment[];
   zones: MapZone[];
   shelters: MapShelter[];
+  /** Road classes left out at the map's scale (absent in older briefings: everything was drawn). */
+  leftOut?: { roadClass: string; segments: number }[] | undefined;
 };
 
 /** One row of the plan's capacity table as the run used it, each value with its source. */

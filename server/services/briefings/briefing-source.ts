@@ -8,7 +8,9 @@ import { organizations, plans, roadLayers, runs, scenarios, shelters, users, zon
 import { roleLabels, type Role } from '../../../shared/api/roles';
 import type { ZoneGeometry } from '../../../shared/api/zones-shelters';
 import { storedOverlay } from '../../../shared/api/scenarios';
-import type { BriefingInput, LonLat, MapSegment, MapZone } from './briefing-input';
+import type { BriefingInput, BriefingMapInput, LonLat, MapSegment, MapZone } from './briefing-input';
+import { boundsOf, EARTH_MEAN_RADIUS_M, equirectangularAbout } from './map-projection';
+import { planMapRoads } from './map-roads';
 import { formatCount, formatDate, formatDecimal, formatShare } from '../../../shared/format/numbers';
 import { ZONE_DEFAULTS } from '../../../shared/model/zone-defaults';
 import { meanPersonsPerVehicle } from '../../../shared/model/vehicles';
@@ -46,13 +48,60 @@ export async function finishedRun(db: Database | Tx, organizationId: string, run
   return row.run;
 }
 
-async function mapSegments(db: Database | Tx, layerId: number): Promise<{ segments: MapSegment[]; names: Map<number, string> }> {
-  const rows = await db.execute<{ id: string; road_class: string; name: string | null; g: string }>(sql`
-    SELECT id, road_class, name, ST_AsGeoJSON(geom, 7) AS g FROM road_segments WHERE layer_id = ${layerId} ORDER BY id`);
-  return {
-    segments: rows.rows.map((r) => ({ id: Number(r.id), roadClass: r.road_class, coordinates: (JSON.parse(r.g) as { coordinates: LonLat[] }).coordinates })),
-    names: new Map(rows.rows.map((r) => [Number(r.id), r.name ?? `segment ${r.id}`])),
-  };
+const idArray = (ids: Iterable<number>) => `{${[...new Set(ids)].filter(Number.isInteger).join(',')}}`;
+
+/**
+ * The roads the map draws (map-roads.ts): the classes the page can show, one by one for a town
+ * or merged and simplified per class for a county, plus the choke points and fixes (`keepIds`)
+ * as their own segments whatever their class, so they are drawn and their direction can be told.
+ */
+async function mapRoads(db: Database | Tx, layerId: number, keepIds: number[]): Promise<Pick<BriefingMapInput, 'segments' | 'leftOut'>> {
+  const classes = await db.execute<{ road_class: string; segments: number; length_m: number; minx: number; miny: number; maxx: number; maxy: number }>(sql`
+    SELECT road_class, count(*)::int AS segments, sum(length_meters)::float8 AS length_m,
+           ST_XMin(ST_Extent(geom)) AS minx, ST_YMin(ST_Extent(geom)) AS miny, ST_XMax(ST_Extent(geom)) AS maxx, ST_YMax(ST_Extent(geom)) AS maxy
+    FROM road_segments WHERE layer_id = ${layerId} GROUP BY road_class`);
+  if (classes.rows.length === 0) return { segments: [] };
+  const corners = boundsOf(classes.rows.flatMap((r) => [[r.minx, r.miny], [r.maxx, r.maxy]] as [number, number][]))!;
+  const toMetres = equirectangularAbout([(corners.minX + corners.maxX) / 2, (corners.minY + corners.maxY) / 2]).toMetres;
+  const [x0, y0] = toMetres([corners.minX, corners.minY]);
+  const [x1, y1] = toMetres([corners.maxX, corners.maxY]);
+  const plan = planMapRoads(
+    classes.rows.map((r) => ({ roadClass: r.road_class, segments: r.segments, lengthMeters: r.length_m })),
+    { widthMeters: x1 - x0, heightMeters: y1 - y0 },
+  );
+  const drawn = `{${plan.drawn.map((c) => `"${c.replace(/["\\]/g, '')}"`).join(',')}}`;
+  const keep = idArray(keepIds);
+  const parse = (g: string) => JSON.parse(g) as { type: string; coordinates: LonLat[] | LonLat[][] };
+  if (!plan.merge) {
+    const rows = await db.execute<{ id: string; road_class: string; g: string }>(sql`
+      SELECT id, road_class, ST_AsGeoJSON(geom, 7) AS g FROM road_segments
+      WHERE layer_id = ${layerId} AND (road_class = ANY(${drawn}::text[]) OR id = ANY(${keep}::bigint[])) ORDER BY id`);
+    return { segments: rows.rows.map((r) => ({ id: Number(r.id), roadClass: r.road_class, coordinates: parse(r.g).coordinates as LonLat[] })), leftOut: plan.leftOut };
+  }
+  // Degrees of latitude per metre, for a tolerance given on the ground (a little finer east–west).
+  const toleranceDegrees = plan.toleranceMeters / ((Math.PI / 180) * EARTH_MEAN_RADIUS_M);
+  const merged = await db.execute<{ road_class: string; g: string }>(sql`
+    SELECT road_class, ST_AsGeoJSON(ST_Simplify(ST_LineMerge(ST_Collect(geom)), ${toleranceDegrees}), 6) AS g
+    FROM road_segments WHERE layer_id = ${layerId} AND road_class = ANY(${drawn}::text[]) AND NOT (id = ANY(${keep}::bigint[]))
+    GROUP BY road_class ORDER BY road_class`);
+  const kept = await db.execute<{ id: string; road_class: string; g: string }>(sql`
+    SELECT id, road_class, ST_AsGeoJSON(geom, 7) AS g FROM road_segments WHERE layer_id = ${layerId} AND id = ANY(${keep}::bigint[]) ORDER BY id`);
+  const segments: MapSegment[] = [];
+  for (const r of merged.rows) {
+    const g = parse(r.g);
+    const lines = g.type === 'LineString' ? [g.coordinates as LonLat[]] : (g.coordinates as LonLat[][]);
+    for (const coordinates of lines) segments.push({ id: -(segments.length + 1), roadClass: r.road_class, coordinates });
+  }
+  for (const r of kept.rows) segments.push({ id: Number(r.id), roadClass: r.road_class, coordinates: parse(r.g).coordinates as LonLat[] });
+  return { segments, leftOut: plan.leftOut };
+}
+
+/** Names of the roads a scenario's changes name (and only those: a county has many). */
+async function segmentNames(db: Database | Tx, layerId: number, ids: number[]): Promise<Map<number, string>> {
+  if (ids.length === 0) return new Map();
+  const rows = await db.execute<{ id: string; name: string | null }>(sql`
+    SELECT id, name FROM road_segments WHERE layer_id = ${layerId} AND id = ANY(${idArray(ids)}::bigint[])`);
+  return new Map(rows.rows.map((r) => [Number(r.id), r.name ?? `segment ${r.id}`]));
 }
 
 /** The run's scenario, refused if it changed after the run: the briefing would describe other changes than the figures rest on. */
@@ -91,9 +140,14 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
   const zoneRows = await db.select().from(zones).where(eq(zones.planId, run.planId)).orderBy(asc(zones.id));
   const shelterRows = await db.select().from(shelters).where(eq(shelters.planId, run.planId)).orderBy(asc(shelters.id));
   const table = await getCapacityTable(db, organizationId, run.planId);
-  const { segments, names } = await mapSegments(db, layer.id);
+  const result = run.result!;
+  const { segments, leftOut } = await mapRoads(db, layer.id, [...result.bottlenecks, ...result.fixes].map((r) => r.segmentId));
   const scenario = await scenarioOfRun(db, run);
   const searches = await searchesOfRun(db, run.planId, run.inputHash);
+  // Two passes: the first only learns which roads the words name, so only their names are read.
+  const named: number[] = [];
+  if (scenario) scenarioChanges(scenario.overlay, { segment: (id) => (named.push(id), ''), zone: () => '', shelter: () => '' });
+  const names = await segmentNames(db, layer.id, named);
   const changes = scenario
     ? scenarioChanges(scenario.overlay, {
         segment: (id) => names.get(id) ?? `segment ${id}`,
@@ -122,7 +176,7 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
     preparedBy: { name: preparer?.name ?? 'unknown', role: roleLabels[o.preparer.role] },
     status: 'draft',
     run: toRun(run),
-    result: run.result!,
+    result,
     ...(searches.length ? { searches } : {}),
     assumptions: {
       dataDescription:
@@ -143,6 +197,7 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
     },
     map: {
       segments,
+      ...(leftOut?.length ? { leftOut } : {}),
       zones: mapZones,
       shelters: mapShelters,
     },

@@ -6,6 +6,7 @@ import type { BriefingMapInput, LonLat, MapSegment } from './briefing-input';
 import { boundsOf, equirectangularAbout, fitToBox, type PageFit } from './map-projection';
 import { n, polylinePoints, svgText } from './svg-text';
 import { CHOKE_POINT_COLOUR } from '../../../shared/format/colours';
+import { formatCount } from '../../../shared/format/numbers';
 
 export type ChokePoint = { segmentId: number; rank: number };
 
@@ -178,6 +179,14 @@ function drawLegend(x: number, y: number, width: number, scale: number): string 
   return out.join('');
 }
 
+/** The note on the road classes left out at this scale, or null when every road is drawn. */
+export function leftOutNote(leftOut: BriefingMapInput['leftOut']): string | null {
+  if (!leftOut?.length) return null;
+  const segments = leftOut.reduce((s, c) => s + c.segments, 0);
+  const names = leftOut.map((c) => c.roadClass.replace(/_/g, ' ')).join(', ');
+  return `Not drawn at this scale: ${names} roads (${formatCount(segments)} segments)`;
+}
+
 function northArrow(x: number, y: number): string {
   return (
     `<path d="M ${n(x)} ${n(y)} L ${n(x + 5)} ${n(y + 14)} L ${n(x)} ${n(y + 10.5)} L ${n(x - 5)} ${n(y + 14)} Z" fill="${MAP_COLOURS.text}"/>` +
@@ -217,12 +226,12 @@ export function mapSvg(input: MapSvgInput): string {
     const largest = [...rings].sort((a, b) => ringArea(b) - ringArea(a))[0] ?? [];
     return { d, name: z.name, label: ringCentroid(largest) };
   });
-  const zoneShapes = zones
-    .map(
-      (z) =>
-        `<path d="${z.d}" fill="${MAP_COLOURS.zoneFill}" fill-opacity="0.10" fill-rule="evenodd" stroke="${MAP_COLOURS.zoneFill}" stroke-opacity="0.75" stroke-width="1" stroke-dasharray="4 2"/>`,
-    )
+  // Fills under the roads, outlines over them: a zone's edge stays visible through a dense layer.
+  const zoneFills = zones.map((z) => `<path d="${z.d}" fill="${MAP_COLOURS.zoneFill}" fill-opacity="0.10" fill-rule="evenodd" stroke="none"/>`).join('');
+  const zoneOutlines = zones
+    .map((z) => `<path d="${z.d}" fill="none" stroke="${MAP_COLOURS.zoneFill}" stroke-opacity="0.75" stroke-width="1" stroke-dasharray="4 2"/>`)
     .join('');
+  const note = leftOutNote(input.leftOut);
 
   const chokes = input.segments
     .filter((s) => chokeIds.has(s.id) && s.coordinates.length >= 2)
@@ -253,12 +262,14 @@ export function mapSvg(input: MapSvgInput): string {
   return [
     head,
     frame,
-    zoneShapes,
+    zoneFills,
     drawRoads(input.segments, fit, project, chokeIds),
+    zoneOutlines,
     chokeLines,
     shelters,
     zoneLabels,
     badges,
+    note ? svgText(6, height - legendHeight - 6, note, { size: 7, fill: MAP_COLOURS.text, halo: true }) : '',
     northArrow(width - 24, 12),
     drawLegend(4, height - legendHeight + 4, width - 8, fit.scale),
     '</svg>',

@@ -204,10 +204,14 @@ async function main(): Promise<void> {
     shelters: await importFile('shelters', files.shelters),
   };
 
-  phase('start the run');
-  const refusals: { timeStepSeconds: number; status: number; message: string }[] = [];
+  // A start the API refuses (its cheap lower bound) or a run the worker's preparation refuses (the
+  // exact size) moves on to the next coarser step; each refusal is reported.
+  const refusals: { timeStepSeconds: number; status: number | string; message: string }[] = [];
   let started: { id: string; timeStepSeconds: number; answerMs: number } | null = null;
+  let run: RunWithResult | null = null;
+  const runPhases: { phase: string; at: number }[] = [];
   for (const timeStepSeconds of [firstStep, ...COARSER_STEPS]) {
+    phase(`start the run (Δ = ${timeStepSeconds} s)`);
     const t0 = performance.now();
     const res = await fetch(`${base}/runs`, {
       method: 'POST',
@@ -215,32 +219,38 @@ async function main(): Promise<void> {
       body: JSON.stringify({ parameters: { horizonMinutes, timeStepSeconds, capacityFactor: 1, algorithm: 'auto' } }),
     });
     const answerMs = performance.now() - t0;
-    if (res.status === 202) {
-      started = { id: runSchema.parse(await res.json()).id, timeStepSeconds, answerMs };
-      break;
+    if (res.status !== 202) {
+      const body = (await res.json().catch(() => ({}))) as { error?: { message?: string } };
+      refusals.push({ timeStepSeconds, status: res.status, message: body.error?.message ?? JSON.stringify(body) });
+      say(`refused at ${timeStepSeconds} s: ${res.status} ${refusals.at(-1)!.message}`);
+      endPhase(`start the run (Δ = ${timeStepSeconds} s)`, `refused in ${answerMs.toFixed(0)} ms`);
+      continue;
     }
-    const body = (await res.json().catch(() => ({}))) as { error?: { message?: string } };
-    refusals.push({ timeStepSeconds, status: res.status, message: body.error?.message ?? JSON.stringify(body) });
-    say(`refused at ${timeStepSeconds} s: ${res.status} ${refusals.at(-1)!.message}`);
-  }
-  if (!started) throw new Error('every time step was refused');
-  endPhase('start the run', `POST …/runs answered in ${started.answerMs.toFixed(0)} ms at Δ = ${started.timeStepSeconds} s`);
+    started = { id: runSchema.parse(await res.json()).id, timeStepSeconds, answerMs };
+    endPhase(`start the run (Δ = ${timeStepSeconds} s)`, `POST …/runs answered 202 in ${answerMs.toFixed(0)} ms`);
 
-  phase('run: queued to finished');
-  const runPhases: { phase: string; at: number }[] = [];
-  let run: RunWithResult;
-  const runT0 = performance.now();
-  for (;;) {
-    run = runWithResultSchema.parse(await (await fetch(`${base}/runs/${started.id}`, { headers })).json());
-    const label = `${run.status}: ${run.phase.replace(/\d[\d,.]*/g, '#')}`;
-    if (runPhases.at(-1)?.phase !== label) runPhases.push({ phase: label, at: (performance.now() - runT0) / 1000 });
-    if (run.status === 'succeeded' || run.status === 'failed' || run.status === 'cancelled') break;
-    if (performance.now() - runT0 > 1_800_000) throw new Error('the run did not finish within 30 minutes');
-    await new Promise((r) => setTimeout(r, 1000));
+    phase(`run at Δ = ${timeStepSeconds} s: queued to finished`);
+    runPhases.length = 0;
+    const runT0 = performance.now();
+    for (;;) {
+      run = runWithResultSchema.parse(await (await fetch(`${base}/runs/${started.id}`, { headers })).json());
+      const label = `${run.status}: ${run.phase.replace(/\d[\d,.]*/g, '#')}`;
+      if (runPhases.at(-1)?.phase !== label) runPhases.push({ phase: label, at: (performance.now() - runT0) / 1000 });
+      if (run.status === 'succeeded' || run.status === 'failed' || run.status === 'cancelled') break;
+      if (performance.now() - runT0 > 1_800_000) throw new Error('the run did not finish within 30 minutes');
+      await new Promise((r) => setTimeout(r, 1000));
+    }
+    endPhase(`run at Δ = ${timeStepSeconds} s: queued to finished`, `${run.status}${run.failureReason ? `: ${run.failureReason}` : ''}`);
+    if (run.status === 'failed' && /time-expanded arcs|budget/i.test(run.failureReason ?? '')) {
+      refusals.push({ timeStepSeconds, status: 'failed in the worker', message: run.failureReason ?? '' });
+      continue;
+    }
+    break;
   }
-  endPhase('run: queued to finished', `${run.status}${run.failureReason ? `: ${run.failureReason}` : ''}`);
+  if (!started || !run) throw new Error('every time step was refused');
   if (run.status !== 'succeeded' || !run.result) throw new Error(`the run ${run.status}: ${run.failureReason}`);
-  const result = run.result;
+  const finished = run;
+  const result = finished.result!;
 
   async function fetchAll(what: string, urls: string[]): Promise<Fetched> {
     const t0 = performance.now();
@@ -271,8 +281,8 @@ async function main(): Promise<void> {
   const layerAnswer = (await (await fetch(`${base}/road-layer`, { headers })).json()) as { layer: { bbox: number[] } };
   const bbox = layerAnswer.layer.bbox;
   const fullZoom = zoomToFit(bbox, 1280, 800);
-  const findingsFixed = [`${base}/runs/${run.id}`, `${base}/road-layer`, `${base}/zones`, `${base}/shelters`, `${base}/runs/${run.id}/choke-point-geometry`];
-  const fullTiles = tilesCovering(bbox, fullZoom).map(([x, y]) => `${base}/runs/${run.id}/tiles/${fullZoom}/${x}/${y}`);
+  const findingsFixed = [`${base}/runs/${finished.id}`, `${base}/road-layer`, `${base}/zones`, `${base}/shelters`, `${base}/runs/${finished.id}/choke-point-geometry`];
+  const fullTiles = tilesCovering(bbox, fullZoom).map(([x, y]) => `${base}/runs/${finished.id}/tiles/${fullZoom}/${x}/${y}`);
   const findingsData = await fetchAll('Findings data (result, layer summary, zones, shelters, choke-point geometry)', findingsFixed);
   const findingsTiles = await fetchAll(`run tiles at zoom ${fullZoom} (the whole county in 1280 × 800 px)`, fullTiles);
   endPhase('Findings view at full extent');
@@ -289,15 +299,15 @@ async function main(): Promise<void> {
   const streetZoom = 15;
   const [cx, cy] = tileOf(firstBridgeCentre[0], firstBridgeCentre[1], streetZoom);
   const streetTiles: string[] = [];
-  for (let dx = -2; dx <= 2; dx++) for (let dy = -2; dy <= 1; dy++) streetTiles.push(`${base}/runs/${run.id}/tiles/${streetZoom}/${cx + dx}/${cy + dy}`);
+  for (let dx = -2; dx <= 2; dx++) for (let dy = -2; dy <= 1; dy++) streetTiles.push(`${base}/runs/${finished.id}/tiles/${streetZoom}/${cx + dx}/${cy + dy}`);
   await fetchAll(`run tiles at zoom ${streetZoom} (1280 × 800 px around a bridge)`, streetTiles);
-  await fetchAll(`road tiles at zoom ${streetZoom} (the plan's layer, same view)`, streetTiles.map((u) => u.replace(`/runs/${run.id}/tiles/`, '/tiles/roads/')));
+  await fetchAll(`road tiles at zoom ${streetZoom} (the plan's layer, same view)`, streetTiles.map((u) => u.replace(`/runs/${finished.id}/tiles/`, '/tiles/roads/')));
   const top = result.bottlenecks[0];
-  const roadSegment = top?.segmentId ?? segmentGeometrySchema.parse(await (await fetch(`${base}/runs/${run.id}/choke-point-geometry`, { headers })).json()).segments[0]?.id;
+  const roadSegment = top?.segmentId ?? segmentGeometrySchema.parse(await (await fetch(`${base}/runs/${finished.id}/choke-point-geometry`, { headers })).json()).segments[0]?.id;
   if (roadSegment === undefined) throw new Error('the run has no choke point to ask about');
-  const roadAnswer = roadResultAnswerSchema.parse(await (await fetch(`${base}/runs/${run.id}/roads/${roadSegment}`, { headers })).json());
-  await fetchAll('one road’s figures (the top choke point)', [`${base}/runs/${run.id}/roads/${roadSegment}`]);
-  await fetchAll('choke-point geometry', [`${base}/runs/${run.id}/choke-point-geometry`]);
+  const roadAnswer = roadResultAnswerSchema.parse(await (await fetch(`${base}/runs/${finished.id}/roads/${roadSegment}`, { headers })).json());
+  await fetchAll('one road’s figures (the top choke point)', [`${base}/runs/${finished.id}/roads/${roadSegment}`]);
+  await fetchAll('choke-point geometry', [`${base}/runs/${finished.id}/choke-point-geometry`]);
   endPhase('street zoom, a road and the choke points');
 
   phase('briefing PDF');
@@ -305,7 +315,7 @@ async function main(): Promise<void> {
   const draft = await fetch(`${baseUrl}/api/briefings`, {
     method: 'POST',
     headers: { ...writeHeaders, 'content-type': 'application/json' },
-    body: JSON.stringify({ runId: run.id, title: 'Quellbrook County clearance (benchmark)' }),
+    body: JSON.stringify({ runId: finished.id, title: 'Quellbrook County clearance (benchmark)' }),
   });
   const draftMs = performance.now() - t0;
   if (draft.status !== 201) throw new Error(`drafting the briefing answered ${draft.status}: ${await draft.text()}`);
@@ -354,7 +364,7 @@ type ReportInput = {
   finalPeaks: { api: number | null; worker: number | null };
   fetched: Fetched[];
   findingsBytes: number;
-  refusals: { timeStepSeconds: number; status: number; message: string }[];
+  refusals: { timeStepSeconds: number; status: number | string; message: string }[];
   run: { step: number; phases: { phase: string; at: number }[]; stats: RunResult['stats']; headline: unknown; curveEnd: number | undefined; demand: number };
   road: { segmentId: number; found: boolean };
   pdfBytes: number;
