@@ -3,7 +3,6 @@ import { Router } from 'express';
 import { importOptionsSchema, sourceReadOptionsSchema } from '../../shared/api/road-import';
 import {
   segmentBulkUpdateSchema,
-  segmentMapQuerySchema,
   segmentPageQuerySchema,
   segmentParamsSchema,
 } from '../../shared/api/road-layers';
@@ -17,7 +16,7 @@ import { readInWorker } from '../import/gis/import-in-worker';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
 import { assertPlanInOrganization, planDataVersion } from '../services/plan-access';
-import { activeLayerVersion, getActiveRoadLayer, getSegment, saveRoadLayer, segmentPageOfLayer, segmentsInViewportJson, updateSegments } from '../services/road-layers';
+import { activeLayerVersion, getActiveRoadLayer, getSegment, saveRoadLayer, segmentPageOfLayer, updateSegments } from '../services/road-layers';
 import type { AnswerCache } from '../http/answer-cache';
 
 export function roadLayersRouter(db: Database, config: Config, answers: AnswerCache): Router {
@@ -61,15 +60,6 @@ export function roadLayersRouter(db: Database, config: Config, answers: AnswerCa
       if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
       throw e;
     }
-  });
-
-  router.get('/segments/map', requireMember('plans:read'), async (req, res) => {
-    const { planId } = planParamsSchema.parse(req.params);
-    const { bbox, zoom } = segmentMapQuerySchema.parse(req.query);
-    const { layerId, dataVersion } = await activeLayerVersion(db, actorOf(req).organizationId, planId);
-    // Everyone opening the plan first asks for the same view: keep each view ready per data version.
-    const key = `map ${planId} ${layerId} ${dataVersion} ${bbox.join(',')} ${zoom}`;
-    await answers.sendJson(req, res, key, () => segmentsInViewportJson(db, layerId, bbox, zoom));
   });
 
   // Everyone opening the road table first asks for the same page: keep each page ready per data version.

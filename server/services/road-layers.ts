@@ -179,38 +179,6 @@ function toSegment(row: SegmentRow): Segment {
   return row as Segment;
 }
 
-// Below this zoom level a viewport holds the whole town: thin out to the bigger roads first.
-const maxFeaturesPerResponse = 25_000;
-
-/**
- * Segments inside a viewport as the JSON text of a SegmentMap (shared/api/road-layers),
- * simplified to about a pixel at the zoom level. PostgreSQL writes the whole text: building
- * and serialising a thousand features in JavaScript took most of the server's time on this
- * route, which the map asks on every pan and zoom.
- */
-export async function segmentsInViewportJson(db: Database, layerId: number, bbox: [number, number, number, number], zoom: number): Promise<string> {
-  const [w, s, e, n] = bbox;
-  // Degrees per pixel at this zoom (256-px tiles); simplify to half of it.
-  const tolerance = 360 / (256 * 2 ** zoom) / 2;
-  // The properties are SegmentMapProperties; row_to_json writes them without spaces.
-  const { rows } = await db.execute<{ truncated: boolean; features: string | null }>(sql`
-    SELECT count(*) > ${maxFeaturesPerResponse} AS truncated,
-           string_agg(feature, ',' ORDER BY rank) FILTER (WHERE rank <= ${maxFeaturesPerResponse}) AS features
-    FROM (
-      SELECT row_number() OVER (ORDER BY CASE road_class WHEN 'motorway' THEN 0 WHEN 'trunk' THEN 1 WHEN 'primary' THEN 2
-                                                          WHEN 'secondary' THEN 3 WHEN 'tertiary' THEN 4 ELSE 5 END, id) AS rank,
-             '{"type":"Feature","geometry":' || ST_AsGeoJSON(ST_Simplify(geom, ${tolerance}, true), 6) || ',"properties":' ||
-             row_to_json((SELECT p FROM (SELECT id, road_class AS "roadClass", lanes_forward AS "lanesForward", lanes_backward AS "lanesBackward",
-                                                oneway, closed, bridge, name) p))::text || '}' AS feature
-      FROM road_segments
-      WHERE layer_id = ${layerId} AND geom && ST_MakeEnvelope(${w}, ${s}, ${e}, ${n}, 4326)
-      ORDER BY rank
-      LIMIT ${maxFeaturesPerResponse + 1}
-    ) f`);
-  const row = rows[0]!;
-  return `{"type":"FeatureCollection","truncated":${row.truncated},"features":[${row.features ?? ''}]}`;
-}
-
 /** A page of a road layer's segments; the caller has checked that the layer is its plan's (activeLayerVersion). */
 export async function segmentPageOfLayer(db: Database, layerId: number, query: z.output<typeof segmentPageQuerySchema>): Promise<SegmentPage> {
   const filters: SQL[] = [eq(roadSegments.layerId, layerId)];

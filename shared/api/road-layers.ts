@@ -47,43 +47,6 @@ export type SegmentPageQuery = z.input<typeof segmentPageQuerySchema>;
 export const segmentPageSchema = z.object({ items: z.array(segmentSchema), total: z.number().int() });
 export type SegmentPage = z.infer<typeof segmentPageSchema>;
 
-const bboxString = z
-  .string()
-  .transform((s) => s.split(',').map(Number))
-  .pipe(z.tuple([z.number().min(-180).max(180), z.number().min(-90).max(90), z.number().min(-180).max(180), z.number().min(-90).max(90)]));
-
-export const segmentMapQuerySchema = z.object({
-  // west,south,east,north in degrees
-  bbox: bboxString,
-  zoom: z.coerce.number().min(0).max(24).default(14),
-});
-
-export const segmentMapPropertiesSchema = z.object({
-  id: z.number().int(),
-  roadClass: roadClassSchema,
-  lanesForward: z.number().int().nullable(),
-  lanesBackward: z.number().int().nullable(),
-  oneway: z.boolean(),
-  closed: z.boolean(),
-  bridge: z.boolean(),
-  name: z.string().nullable(),
-});
-export type SegmentMapProperties = z.infer<typeof segmentMapPropertiesSchema>;
-
-export const segmentMapSchema = z.object({
-  type: z.literal('FeatureCollection'),
-  features: z.array(
-    z.object({
-      type: z.literal('Feature'),
-      geometry: z.object({ type: z.literal('LineString'), coordinates: z.array(z.tuple([z.number(), z.number()])) }),
-      properties: segmentMapPropertiesSchema,
-    }),
-  ),
-  // True when the viewport held more segments than one response carries.
-  truncated: z.boolean(),
-});
-export type SegmentMap = z.infer<typeof segmentMapSchema>;
-
 export const segmentParamsSchema = z.object({
   planId: z.string().uuid('Not a valid identifier.'),
   segmentId: z.coerce.number().int().positive(),

@@ -4,7 +4,6 @@ import type { ImportOptionsInput } from '@shared/api/road-import';
 import type { SegmentAttributesPatch } from '@shared/api/road-attributes';
 import {
   roadLayerResponseSchema,
-  segmentMapSchema,
   segmentPageSchema,
   segmentSchema,
   type SegmentPageQuery,
@@ -35,12 +34,6 @@ export async function uploadRoadLayer(
   await importFile(planId, 'road-layer', file, { fields, onProgress: options.onProgress, onServerProgress: options.onServerProgress, signal: options.signal });
   return { layer: await getRoadLayer(planId) };
 }
-
-/** west,south,east,north in degrees. */
-export type Bbox = [number, number, number, number];
-
-export const getSegmentMap = (planId: string, bbox: Bbox, zoom: number, signal?: AbortSignal) =>
-  request('GET', `${base(planId)}/segments/map?bbox=${bbox.join(',')}&zoom=${zoom}`, segmentMapSchema, undefined, { signal });
 
 export function segmentPageSearch(query: SegmentPageQuery): string {
   const params = new URLSearchParams();

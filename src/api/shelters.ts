@@ -1,9 +1,8 @@
-// Shelters and exits of a plan: list, place (create), edit, delete, upload as GeoJSON points;
+// Shelters and exits of a plan: list, place (create), edit, delete (files go up as import jobs, imports.ts);
 // and which road nodes zones and shelters attach to.
 import { z } from 'zod';
 import { attachmentsSchema, shelterListSchema, shelterSchema, type ShelterCreate, type ShelterUpdate } from '@shared/api/zones-shelters';
 import { request } from './http';
-import { uploadFile, type UploadProgress } from './upload';
 
 const base = (planId: string) => `/plans/${planId}/shelters`;
 
@@ -12,8 +11,5 @@ export const createShelter = (planId: string, input: ShelterCreate) => request('
 export const updateShelter = (planId: string, shelterId: number, input: ShelterUpdate) =>
   request('PATCH', `${base(planId)}/${shelterId}`, shelterSchema, input);
 export const deleteShelter = (planId: string, shelterId: number) => request('DELETE', `${base(planId)}/${shelterId}`, z.undefined());
-
-export const uploadShelters = (planId: string, file: File, onProgress?: (p: UploadProgress) => void) =>
-  uploadFile(`${base(planId)}/upload`, file, shelterListSchema, { onProgress });
 
 export const getAttachments = (planId: string) => request('GET', `/plans/${planId}/attachments`, attachmentsSchema);

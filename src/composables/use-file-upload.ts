@@ -6,14 +6,17 @@ import { ApiError } from '@/api/api-error';
 import { badFeatureLines } from '@/format/import-report';
 import { messageOf } from '@/format/error-message';
 
-/** `send` uploads the file and answers the words to show when it worked. */
-export function useFileUpload(send: (file: File) => Promise<string>) {
+/** `send` uploads the file and answers the words to show when it worked; it may report what the
+ *  server is doing meanwhile (an import job's phase) through `progress`. */
+export function useFileUpload(send: (file: File, progress: (text: string) => void) => Promise<string>) {
   const input = ref<HTMLInputElement | null>(null);
   const message = ref('');
   const error = ref('');
   // A refused file names its bad features; the first few are listed under the message.
   const problems = ref<string[]>([]);
   const busy = ref(false);
+  // What the server is doing with the file while busy ('' when nothing is reported).
+  const progress = ref('');
 
   function choose() {
     input.value?.click();
@@ -28,15 +31,17 @@ export function useFileUpload(send: (file: File) => Promise<string>) {
     error.value = '';
     problems.value = [];
     busy.value = true;
+    progress.value = '';
     try {
-      message.value = await send(file);
+      message.value = await send(file, (text) => (progress.value = text));
     } catch (e) {
       error.value = messageOf(e);
       problems.value = e instanceof ApiError && e.importFailure ? badFeatureLines(e.importFailure.badFeatures) : [];
     } finally {
       busy.value = false;
+      progress.value = '';
     }
   }
 
-  return { input, message, error, problems, busy, choose, picked };
+  return { input, message, error, problems, busy, progress, choose, picked };
 }

@@ -5,6 +5,7 @@ import { ref } from 'vue';
 import type { Attachments, Shelter, ShelterCreate, ShelterUpdate, Zone, ZoneCreate, ZoneUpdate } from '@shared/api/zones-shelters';
 import * as zonesApi from '@/api/zones';
 import * as sheltersApi from '@/api/shelters';
+import { importFile } from '@/api/imports';
 import { ApiError } from '@/api/api-error';
 import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
@@ -72,12 +73,21 @@ export const useZonesSheltersStore = defineStore('zones-shelters', () => {
     changed();
   }
 
-  async function uploadZones(file: File): Promise<number> {
-    const answer = await zonesApi.uploadZones(planId.value, file);
-    zones.value = [...zones.value, ...answer.zones];
+  /**
+   * Uploads a zone or shelter file as an import job and follows it to its end (the server's phase
+   * and share done go to `onServerProgress`); then reads the list again. Resolves with how many
+   * were added; a refused file throws with its reasons.
+   */
+  async function importPlaces(kind: 'zones' | 'shelters', file: File, onServerProgress?: (phase: string, share: number) => void): Promise<number> {
+    const done = await importFile(planId.value, kind, file, { onServerProgress });
+    const created = Number(done.outcome?.['created'] ?? 0);
+    if (kind === 'zones') zones.value = await zonesApi.listZones(planId.value);
+    else shelters.value = await sheltersApi.listShelters(planId.value);
     changed();
-    return answer.zones.length;
+    return created;
   }
+
+  const uploadZones = (file: File, onServerProgress?: (phase: string, share: number) => void) => importPlaces('zones', file, onServerProgress);
 
   async function createShelter(input: ShelterCreate): Promise<Shelter> {
     const shelter = await sheltersApi.createShelter(planId.value, input);
@@ -99,12 +109,7 @@ export const useZonesSheltersStore = defineStore('zones-shelters', () => {
     changed();
   }
 
-  async function uploadShelters(file: File): Promise<number> {
-    const answer = await sheltersApi.uploadShelters(planId.value, file);
-    shelters.value = [...shelters.value, ...answer.shelters];
-    changed();
-    return answer.shelters.length;
-  }
+  const uploadShelters = (file: File, onServerProgress?: (phase: string, share: number) => void) => importPlaces('shelters', file, onServerProgress);
 
   return {
     planId,

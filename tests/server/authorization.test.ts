@@ -130,7 +130,6 @@ const rows: Row[] = [
     expect: writers(200),
     call: (f) => ({ params: { planId: f.drill.id }, file: { bytes: smallRoadFile(['Tannery Lane', 'Weir Street', 'Lock Bridge']), name: 'veltmoor-drill-roads.geojson' } }),
   },
-  { route: 'GET /api/plans/:planId/segments/map', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id }, query: `bbox=${f.plan.bbox}&zoom=14` }) },
   { route: 'GET /api/plans/:planId/segments', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
   { route: 'GET /api/plans/:planId/segments/:segmentId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, segmentId: f.plan.segmentId } }) },
   {

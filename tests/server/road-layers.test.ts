@@ -121,20 +121,6 @@ describe('uploading a road layer', () => {
 });
 
 describe('reading segments', () => {
-  it('returns the segments in a viewport as GeoJSON', async () => {
-    const all = await viewer.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '9.99,49.99,10.02,50.01', zoom: 16 }).expect(200);
-    expect(all.body.features).toHaveLength(5);
-    expect(all.body.features[0].geometry.type).toBe('LineString');
-    const west = await viewer.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '9.99,49.99,10.004,50.01', zoom: 16 }).expect(200);
-    // Only the western half of East Road lies in that box.
-    expect(west.body.features.map((f: { properties: { name: string } }) => f.properties.name)).toEqual(['East Road']);
-  });
-
-  it('rejects a malformed viewport', async () => {
-    const res = await viewer.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '1,2,3' }).expect(400);
-    expect(res.body.error.fields[0].path).toBe('bbox');
-  });
-
   it('pages, sorts and filters the segment table', async () => {
     const page = await viewer.agent.get(`/api/plans/${planId}/segments`).query({ pageSize: 2, sortBy: 'lengthMeters', sortOrder: 'desc' }).expect(200);
     expect(page.body.total).toBe(5);
@@ -167,20 +153,6 @@ describe('editing segments', () => {
     expect(rows[0].data_version).toBeGreaterThan(0);
   });
 
-  it('shows an edit on the map at once, though the map answer is kept ready per data version', async () => {
-    const view = { bbox: '9.99,49.99,10.02,50.01', zoom: 16 };
-    const mapOf = async () => (await viewer.agent.get(`/api/plans/${planId}/segments/map`).query(view).expect(200)).body as {
-      features: { properties: { id: number; lanesForward: number } }[];
-    };
-    const segment = await firstSegment('North Lane');
-    const lanes = (map: Awaited<ReturnType<typeof mapOf>>) => map.features.find((f) => f.properties.id === segment.id)!.properties.lanesForward;
-    const before = await mapOf();
-    expect(await mapOf()).toEqual(before);
-    const changed = lanes(before) === 3 ? 2 : 3;
-    await planner.agent.patch(`/api/plans/${planId}/segments/${segment.id}`).set('x-csrf-token', planner.csrf).send({ lanesForward: changed }).expect(200);
-    expect(lanes(await mapOf())).toBe(changed);
-  });
-
   it('shows an edit in the road table at once, though each page is kept ready per data version', async () => {
     const pageOf = async () => (await viewer.agent.get(`/api/plans/${planId}/segments`).query({ name: 'North Lane' }).expect(200)).body as { items: { id: number; lanesForward: number }[] };
     const before = await pageOf();
@@ -191,8 +163,8 @@ describe('editing segments', () => {
     expect((await pageOf()).items.find((i) => i.id === segment.id)!.lanesForward).toBe(changed);
   });
 
-  it('sends the map gzip-compressed when asked, plain otherwise, and answers a matching ETag with 304', async () => {
-    const path = `/api/plans/${planId}/segments/map?bbox=9.99,49.99,10.02,50.01&zoom=15`;
+  it('sends a page of the road table gzip-compressed when asked, plain otherwise, and answers a matching ETag with 304', async () => {
+    const path = `/api/plans/${planId}/segments?page=1&pageSize=500`;
     const plain = await viewer.agent.get(path).set('accept-encoding', 'identity').expect(200);
     expect(plain.headers['content-encoding']).toBeUndefined();
     const raw = await viewer.agent
@@ -240,6 +212,6 @@ describe('editing segments', () => {
     const other = await signIn(ctx.app, otherAccounts[1]!.email, otherAccounts[1]!.password);
     await other.agent.get(`/api/plans/${planId}/segments/${segment.id}`).expect(404);
     await other.agent.patch(`/api/plans/${planId}/segments/${segment.id}`).set('x-csrf-token', other.csrf).send({ closed: true }).expect(404);
-    await other.agent.get(`/api/plans/${planId}/segments/map`).query({ bbox: '9,49,11,51' }).expect(404);
+    await other.agent.get(`/api/plans/${planId}/segments`).expect(404);
   });
 });

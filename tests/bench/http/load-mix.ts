@@ -19,6 +19,15 @@ export type NamedRequest = AutocannonRequest & { route: string };
 
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(Math.random() * xs.length)]!;
 
+// The web-map (XYZ, spherical Mercator) tile holding the centre of `bbox` at zoom z (common practice).
+function roadTileAtCentre(bbox: string, z: number): string {
+  const [w, s, e, n] = bbox.split(',').map(Number) as [number, number, number, number];
+  const lon = (w + e) / 2;
+  const lat = ((s + n) / 2) * (Math.PI / 180);
+  const tiles = 2 ** z;
+  return `${z}/${Math.floor(((lon + 180) / 360) * tiles)}/${Math.floor(((1 - Math.log(Math.tan(lat) + 1 / Math.cos(lat)) / Math.PI) / 2) * tiles)}`;
+}
+
 export function readRequests(f: BenchFixture): NamedRequest[] {
   const plan = `/api/plans/${f.planId}`;
   const get = (route: string, path: string): NamedRequest => ({ route, method: 'GET', path });
@@ -33,7 +42,7 @@ export function readRequests(f: BenchFixture): NamedRequest[] {
     get('GET …/runs', `${plan}/runs`),
     get('GET …/runs/:runId', `${plan}/runs/${f.finishedRunId}`),
     get('GET …/segments?page=1', `${plan}/segments?page=1`),
-    get('GET …/segments/map', `${plan}/segments/map?bbox=${f.bbox}&zoom=14`),
+    get('GET …/tiles/roads/:z/:x/:y', `${plan}/tiles/roads/${roadTileAtCentre(f.bbox, 14)}`),
     get('GET /api/briefings', '/api/briefings'),
   ];
 }
