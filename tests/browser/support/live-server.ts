@@ -10,6 +10,8 @@ import { createTestDatabase, type TestDatabase } from '../../server/support/data
 import { startRunQueue } from '../../../server/queue/run-queue';
 import { createRunExecutor } from '../../../server/run-execution/run-executor';
 import { createImportExecutor } from '../../../server/import-execution/import-executor';
+import { startProposalQueue } from '../../../server/queue/proposal-queue';
+import { createProposalExecutor } from '../../../server/optimization/proposal-executor';
 
 const clientDir = fileURLToPath(new URL('../../../dist', import.meta.url));
 
@@ -25,7 +27,10 @@ export async function startLiveServer(): Promise<LiveServer> {
   await runQueue.work(1, (job) => executor.execute(job));
   const importer = createImportExecutor(database.db, config, console.error);
   await runQueue.workImports(1, ({ importId }) => importer.execute(importId));
-  const app = createApp({ config, db: database.db, pool: database.pool, clientDir, runQueue, importQueue: runQueue });
+  const proposalQueue = await startProposalQueue(runQueue.boss, config);
+  const proposalExecutor = createProposalExecutor(database.db, config, console.error);
+  await proposalQueue.work(1, ({ proposalId }) => proposalExecutor.execute(proposalId));
+  const app = createApp({ config, db: database.db, pool: database.pool, clientDir, runQueue, importQueue: runQueue, proposalQueue });
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, '127.0.0.1', () => resolve(s));
   });
