@@ -15,10 +15,12 @@ export const BRIEFING_MAP_BOX = { width: 516 - 28, height: 350 - 46 - 28 };
 /**
  * Mean distance between drawn roads on the page below which a further class is left out, pt.
  * Roads of a grid with spacing d fill an area A with 2·A/d of line, so d = 2·A / drawn length.
- * Three points keeps thin lines (1–2.5 pt wide) apart with white between them (common practice
- * in small-scale cartography: thin out rather than print a solid tone).
+ * Six points keeps thin lines (1–2.5 pt wide) well apart with white between them, so the zones,
+ * labels and choke points stay readable over the mesh (common practice in small-scale
+ * cartography: thin out rather than print a solid tone; 3 pt still printed the county's
+ * collector grid as a dense mesh).
  */
-export const MIN_ROAD_SPACING_PT = 3;
+export const MIN_ROAD_SPACING_PT = 6;
 
 /** Drawn segments above which each class is merged into lines and simplified. */
 export const MERGE_ABOVE_SEGMENTS = 5000;

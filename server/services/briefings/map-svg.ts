@@ -166,7 +166,8 @@ function drawLegend(x: number, y: number, width: number, scale: number): string 
   // Scale bar, right-aligned: two alternating halves so the midpoint can be read off.
   const barM = scaleBarLength(scale, Math.min(120, width * 0.22));
   const barW = barM * scale;
-  const bx = x + width - barW - 4;
+  // Room on the right for the end label, centred on the bar's end ("10 km" is about 20 pt wide).
+  const bx = x + width - barW - 16;
   const by = row1 + 4;
   out.push(
     `<rect x="${n(bx)}" y="${n(by)}" width="${n(barW / 2)}" height="4" fill="${MAP_COLOURS.text}"/>`,

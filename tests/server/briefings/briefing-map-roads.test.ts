@@ -14,14 +14,17 @@ const county = [
 const countyExtent = { widthMeters: 29_900, heightMeters: 29_900 };
 
 describe('roads on the briefing map', () => {
-  it('leaves the local streets of a county out, keeps the arterials, and merges them', () => {
+  it('leaves the local streets and collectors of a county out, keeps the arterials, and merges them', () => {
     const plan = planMapRoads(county, countyExtent);
-    expect(plan.drawn).toEqual(['primary', 'secondary', 'tertiary']);
-    expect(plan.leftOut).toEqual([{ roadClass: 'residential', segments: 143_280 }]);
+    expect(plan.drawn).toEqual(['primary', 'secondary']);
+    expect(plan.leftOut).toEqual([
+      { roadClass: 'tertiary', segments: 17_910 },
+      { roadClass: 'residential', segments: 143_280 },
+    ]);
     expect(plan.merge).toBe(true);
     // Spacing of what is drawn, by the grid rule d = 2·A / L, stays at or above the limit.
     const side = 29_900 * plan.scale;
-    const drawnLength = (597_229 + 1_192_734 + 1_789_102) * plan.scale;
+    const drawnLength = (597_229 + 1_192_734) * plan.scale;
     expect((2 * side * side) / drawnLength).toBeGreaterThanOrEqual(MIN_ROAD_SPACING_PT);
     expect(plan.toleranceMeters).toBeCloseTo(0.5 / plan.scale);
   });
