@@ -6,13 +6,16 @@ import {
   type EvacuationProblem,
   type FlowNetwork,
 } from '../../../shared/flow';
+import { genrmf, randomLevelGraph, type FamilyNetwork } from './families';
 import { generateCity, type CitySpec } from './road-like-city';
 
 export interface BenchInstance {
   name: string;
-  kind: 'static' | 'time-expanded';
+  kind: 'static' | 'time-expanded' | 'family';
   description: string;
   spec: CitySpec;
+  /** For the 'family' kind: the s–t network itself (no evacuation problem behind it). */
+  family?: () => FamilyNetwork;
 }
 
 const city = (width: number, spec: Partial<CitySpec> = {}): CitySpec => ({
@@ -41,6 +44,10 @@ export const INSTANCES: BenchInstance[] = [
     description: 'city of 80 × 80 intersections (250 m blocks), Δ = 30 s, T = 165 steps',
     spec: city(80, { blockMeters: 250, vehiclesPerNode: 12, horizonSteps: 165 }),
   },
+  { name: 'genrmf-long', kind: 'family', description: 'GENRMF-like, 64 frames of 16 × 16', spec: city(2), family: () => genrmf(16, 64, 11) },
+  { name: 'genrmf-wide', kind: 'family', description: 'GENRMF-like, 16 frames of 48 × 48', spec: city(2), family: () => genrmf(48, 16, 12) },
+  { name: 'rlg-long', kind: 'family', description: 'random level graph, 1,024 levels of 64 nodes', spec: city(2), family: () => randomLevelGraph(64, 1024, 13) },
+  { name: 'rlg-wide', kind: 'family', description: 'random level graph, 64 levels of 1,024 nodes', spec: city(2), family: () => randomLevelGraph(1024, 64, 14) },
 ];
 
 export function findInstance(name: string): BenchInstance {
@@ -55,6 +62,7 @@ export function problemOf(instance: BenchInstance): EvacuationProblem {
 
 /** The s–t network the max-flow rows of the table solve. */
 export function networkOf(instance: BenchInstance, problem: EvacuationProblem): { network: FlowNetwork; source: number; sink: number } {
+  if (instance.family) return instance.family();
   if (instance.kind === 'static') {
     const steady = buildSteadyStateNetwork(problem);
     return { network: steady.network, source: steady.source, sink: steady.sink };

@@ -1,4 +1,4 @@
-// `npm run bench [-- --quick] [-- --only NAME] [-- --readme]`: generates the bench instances,
+// `npm run bench [-- --quick] [-- --only NAME] [-- --families] [-- --readme]`: generates the bench instances,
 // times every max-flow algorithm on each (one process per measurement, peak RSS included),
 // times Boost's boykov_kolmogorov_max_flow and push_relabel_max_flow on the same instances
 // (a small DIMACS reader of ours compiled with g++, when libboost-graph-dev is installed),
@@ -21,7 +21,11 @@ const BOOST_HEADER = '/usr/include/boost/graph/boykov_kolmogorov_max_flow.hpp';
 const SLOW_BUDGET_MS = 300_000;
 const ALGORITHMS = ['incremental-bfs', 'boykov-kolmogorov', 'push-relabel', 'dinic', 'edmonds-karp'] as const;
 
-const { values } = parseArgs({ options: { quick: { type: 'boolean', default: false }, only: { type: 'string' }, readme: { type: 'boolean', default: false } } });
+const { values } = parseArgs({
+  options: { quick: { type: 'boolean', default: false }, only: { type: 'string' }, readme: { type: 'boolean', default: false }, families: { type: 'boolean', default: false } },
+});
+/** --families: only the layered families (GENRMF-like, random level graphs), written to their own README table. */
+const selected = (i: BenchInstance): boolean => (!values.only || i.name === values.only) && (values.families ? i.kind === 'family' : i.kind !== 'family' || !!values.only);
 mkdirSync(out, { recursive: true });
 
 interface Row {
@@ -60,7 +64,7 @@ const median = (xs: number[]): number => [...xs].sort((a, b) => a - b)[Math.floo
 
 function benchInstance(instance: BenchInstance, boost: string | null): Row[] {
   const rows: Row[] = [];
-  const large = instance.name === 'static-250k' || instance.kind === 'time-expanded';
+  const large = instance.name === 'static-250k' || instance.kind !== 'static';
   for (const algorithm of ALGORITHMS) {
     const slow = algorithm === 'edmonds-karp' || algorithm === 'dinic';
     if (slow && large && values.quick) continue;
@@ -87,7 +91,7 @@ function benchInstance(instance: BenchInstance, boost: string | null): Row[] {
     const file = `${out}${instance.name}.max`;
     if (!existsSync(file)) child(['--instance', instance.name, '--write-dimacs', file]);
     for (const algorithm of ['bk', 'push-relabel']) {
-      const runs = instance.kind === 'static' ? 3 : 1;
+      const runs = instance.kind === 'time-expanded' ? 1 : 3;
       const measured: { value: number; solveMs: number; peakRssMb: number }[] = [];
       for (let k = 0; k < runs; k++) {
         process.stderr.write(`  ${instance.name} boost ${algorithm} …`);
@@ -130,8 +134,8 @@ const machine = {
 process.stderr.write(`${JSON.stringify(machine)}\n`);
 
 const rows: Row[] = [];
-for (const instance of INSTANCES.filter((i) => !values.only || i.name === values.only)) rows.push(...benchInstance(instance, boost));
-const evacuation = INSTANCES.filter((i) => i.kind === 'time-expanded' && (!values.only || i.name === values.only)).map((i) => {
+for (const instance of INSTANCES.filter(selected)) rows.push(...benchInstance(instance, boost));
+const evacuation = INSTANCES.filter((i) => i.kind === 'time-expanded' && selected(i)).map((i) => {
   process.stderr.write(`  ${i.name} solveEvacuation …`);
   const r = child(['--instance', i.name, '--evacuation']);
   process.stderr.write(` ${r.totalMs} ms\n`);
@@ -156,6 +160,18 @@ for (const instance of INSTANCES) {
     lines.push(`| ${instance.name} | ${fmt(size.nodes)} | ${fmt(size.arcs)} | ${r.solver} | ${fmt(r.value)} | ${r.aborted ? '> ' : ''}${fmt(r.solveMs)} | ${ratio} | ${fmt(r.peakRssMb)} | ${notes} |`);
   }
 }
+// Each of our solvers against the faster Boost solver, per instance above: the geometric mean of the ratios.
+const geometricMeans: string[] = [];
+for (const solver of [...new Set(rows.filter((r) => r.solver.startsWith('ours')).map((r) => r.solver))]) {
+  const ratios = INSTANCES.flatMap((instance) => {
+    const mine = rows.filter((r) => r.instance === instance.name);
+    const boostBest = Math.min(...mine.filter((r) => r.solver.startsWith('Boost')).map((r) => r.solveMs!));
+    const r = mine.find((x) => x.solver === solver);
+    return r && !r.aborted && r.solveMs && Number.isFinite(boostBest) ? [r.solveMs / boostBest] : [];
+  });
+  if (ratios.length > 0) geometricMeans.push(`${solver} ${Math.exp(ratios.reduce((s, x) => s + Math.log(x), 0) / ratios.length).toFixed(2)} (${ratios.length} instances)`);
+}
+if (geometricMeans.length > 0) lines.push('', `Geometric mean of time ÷ faster Boost over the instances above: ${geometricMeans.join('; ')}.`);
 lines.push('');
 for (const e of evacuation) {
   lines.push(
@@ -187,14 +203,14 @@ for (const name of ['static-250k', 'expanded-5m']) {
   if (fast && ek) check(`faster algorithm at least 10× Edmonds–Karp on ${name}`, ek.solveMs! >= 10 * fast.solveMs!, `${ek.aborted ? 'more than ' : ''}${(ek.solveMs! / fast.solveMs!).toFixed(0)}× (${ek.aborted ? '> ' : ''}${fmt(ek.solveMs)} ms vs ${fmt(fast.solveMs)} ms)`);
 }
 lines.push('', `Load average at the end: ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}.`);
-lines.push('', 'Targets of issue 3:', '', ...targets);
+if (!values.families) lines.push('', 'Targets of issue 3:', '', ...targets);
 const table = lines.join('\n');
 process.stdout.write(`${table}\n`);
 writeFileSync(`${out}results.json`, JSON.stringify({ machine, rows, evacuation, targets }, null, 2));
 if (values.readme) {
   const readme = `${here}README.md`;
   const text = readFileSync(readme, 'utf8');
-  const start = '<!-- bench:start -->';
-  const end = '<!-- bench:end -->';
+  const start = values.families ? '<!-- families:start -->' : '<!-- bench:start -->';
+  const end = values.families ? '<!-- families:end -->' : '<!-- bench:end -->';
   writeFileSync(readme, text.replace(new RegExp(`${start}[\\s\\S]*${end}`), `${start}\n${table}\n${end}`));
 }
