@@ -3,7 +3,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { runParametersSchema } from '../../shared/api/runs';
 import { planParamsSchema } from '../../shared/api/plans';
-import { bottlenecksCsv, curveCsv } from '../../shared/model/run-export-csv';
+import { chokePointsCsv, curveCsv } from '../../shared/model/run-export-csv';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { ConflictError } from '../errors';
@@ -60,7 +60,7 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, ans
 
   router.get('/runs/:runId/export/bottlenecks.csv', requireMember('plans:read'), async (req, res) => {
     const { row, result } = await finishedResult(req);
-    res.attachment(`run-${row.id.slice(0, 8)}-bottlenecks.csv`).type('text/csv').send(bottlenecksCsv(result));
+    res.attachment(`run-${row.id.slice(0, 8)}-bottlenecks.csv`).type('text/csv').send(chokePointsCsv(result));
   });
 
   router.get('/runs/:runId/export/curve.csv', requireMember('plans:read'), async (req, res) => {

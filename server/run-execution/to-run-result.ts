@@ -1,7 +1,7 @@
 // The engine's answer → the stored RunResult: engine road indices become segment ids and
 // directions, steps become minutes, vehicles become persons with each zone's own persons per
 // vehicle (a shelter's persons follow the zones its vehicles came from).
-import type { Bottleneck, Fix, RoadRef, RunResult } from '../../shared/api/runs';
+import type { ChokePoint, Fix, RoadRef, RunResult } from '../../shared/api/runs';
 import { suggestedTimeStepSeconds, type EvacuationResult } from '../../shared/flow';
 import { ENGINE_VERSION } from './engine-version';
 import type { RunInput } from '../../shared/model/run-input';
@@ -39,7 +39,7 @@ const personsPerVehicleOf = (input: RunInput) => input.zones.map((z) => (z.vehic
 /** The choke points: the time-expanded cut first (largest share first, as the engine ranks them),
  *  then the static-cut roads the time-expanded cut does not hold (a road closed at the start is
  *  none: it carries nothing). */
-function chokePointsOf(input: RunInput, r: Solved, { minutesPerStep }: Units): Bottleneck[] {
+function chokePointsOf(input: RunInput, r: Solved, { minutesPerStep }: Units): ChokePoint[] {
   const roads = input.problem.roads;
   const roadRef = roadRefOf(input);
   const steadyCapacity = steadyCapacities(input);
@@ -48,7 +48,7 @@ function chokePointsOf(input: RunInput, r: Solved, { minutesPerStep }: Units): B
   for (const f of r.fixes) if (f.kind === 'add-lane') laneGain.set(f.road, f.gainVehPerHour);
 
   const listed = new Set<number>();
-  const chokePoints: Bottleneck[] = r.bottlenecks.roads.map((b) => {
+  const chokePoints: ChokePoint[] = r.bottlenecks.roads.map((b) => {
     listed.add(b.road);
     return {
       ...roadRef(b.road),

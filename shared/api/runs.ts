@@ -91,7 +91,7 @@ export const segmentGeometrySchema = z.object({
 });
 export type SegmentGeometry = z.infer<typeof segmentGeometrySchema>;
 
-export const bottleneckSchema = roadRefSchema.extend({
+export const chokePointSchema = roadRefSchema.extend({
   capacityVehiclesPerHour: z.number(),
   shareOfCut: z.number(),
   // Time windows (minutes from the start) during which this road is in the time-expanded cut.
@@ -99,7 +99,7 @@ export const bottleneckSchema = roadRefSchema.extend({
   inStaticCut: z.boolean(),
   gainPerExtraLaneVehiclesPerHour: z.number(),
 });
-export type Bottleneck = z.infer<typeof bottleneckSchema>;
+export type ChokePoint = z.infer<typeof chokePointSchema>;
 
 export const fixSchema = roadRefSchema.extend({
   kind: z.enum(['add-lane', 'reopen']),
@@ -193,7 +193,11 @@ export const runResultSchema = z.object({
   shelters: z.array(shelterResultSchema),
   // Per-road figures are not part of it (see roadResultSchema); results stored before they
   // moved out had an `arcs` list, which the migration moved into run_road_results.
-  bottlenecks: z.array(bottleneckSchema),
+  // The choke points. The field keeps its first name: stored results and the frozen content of
+  // briefings carry it, and a signed briefing's printed SHA-256 is computed over that content,
+  // so renaming the field would change what every earlier briefing hashes to. Everywhere else
+  // (types, functions, screens) they are choke points.
+  bottlenecks: z.array(chokePointSchema),
   // Absent from results stored by engine versions before it was reported.
   arrivalLimits: arrivalLimitsSchema.optional(),
   // Absent from results stored before engine version cutline-flow 1.3.

@@ -13,7 +13,7 @@ export function toCsv(header: string[], rows: (string | number | boolean | null)
 
 const windows = (w: [number, number][]) => w.map(([a, b]) => `${a}-${b}`).join(' ');
 
-export function bottlenecksCsv(result: RunResult): string {
+export function chokePointsCsv(result: RunResult): string {
   return toCsv(
     ['rank', 'segment_id', 'direction', 'name', 'road_class', 'capacity_veh_per_h', 'share_of_cut', 'in_static_cut', 'cut_windows_min', 'gain_per_extra_lane_veh_per_h'],
     result.bottlenecks.map((b, i) => [

@@ -2,17 +2,17 @@
 // pane above the roads: a white casing and a thick violet line, so they stand out on any
 // utilisation colour; the one picked in the table is orange. Each has a popup with its figures.
 import { watch, type Ref, type ShallowRef } from 'vue';
-import type { Bottleneck } from '@shared/api/runs';
+import type { ChokePoint } from '@shared/api/runs';
 import { L } from '@/map/leaflet';
 import { travelDirection } from '@/map/compass';
 import { chokePointCasing, chokePointLine, chokePointSelected } from '@/map/utilisation-scale';
-import { bottleneckKey, chokePointPopupHtml, type ChokePointContext } from '@/format/run-result';
+import { chokePointKey, chokePointPopupHtml, type ChokePointContext } from '@/format/run-result';
 import type { WorkspaceMap } from './use-leaflet-map';
 
 type Coordinates = [number, number][];
 
 export type ChokePointsLayerOptions = {
-  bottlenecks: Ref<readonly Bottleneck[]>;
+  chokePoints: Ref<readonly ChokePoint[]>;
   context: Ref<ChokePointContext>;
   geometryOf: (segmentId: number) => Coordinates | undefined;
   /** Moves when more geometry became known. */
@@ -31,10 +31,10 @@ export function useChokePointsLayer(handle: ShallowRef<WorkspaceMap | null>, opt
     group ??= L.layerGroup().addTo(h.map);
     group.clearLayers();
     drawn.clear();
-    for (const b of options.bottlenecks.value) {
+    for (const b of options.chokePoints.value) {
       const coordinates = options.geometryOf(b.segmentId);
       if (!coordinates) continue;
-      const key = bottleneckKey(b);
+      const key = chokePointKey(b);
       const latLngs = coordinates.map(([lon, lat]) => [lat, lon] as [number, number]);
       const casing = L.polyline(latLngs, { ...chokePointCasing, renderer: h.chokeRenderer, pane: h.chokeRenderer.options.pane, interactive: false });
       const selected = options.selectedKey.value === key;
@@ -58,7 +58,7 @@ export function useChokePointsLayer(handle: ShallowRef<WorkspaceMap | null>, opt
     if (entry) entry.line.openPopup();
   }
 
-  watch([handle, options.bottlenecks, options.context, options.geometryVersion, options.selectedKey], draw, { immediate: true });
+  watch([handle, options.chokePoints, options.context, options.geometryVersion, options.selectedKey], draw, { immediate: true });
 
   return { openPopup, drawnCount: () => drawn.size };
 }

@@ -2,7 +2,7 @@
 // geometry (with the fixes', a short list) comes in one small answer per run, since the road
 // tiles on screen hold only the roads in view.
 import { watch, type Ref } from 'vue';
-import type { Bottleneck, Run } from '@shared/api/runs';
+import type { ChokePoint, Run } from '@shared/api/runs';
 import { getChokePointGeometry } from '@/api/map-tiles';
 
 type Coordinates = [number, number][];
@@ -10,7 +10,7 @@ type Coordinates = [number, number][];
 export type MissingGeometryOptions = {
   /** The run whose result is shown, or null. */
   run: Ref<Run | null>;
-  bottlenecks: Ref<readonly Bottleneck[]>;
+  chokePoints: Ref<readonly ChokePoint[]>;
   geometryOf: (segmentId: number) => Coordinates | undefined;
   remember: (more: Map<number, Coordinates>) => void;
 };
@@ -18,11 +18,11 @@ export type MissingGeometryOptions = {
 export function useMissingGeometry(options: MissingGeometryOptions) {
   let askedFor = '';
   watch(
-    [options.run, options.bottlenecks],
+    [options.run, options.chokePoints],
     async () => {
       const run = options.run.value;
       if (!run || askedFor === run.id) return;
-      if (options.bottlenecks.value.every((b) => options.geometryOf(b.segmentId))) return;
+      if (options.chokePoints.value.every((b) => options.geometryOf(b.segmentId))) return;
       askedFor = run.id;
       try {
         options.remember(await getChokePointGeometry(run.planId, run.id));

@@ -2,7 +2,7 @@
 // utilisation per road segment for the map, the curve series,
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
 import { cutShare } from '@shared/model/cut-share';
-import type { ArcFlow, Bottleneck, RoadResult, RunResult, RunStatus } from '@shared/api/runs';
+import type { ArcFlow, ChokePoint, RoadResult, RunResult, RunStatus } from '@shared/api/runs';
 import { formatPerHour, formatShare, formatWindows } from '@shared/format/numbers';
 import { headlineFigures, NINETY_PERCENT_NOTE, type HeadlineFigure } from '@shared/format/headline';
 
@@ -49,7 +49,7 @@ export function headlineTiles(result: RunResult): HeadlineTile[] {
 export { cutShare };
 
 /** When a choke point limits the evacuation, in words. */
-export function cutWindowsText(b: Bottleneck): string {
+export function cutWindowsText(b: ChokePoint): string {
   if (b.cutWindows.length > 0) return formatWindows(b.cutWindows);
   return b.inStaticCut ? 'once traffic is steady' : 'none';
 }
@@ -65,7 +65,7 @@ export function segmentLoad(road: RoadResult): SegmentLoad {
   return { utilisation: road.utilisation, forward: arc('forward'), backward: arc('backward') };
 }
 
-export const bottleneckKey = (b: Pick<Bottleneck, 'segmentId' | 'direction'>) => `${b.segmentId}:${b.direction}`;
+export const chokePointKey = (b: Pick<ChokePoint, 'segmentId' | 'direction'>) => `${b.segmentId}:${b.direction}`;
 
 /** Cumulative vehicles arrived by each step, as chart points (x in hours after the order; step i
  *  is at i × stepMinutes, as in the server's curve.csv). */
@@ -78,12 +78,12 @@ function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
-export function roadTitle(b: Pick<Bottleneck, 'name' | 'roadClass' | 'segmentId'>): string {
+export function roadTitle(b: Pick<ChokePoint, 'name' | 'roadClass' | 'segmentId'>): string {
   return b.name.trim() || `Unnamed ${b.roadClass.replaceAll('_', ' ')} (segment ${b.segmentId})`;
 }
 
 /** What one more lane would add, or why nothing is shown. */
-export function laneGainText(b: Bottleneck, gainsComputed: boolean): string {
+export function laneGainText(b: ChokePoint, gainsComputed: boolean): string {
   if (b.gainPerExtraLaneVehiclesPerHour > 0) return `+${formatPerHour(b.gainPerExtraLaneVehiclesPerHour)}`;
   return gainsComputed ? 'nothing (another road limits next)' : 'not worked out in this run';
 }
@@ -97,7 +97,7 @@ export const chokePointContext = (result: RunResult): ChokePointContext => ({
 });
 
 /** The popup of a choke point; every value from the data is escaped. */
-export function chokePointPopupHtml(b: Bottleneck, heading: string | null, context: ChokePointContext): string {
+export function chokePointPopupHtml(b: ChokePoint, heading: string | null, context: ChokePointContext): string {
   const rows: [string, string][] = [
     ['Capacity', formatPerHour(b.capacityVehiclesPerHour)],
     ['Share of the limiting capacity', formatShare(cutShare(b, context.steadyStateVehiclesPerHour))],

@@ -113,7 +113,7 @@ it('goes from the plans list to choke points on the map', async () => {
   const throughput = Number((await page.locator('[data-test="headline-throughput"] [data-test="headline-value"]').innerText()).replace(/ persons\/h$/, '').replaceAll(',', ''));
   expect(throughput).toBeGreaterThan(0);
   expect(await page.locator('[data-test="caution"]').innerText()).toContain("emergency operations plan");
-  expect(await page.locator('[data-test="bottleneck-row"]').count()).toBeGreaterThan(0);
+  expect(await page.locator('[data-test="choke-point-row"]').count()).toBeGreaterThan(0);
   // Choke points are drawn on their own SVG pane, over the canvas roads (a straight bridge is a
   // path with no height, which Playwright calls hidden: wait for it to be there, then check it).
   const chokePaths = page.locator('.leaflet-cutline-choke-points-pane path.cutline-choke-point');
@@ -138,7 +138,7 @@ it('goes from the plans list to choke points on the map', async () => {
   }
 
   // The first choke point in the table: the map zooms to it and opens its figures.
-  await page.locator('[data-test="bottleneck-row"]').first().click();
+  await page.locator('[data-test="choke-point-row"]').first().click();
   const popup = page.locator('.cutline-choke-popup');
   await popup.waitFor();
   expect(await popup.innerText()).toContain('Share of the limiting capacity');

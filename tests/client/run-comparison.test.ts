@@ -1,18 +1,18 @@
 // The comparison page's wording: run ids from the address, the headline table's differences
 // against the first run (signs, units, better or worse), and the choke-point changes.
 import { describe, expect, it } from 'vitest';
-import type { Bottleneck, RunResult } from '../../shared/api/runs';
+import type { ChokePoint, RunResult } from '../../shared/api/runs';
 import { chokePointPresence } from '../../shared/model/compare-runs';
 import { comparisonOrder, comparisonRows, presenceByChange, presenceSummary, runIdsFromQuery, runLabel } from '../../src/format/run-comparison';
 
 const a = '00000000-0000-4000-8000-00000000000a';
 const b = '00000000-0000-4000-8000-00000000000b';
 
-function bottleneck(segmentId: number, name: string): Bottleneck {
+function chokePoint(segmentId: number, name: string): ChokePoint {
   return { segmentId, direction: 'forward', name, roadClass: 'primary', capacityVehiclesPerHour: 2000, shareOfCut: 0.3, cutWindows: [], inStaticCut: true, gainPerExtraLaneVehiclesPerHour: 0 };
 }
 
-function result(vehPerHour: number, clearance: number | null, bottlenecks: Bottleneck[]): RunResult {
+function result(vehPerHour: number, clearance: number | null, chokePoints: ChokePoint[]): RunResult {
   return {
     headline: {
       steadyStateVehiclesPerHour: vehPerHour,
@@ -30,7 +30,7 @@ function result(vehPerHour: number, clearance: number | null, bottlenecks: Bottl
     curve: { stepMinutes: 1, deliveredVehicles: [0, 10] },
     zones: [],
     shelters: [],
-    bottlenecks,
+    bottlenecks: chokePoints,
     fixes: [],
     stats: { engineVersion: '1', algorithm: 'dinic', nodes: 1, arcs: 1, expandedNodes: 1, expandedArcs: 1, augmentations: 1, solveMs: 1, peakMemoryBytes: 1, verified: true },
   };
@@ -54,8 +54,8 @@ describe('runLabel', () => {
 });
 
 describe('comparisonRows', () => {
-  const base = result(5600, 300, [bottleneck(1, 'Quay Bridge'), bottleneck(2, 'Mill Bridge')]);
-  const closed = result(3600, null, [bottleneck(2, 'Mill Bridge'), bottleneck(3, 'Wharf Road')]);
+  const base = result(5600, 300, [chokePoint(1, 'Quay Bridge'), chokePoint(2, 'Mill Bridge')]);
+  const closed = result(3600, null, [chokePoint(2, 'Mill Bridge'), chokePoint(3, 'Wharf Road')]);
 
   it('gives each later run its difference from the first, signed, in units, marked better or worse', () => {
     const rows = comparisonRows([base, closed]);

@@ -106,7 +106,7 @@ describe.each([
 
   it('rank the choke points in the same order with the same capacity and share', () => {
     const screen = mount(FindingsChokePointTable, { props: { result }, ...mountOptions() });
-    const screenRows = screen.findAll('[data-test="bottleneck-row"]').map((row) => {
+    const screenRows = screen.findAll('[data-test="choke-point-row"]').map((row) => {
       const cells = row.findAll('td').map((td) => squeeze(td.text()));
       return { name: squeeze(row.find('td .font-weight-medium').text()), capacity: cells[1], share: cells[2] };
     });

@@ -11,7 +11,7 @@ import { assumptionsSection } from './sections/assumptions';
 import { cautionsSection } from './sections/cautions';
 import { COLOURS, styles } from './sections/document-styles';
 import { headlineFigures } from './sections/headline-figures';
-import { arrivalLimitsTable, bottleneckTable, fixRanking, mapFigure } from './sections/limiting-roads';
+import { arrivalLimitsTable, chokePointTable, fixRanking, mapFigure } from './sections/limiting-roads';
 import { STATUS_WORDS } from './sections/sign-off';
 import { titlePage } from './sections/title-page';
 import { shelterTable, zoneTable } from './sections/zones-and-shelters';
@@ -115,7 +115,7 @@ export function buildBriefingDocument(input: BriefingInput): TDocumentDefinition
     content: [
       ...titlePage(input),
       ...pageBreak(headlineFigures(input)),
-      ...pageBreak([...mapFigure(input), ...bottleneckTable(input), ...arrivalLimitsTable(input), ...fixRanking(input)]),
+      ...pageBreak([...mapFigure(input), ...chokePointTable(input), ...arrivalLimitsTable(input), ...fixRanking(input)]),
       ...zoneTable(input),
       ...shelterTable(input),
       ...pageBreak(searchesSection(input)),

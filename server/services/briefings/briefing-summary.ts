@@ -41,9 +41,9 @@ export function briefingSummary(input: BriefingInput): string {
   if (h.p95Minutes !== null) times.push(`95 % after ${formatDuration(h.p95Minutes)}`);
   if (times.length > 0) parts.push(`${times.join(', ').replace(/^./, (c) => c.toUpperCase())}.`);
 
-  const bottlenecks = rankedChokePoints(input.result).slice(0, 3);
-  if (bottlenecks.length > 0) {
-    parts.push(`The choke points, the roads that set the limit, are ${listInWords(bottlenecks.map((b) => roads.label(b)))}.`);
+  const chokePoints = rankedChokePoints(input.result).slice(0, 3);
+  if (chokePoints.length > 0) {
+    parts.push(`The choke points, the roads that set the limit, are ${listInWords(chokePoints.map((b) => roads.label(b)))}.`);
   }
   const [best] = rankFixes(input.result);
   if (best) {

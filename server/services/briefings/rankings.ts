@@ -3,15 +3,15 @@
 // on the screen, in the tables, the map badges and the summary.
 import { cutShare } from '../../../shared/model/cut-share';
 import { rankChokePoints } from '../../../shared/format/choke-points';
-import type { Bottleneck, Fix, RunResult } from '../../../shared/api/runs';
+import type { ChokePoint, Fix, RunResult } from '../../../shared/api/runs';
 
 /** A choke point's share of the limit, as the workspace shows it. */
-export function shareOfLimit(result: RunResult, b: Bottleneck): number {
+export function shareOfLimit(result: RunResult, b: ChokePoint): number {
   return cutShare(b, result.headline.steadyStateVehiclesPerHour);
 }
 
 /** The result's choke points in the one shared order. */
-export function rankedChokePoints(result: RunResult): Bottleneck[] {
+export function rankedChokePoints(result: RunResult): ChokePoint[] {
   return rankChokePoints(result.bottlenecks, result.headline.steadyStateVehiclesPerHour);
 }
 

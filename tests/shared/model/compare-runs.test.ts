@@ -2,9 +2,9 @@
 // differences are against the first, reference run).
 import { describe, expect, it } from 'vitest';
 import { chokePointPresence, headlineDifferences } from '../../../shared/model/compare-runs';
-import type { Bottleneck, RunResult } from '../../../shared/api/runs';
+import type { ChokePoint, RunResult } from '../../../shared/api/runs';
 
-const bottleneck = (segmentId: number): Bottleneck => ({
+const chokePoint = (segmentId: number): ChokePoint => ({
   segmentId,
   direction: 'forward',
   name: `Road ${segmentId}`,
@@ -34,7 +34,7 @@ function result(ids: number[], steady: number, clearance: number | null): RunRes
     curve: { stepMinutes: 1, deliveredVehicles: [0] },
     zones: [],
     shelters: [],
-    bottlenecks: ids.map(bottleneck),
+    bottlenecks: ids.map(chokePoint),
     fixes: [],
     stats: { engineVersion: 't', algorithm: 't', nodes: 0, arcs: 0, expandedNodes: 0, expandedArcs: 0, augmentations: 0, solveMs: 0, peakMemoryBytes: 0, verified: true },
   };

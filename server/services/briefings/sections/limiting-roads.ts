@@ -33,7 +33,7 @@ export function mapFigure(input: BriefingInput): Content[] {
   ];
 }
 
-export function bottleneckTable(input: BriefingInput): Content[] {
+export function chokePointTable(input: BriefingInput): Content[] {
   const roads = roadNamer(input.map);
   const ranked = rankedChokePoints(input.result);
   if (ranked.length === 0) {
