@@ -91,7 +91,7 @@ it('shows the county at two zooms from vector tiles, and a clicked road opens it
   // The whole county: the map fits the layer; the run's tiles are drawn.
   await page.goto(`${server.url}/plans/${planId}`);
   await page.locator('[data-test="tab-findings-button"]').click();
-  await page.locator('[data-test="bottleneck-row"]').first().waitFor({ timeout: 60_000 });
+  await page.locator('[data-test="choke-point-row"]').first().waitFor({ timeout: 60_000 });
   await tilesDrawn(page);
   await page.waitForTimeout(600);
   const wholeZoom = Math.max(...runTiles);
@@ -100,7 +100,7 @@ it('shows the county at two zooms from vector tiles, and a clicked road opens it
 
   // Street zoom: the first choke point in the table; the map zooms to it.
   runTiles.length = 0;
-  await page.locator('[data-test="bottleneck-row"]').first().click();
+  await page.locator('[data-test="choke-point-row"]').first().click();
   await page.locator('.cutline-choke-popup').waitFor();
   await tilesDrawn(page);
   await page.waitForTimeout(600);
