@@ -4,7 +4,7 @@ import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
 import type { Proposal, ProposalRequest } from '@shared/api/proposals';
 import type { RunParameters } from '@shared/api/runs';
-import type { Scenario } from '@shared/api/scenarios';
+import { scenarioOverlaySchema, type Scenario, type ScenarioOverlay } from '@shared/api/scenarios';
 import * as api from '@/api/proposals';
 import { useRunsStore } from '@/stores/runs';
 import { messageOf } from '@/format/error-message';
@@ -19,6 +19,23 @@ export const useProposalsStore = defineStore('proposals', () => {
   let timer: ReturnType<typeof setTimeout> | null = null;
 
   const active = computed(() => current.value !== null && (current.value.status === 'queued' || current.value.status === 'running'));
+
+  /**
+   * The answer drawn on the workspace map, in the scenario editor's looks: the change it would
+   * save (contraflow corridors, added lanes), or for a closure ranking the ten worst closures.
+   * Departure orders and zone routes change no road, so nothing is drawn for them.
+   */
+  const mapOverlay = computed<ScenarioOverlay | null>(() => {
+    const p = current.value;
+    if (!p || p.status !== 'succeeded' || !p.result) return null;
+    const answer = p.result.answer;
+    if (answer.kind === 'closures') {
+      const ids = [...new Set(answer.roads.slice(0, 10).map((r) => r.segmentId))];
+      return { ...scenarioOverlaySchema.parse({}), closures: ids.map((segmentId) => ({ segmentId, fromMinutes: answer.closeAtMinutes, untilMinutes: null })) };
+    }
+    if (answer.kind === 'release-order' || answer.kind === 'zone-routes') return null;
+    return p.result.overlay;
+  });
 
   function stop() {
     if (timer) clearTimeout(timer);
@@ -84,5 +101,5 @@ export const useProposalsStore = defineStore('proposals', () => {
     }
   }
 
-  return { planId, current, error, starting, saved, active, open, start, cancel, saveAndRun, stop };
+  return { planId, current, error, starting, saved, active, mapOverlay, open, start, cancel, saveAndRun, stop };
 });

@@ -59,6 +59,10 @@ it('searches for the best contraflow, saves the answer as a scenario and compare
   // The answer carries the optimum-is-not-a-plan sentence.
   expect(await page.locator('[data-test="search-answer"]').innerText()).toContain('A mathematical optimum under the stated assumptions is not an operational plan');
   expect(await page.locator('[data-test="search-answer"] tbody tr').count()).toBeGreaterThan(0);
+  // The answer on the map, as the scenario it would save: corridor roads with their one-way arrows.
+  await page.locator('.cutline-corridor-arrow').first().waitFor({ state: 'attached' });
+  expect(await page.locator('.cutline-corridor-arrow').count()).toBeGreaterThan(0);
+  expect(await page.locator('path.cutline-scenario-corridor').count()).toBeGreaterThan(0);
   await page.locator('[data-test="search-save-compare"]').scrollIntoViewIfNeeded();
   await shoot('findings-search-contraflow');
 
