@@ -11,7 +11,7 @@ import { createTestContext, signInAs, type SignedInAgent, type TestContext } fro
 import { defaultRunParameters, runWithResultSchema, type RunWithResult } from '../../shared/api/runs';
 
 const root = path.resolve(import.meta.dirname, '../..');
-const workerEnv = { RUN_TIME_BUDGET_SECONDS: '40', RUN_EXPIRY_SLACK_SECONDS: '2', QUEUE_MAINTENANCE_SECONDS: '1', WORKER_SHUTDOWN_GRACE_SECONDS: '1' };
+const workerEnv = { RUN_TIME_BUDGET_SECONDS: '60', RUN_EXPIRY_SLACK_SECONDS: '2', QUEUE_MAINTENANCE_SECONDS: '1', WORKER_SHUTDOWN_GRACE_SECONDS: '1' };
 
 type Worker = { proc: ChildProcess; took: string[]; finished: string[]; returned: string[]; exited: Promise<number | null> };
 const workers: Worker[] = [];
@@ -91,7 +91,8 @@ describe('worker faults', () => {
     await until('the solve to be under way', 30_000, async () => (solving(await getRun(id)) ? true : undefined));
     victim.proc.kill('SIGKILL');
     const survivor = workers.find((w) => w !== victim)!;
-    const done = await until('the run to finish elsewhere', 90_000, async () => {
+    // The retry waits out the killed job's expiry (budget + slack) before the survivor takes it.
+    const done = await until('the run to finish elsewhere', 150_000, async () => {
       const r = await getRun(id);
       return r.status === 'succeeded' || r.status === 'failed' ? r : undefined;
     });
@@ -100,7 +101,7 @@ describe('worker faults', () => {
     expect(victim.finished).not.toContain(id);
     const stored = await ctx.pool.query("SELECT count(*)::int AS n FROM runs WHERE id = $1 AND status = 'succeeded' AND result IS NOT NULL", [id]);
     expect(stored.rows[0].n).toBe(1);
-  }, 150_000);
+  }, 240_000);
 
   it('a run whose worker is killed while preparing it is prepared and finished once by the other worker', async () => {
     await startWorker(ctx.url);
@@ -118,7 +119,8 @@ describe('worker faults', () => {
       victim.proc.kill('SIGKILL');
       await victim.exited;
       await blocker.query('COMMIT');
-      const done = await until('the run to finish elsewhere', 90_000, async () => {
+      // The retry waits out the killed job's expiry (budget + slack) before the survivor takes it.
+      const done = await until('the run to finish elsewhere', 150_000, async () => {
         const r = await getRun(id);
         return r.status === 'succeeded' || r.status === 'failed' ? r : undefined;
       });
@@ -131,7 +133,7 @@ describe('worker faults', () => {
       await blocker.query('ROLLBACK').catch(() => undefined);
       blocker.release();
     }
-  }, 150_000);
+  }, 240_000);
 
   it('several runs shared by the workers are each taken once', async () => {
     await startWorker(ctx.url);
@@ -153,7 +155,7 @@ describe('worker faults', () => {
     const taker = await until('a worker to take the run', 20_000, async () => workers.find((w) => w.took.includes(id) && w.proc.exitCode === null));
     await until('the solve to be under way', 30_000, async () => (solving(await getRun(id)) ? true : undefined));
     taker.proc.kill('SIGTERM');
-    // Grace of 1 s, then the run goes back: the process ends well before the job would expire (42 s).
+    // Grace of 1 s, then the run goes back: the process ends well before the job would expire (62 s).
     expect(await taker.exited).toBe(0);
     expect(taker.returned).toEqual([id]);
     expect(taker.finished).not.toContain(id);
