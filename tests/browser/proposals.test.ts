@@ -72,12 +72,16 @@ it('searches for the best contraflow, saves the answer as a scenario and compare
   await page.locator('[data-test="comparison-table"]').waitFor({ timeout: 180_000 });
   const header = await page.locator('[data-test="comparison-table"] thead').innerText();
   expect(header).toContain('Roads to run one way, outbound');
+  // The saved scenario is named with the briefing's date format, not a numeric stamp.
+  expect(header).not.toMatch(/\d+\/\d+\/\d+/);
   const vehicles = page.locator('[data-test="figure-steadyStateVehiclesPerHour"]');
   expect(await vehicles.innerText()).toContain('5,600 veh/h');
   expect(await vehicles.innerText()).toContain('11,200 veh/h');
   expect(await vehicles.locator('[data-test="difference"]').innerText()).toBe('+5,600 veh/h');
   await page.locator('[data-test="caution"]').waitFor();
   await page.locator('[data-test="comparison-map"]:not([data-drawn="0"])').waitFor();
+  // Both runs are compared now: neither the still-working note nor the left-out note remains.
+  expect(await page.locator('[data-test="comparison-working"], [data-test="comparison-left-out"]').count()).toBe(0);
   await shoot('search-scenario-comparison');
 
   expect(errors).toEqual([]);
