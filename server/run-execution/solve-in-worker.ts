@@ -1,18 +1,18 @@
 // Starts one solve in a worker thread with a time and memory budget; the promise settles with
 // the result, or rejects with a reason a planner can read. cancel() stops it at once.
-import { Worker } from 'node:worker_threads';
+import { budgetedThread, type ThreadBudget, type ThreadStop } from '../budgeted-thread';
 import type { SolveMessage, SolveRequest } from './solve-worker';
 
 export class SolveFailure extends Error {
   constructor(
     message: string,
-    readonly kind: 'input' | 'budget' | 'cancelled' | 'interrupted' | 'crash',
+    readonly kind: 'input' | ThreadStop,
   ) {
     super(message);
   }
 }
 
-export type SolveBudget = { timeSeconds: number; memoryMegabytes: number };
+export type SolveBudget = ThreadBudget;
 type Done = Extract<SolveMessage, { type: 'done' }>;
 
 function overBudget(budget: SolveBudget, usedBytes?: number): string {
@@ -25,47 +25,22 @@ export function solveInWorker(
   budget: SolveBudget,
   onProgress: (phase: string, fraction: number) => void,
 ): { done: Promise<Done>; cancel: () => void; interrupt: () => void } {
-  const worker = new Worker(new URL('./solve-worker-entry.mjs', import.meta.url), {
+  return budgetedThread<Done, SolveMessage>({
+    entry: new URL('./solve-worker-entry.mjs', import.meta.url),
     workerData: { ...request, memoryMegabytes: budget.memoryMegabytes },
-    resourceLimits: { maxOldGenerationSizeMb: budget.memoryMegabytes },
-  });
-  let settled = false;
-  let cancelReason: SolveFailure | null = null;
-  const done = new Promise<Done>((resolve, reject) => {
-    const timer = setTimeout(() => {
-      cancelReason = new SolveFailure(`The analysis took longer than its budget of ${budget.timeSeconds} s and was stopped.`, 'budget');
-      void worker.terminate();
-    }, budget.timeSeconds * 1000);
-    const finish = (fn: () => void) => {
-      if (settled) return;
-      settled = true;
-      clearTimeout(timer);
-      fn();
-    };
-    worker.on('message', (m: SolveMessage) => {
+    budget,
+    words: {
+      tooLong: `The analysis took longer than its budget of ${budget.timeSeconds} s and was stopped.`,
+      tooBig: overBudget(budget),
+      failed: (message) => `The solver failed: ${message}`,
+      noAnswer: 'The solver stopped without an answer.',
+    },
+    fail: (kind, message) => new SolveFailure(message, kind),
+    onMessage: (m, settle) => {
       if (m.type === 'progress') onProgress(m.phase, m.fraction);
-      else if (m.type === 'done') finish(() => resolve(m));
-      else if (m.memoryBytes !== undefined) finish(() => reject(new SolveFailure(overBudget(budget, m.memoryBytes), 'budget')));
-      else finish(() => reject(new SolveFailure(m.message, m.input ? 'input' : 'crash')));
-    });
-    worker.on('error', (err: Error & { code?: string }) => {
-      const message = err.code === 'ERR_WORKER_OUT_OF_MEMORY' ? overBudget(budget) : `The solver failed: ${err.message}`;
-      finish(() => reject(new SolveFailure(message, err.code === 'ERR_WORKER_OUT_OF_MEMORY' ? 'budget' : 'crash')));
-    });
-    worker.on('exit', () => {
-      finish(() => reject(cancelReason ?? new SolveFailure('The solver stopped without an answer.', 'crash')));
-    });
+      else if (m.type === 'done') settle.resolve(m);
+      else if (m.memoryBytes !== undefined) settle.reject(new SolveFailure(overBudget(budget, m.memoryBytes), 'budget'));
+      else settle.reject(new SolveFailure(m.message, m.input ? 'input' : 'crash'));
+    },
   });
-  return {
-    done,
-    cancel: () => {
-      cancelReason = new SolveFailure('Cancelled.', 'cancelled');
-      void worker.terminate();
-    },
-    // The process is stopping: the run is not over, another worker will solve it again.
-    interrupt: () => {
-      cancelReason = new SolveFailure('Interrupted: the worker is stopping.', 'interrupted');
-      void worker.terminate();
-    },
-  };
 }
