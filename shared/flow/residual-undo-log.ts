@@ -7,8 +7,8 @@
 // in the round, which the augmentation pays for anyway, plus one copy of the residual at the end.
 
 export class ResidualUndoLog {
-  /** 1 where the pair of residual arc r already has its earlier values logged this round. */
-  private readonly logged: Uint8Array;
+  /** Bit r set where the pair of residual arc r already has its earlier values logged this round (a bit per arc: 0.25 bytes per arc pair). */
+  private readonly logged: Uint32Array;
   private arcs: Int32Array;
   private before: Int32Array; // two per entry: residual[a], residual[mate[a]]
   private count = 0;
@@ -17,17 +17,18 @@ export class ResidualUndoLog {
     private readonly mate: Int32Array,
     private readonly residual: Int32Array,
   ) {
-    this.logged = new Uint8Array(residual.length);
+    this.logged = new Uint32Array((residual.length + 31) >>> 5);
     this.arcs = new Int32Array(1024);
     this.before = new Int32Array(2048);
   }
 
   /** Call before residual[a] or residual[mate[a]] changes: keeps the pair's values as they were when the round began. */
   note(a: number): void {
-    if (this.logged[a] === 1) return;
+    const { logged } = this;
+    if ((logged[a >>> 5]! & (1 << (a & 31))) !== 0) return;
     const m = this.mate[a]!;
-    this.logged[a] = 1;
-    this.logged[m] = 1;
+    logged[a >>> 5]! |= 1 << (a & 31);
+    logged[m >>> 5]! |= 1 << (m & 31);
     if (this.count === this.arcs.length) this.grow();
     this.arcs[this.count] = a;
     this.before[2 * this.count] = this.residual[a]!;
@@ -40,8 +41,9 @@ export class ResidualUndoLog {
     const { logged, mate, arcs } = this;
     for (let i = 0; i < this.count; i++) {
       const a = arcs[i]!;
-      logged[a] = 0;
-      logged[mate[a]!] = 0;
+      const m = mate[a]!;
+      logged[a >>> 5]! &= ~(1 << (a & 31));
+      logged[m >>> 5]! &= ~(1 << (m & 31));
     }
     this.count = 0;
   }

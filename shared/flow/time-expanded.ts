@@ -18,14 +18,17 @@
 // The copies are materialised: every algorithm and verify() then run on the expanded network
 // unchanged. Memory: 28 bytes per expanded arc in the FlowNetwork, 5 more for the arc map below,
 // 8 per arc for a FlowState; 4 bytes per expanded node. Arcs of capacity 0 (closed steps,
-// capacities that round down to 0) are left out.
+// capacities that round down to 0) are left out, and so are the arcs of node copies that no zone
+// reaches by their step or that reach no shelter by the horizon (step-window.ts), which changes
+// no maximum flow and no minimum cut.
 
 import { UNBOUNDED_CAPACITY, floorCapacity } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';
-import { buildNetworkFromArrays, type FlowNetwork } from './flow-network';
+import type { FlowNetwork } from './flow-network';
 import { releaseSchedule } from './release-schedule';
 import { closedAtStep, nodeStorage, perStepCapacity } from './road-timing';
 import { routeTravelSteps, type RouteTimingError } from './route-timing';
+import { stepWindow } from './step-window';
 
 /** What an expanded arc stands for; arcRef holds the index of the road, node, zone or shelter. */
 export const ExpandedArcKind = {
@@ -90,10 +93,23 @@ export function arcStep(expanded: TimeExpandedNetwork, arc: number): number {
   return low;
 }
 
+export interface ExpandOptions {
+  /**
+   * Leave out the arcs of node copies that no zone reaches by their step or that reach no shelter
+   * by the horizon (step-window.ts): no maximum flow or minimum cut changes. Default true; false
+   * builds every copy (the oracle in tests).
+   */
+  prune?: boolean;
+}
+
+type AddArc = (tail: number, head: number, cap: number, kind: ExpandedArcKind, ref: number) => void;
+
 /**
- * Builds the time-expanded network of a validated problem. O((V + E)·T) time and memory.
+ * Builds the time-expanded network of a validated problem. O((V + E)·T) time and memory. The arcs
+ * are generated twice, once to count each node's residual arcs and once to write them in place,
+ * so no list of arcs is held beside the network (12 bytes per arc less at the peak).
  */
-export function expandOverTime(problem: EvacuationProblem): TimeExpandedNetwork {
+export function expandOverTime(problem: EvacuationProblem, options: ExpandOptions = {}): TimeExpandedNetwork {
   const { nodeCount: N, roads, zones, shelters, timeStepSeconds: dt, horizonSteps: T } = problem;
   const R = roads.length;
   const Z = zones.length;
@@ -118,65 +134,107 @@ export function expandOverTime(problem: EvacuationProblem): TimeExpandedNetwork 
   const holdoverCapacity = nodeStorage(problem);
   const releases = zones.map((zone) => releaseSchedule(zone, T));
   const entries = zones.map((zone) => [...new Set(zone.entryNodes)]);
-  const entryArcsPerLayer = entries.reduce((sum, list) => sum + list.length, 0);
   const intake = shelters.map((s) =>
     s.intakeVehPerHour === undefined ? UNBOUNDED_CAPACITY : perStepCapacity(s.intakeVehPerHour, dt),
   );
+  const window = options.prune === false
+    ? null
+    : stepWindow({
+        nodeCount: N,
+        horizonSteps: T,
+        roadFrom: roads.map((road) => road.from),
+        roadTo: roads.map((road) => road.to),
+        travelSteps: roadTravelSteps,
+        stepCapacity: roadStepCapacity,
+        zoneEntries: entries,
+        zoneFirstRelease: releases.map((counts) => counts.findIndex((c) => c > 0)),
+        shelterNodes: shelters.map((s) => s.node),
+      });
+  const earliest = window?.earliest ?? new Int32Array(N);
+  const latest = window?.latest ?? new Int32Array(N).fill(T);
+  const closed = closedSteps(problem);
 
-  const bound = S + (T + 1) * (R + N + 3 * Z + gates + entryArcsPerLayer + S);
-  const tails = new Int32Array(bound);
-  const heads = new Int32Array(bound);
-  const caps = new Int32Array(bound);
-  const arcKind = new Uint8Array(bound);
-  const arcRef = new Int32Array(bound);
-  let m = 0;
-  const add = (tail: number, head: number, cap: number, kind: ExpandedArcKind, ref: number): void => {
-    if (cap <= 0) return;
-    tails[m] = tail;
-    heads[m] = head;
-    caps[m] = cap;
-    arcKind[m] = kind;
-    arcRef[m] = ref;
-    m++;
+  const layerArcStart = new Int32Array(T + 2);
+  const emit = (add: AddArc, count: { m: number }): void => {
+    shelters.forEach((shelter, s) => {
+      const total = shelter.capacityVehicles === null ? UNBOUNDED_CAPACITY : floorCapacity(shelter.capacityVehicles);
+      add(2 + s, sink, total, ExpandedArcKind.ShelterTotal, s);
+    });
+    for (let step = 0; step <= T; step++) {
+      layerArcStart[step] = count.m;
+      const layer = layerBase + step * layerSize;
+      const nextLayer = layer + layerSize;
+      for (let z = 0; z < Z; z++) {
+        const zoneNode = layer + N + z;
+        add(source, zoneNode, releases[z]![step]!, ExpandedArcKind.Release, z);
+        if (step < T) add(zoneNode, nextLayer + N + z, UNBOUNDED_CAPACITY, ExpandedArcKind.ZoneWait, z);
+        let exit = zoneNode;
+        const gate = gateOf[z]!;
+        if (gate >= 0) {
+          exit = layer + N + Z + gate;
+          add(zoneNode, exit, perStepCapacity(zones[z]!.releaseVehPerHour!, dt), ExpandedArcKind.ZoneGate, z);
+        }
+        for (const v of entries[z]!) {
+          if (step >= earliest[v]! && step <= latest[v]!) add(exit, layer + v, UNBOUNDED_CAPACITY, ExpandedArcKind.ZoneEntry, z);
+        }
+      }
+      for (let e = 0; e < R; e++) {
+        const road = roads[e]!;
+        const arrival = step + roadTravelSteps[e]!;
+        if (arrival > T || step < earliest[road.from]! || arrival > latest[road.to]!) continue;
+        if (closed !== null && closed[e] !== undefined && closed[e]![step] === 1) continue;
+        add(layer + road.from, layerBase + arrival * layerSize + road.to, roadStepCapacity[e]!, ExpandedArcKind.Road, e);
+      }
+      if (step < T) {
+        for (let v = 0; v < N; v++) {
+          if (step >= earliest[v]! && step < latest[v]!) add(layer + v, nextLayer + v, holdoverCapacity[v]!, ExpandedArcKind.Holdover, v);
+        }
+      }
+      shelters.forEach((shelter, s) => {
+        if (step >= earliest[shelter.node]!) add(layer + shelter.node, 2 + s, intake[s]!, ExpandedArcKind.ShelterArrival, s);
+      });
+    }
+    layerArcStart[T + 1] = count.m;
   };
 
-  shelters.forEach((shelter, s) => {
-    const total = shelter.capacityVehicles === null ? UNBOUNDED_CAPACITY : floorCapacity(shelter.capacityVehicles);
-    add(2 + s, sink, total, ExpandedArcKind.ShelterTotal, s);
-  });
-  const layerArcStart = new Int32Array(T + 2);
-  for (let step = 0; step <= T; step++) {
-    layerArcStart[step] = m;
-    const layer = layerBase + step * layerSize;
-    const nextLayer = layer + layerSize;
-    for (let z = 0; z < Z; z++) {
-      const zoneNode = layer + N + z;
-      add(source, zoneNode, releases[z]![step]!, ExpandedArcKind.Release, z);
-      if (step < T) add(zoneNode, nextLayer + N + z, UNBOUNDED_CAPACITY, ExpandedArcKind.ZoneWait, z);
-      let exit = zoneNode;
-      const gate = gateOf[z]!;
-      if (gate >= 0) {
-        exit = layer + N + Z + gate;
-        add(zoneNode, exit, perStepCapacity(zones[z]!.releaseVehPerHour!, dt), ExpandedArcKind.ZoneGate, z);
-      }
-      for (const v of entries[z]!) add(exit, layer + v, UNBOUNDED_CAPACITY, ExpandedArcKind.ZoneEntry, z);
-    }
-    for (let e = 0; e < R; e++) {
-      const road = roads[e]!;
-      const arrival = step + roadTravelSteps[e]!;
-      if (arrival > T || closedAtStep(road.closures, step, dt)) continue;
-      add(layer + road.from, layerBase + arrival * layerSize + road.to, roadStepCapacity[e]!, ExpandedArcKind.Road, e);
-    }
-    if (step < T) {
-      for (let v = 0; v < N; v++) add(layer + v, nextLayer + v, holdoverCapacity[v]!, ExpandedArcKind.Holdover, v);
-    }
-    shelters.forEach((shelter, s) => {
-      add(layer + shelter.node, 2 + s, intake[s]!, ExpandedArcKind.ShelterArrival, s);
-    });
-  }
-  layerArcStart[T + 1] = m;
+  // Pass 1: residual arcs per node.
+  const firstOut = new Int32Array(nodeTotal + 1);
+  const counted = { m: 0 };
+  emit((tail, head, cap) => {
+    if (cap <= 0) return;
+    firstOut[tail + 1]!++;
+    firstOut[head + 1]!++;
+    counted.m++;
+  }, counted);
+  const m = counted.m;
+  if (2 * m > 0x7fffffff) throw new RangeError(`time-expanded network too large: ${m} arcs`);
+  for (let v = 0; v < nodeTotal; v++) firstOut[v + 1]! += firstOut[v]!;
 
-  const network = buildNetworkFromArrays(nodeTotal, tails.subarray(0, m), heads.subarray(0, m), caps.subarray(0, m));
+  // Pass 2: the same arcs in the same order, written where buildNetworkFromArrays would put them.
+  const next = firstOut.slice(0, nodeTotal);
+  const head = new Int32Array(2 * m);
+  const mate = new Int32Array(2 * m);
+  const capacity = new Int32Array(2 * m);
+  const residualOfArc = new Int32Array(m);
+  const arcKind = new Uint8Array(m);
+  const arcRef = new Int32Array(m);
+  const written = { m: 0 };
+  emit((tail, h, cap, kind, ref) => {
+    if (cap <= 0) return;
+    const i = written.m++;
+    const forward = next[tail]!++;
+    const backward = next[h]!++;
+    head[forward] = h;
+    head[backward] = tail;
+    mate[forward] = backward;
+    mate[backward] = forward;
+    capacity[forward] = cap;
+    residualOfArc[i] = forward;
+    arcKind[i] = kind;
+    arcRef[i] = ref;
+  }, written);
+
+  const network: FlowNetwork = { nodeCount: nodeTotal, arcCount: m, firstOut, head, mate, capacity, residualOfArc };
   return {
     network,
     source,
@@ -186,8 +244,8 @@ export function expandOverTime(problem: EvacuationProblem): TimeExpandedNetwork 
     layerBase,
     layerSize,
     roadNodeCount: N,
-    arcKind: arcKind.slice(0, m),
-    arcRef: arcRef.slice(0, m),
+    arcKind,
+    arcRef,
     layerArcStart,
     roadTravelSteps,
     routeTiming,
@@ -195,4 +253,16 @@ export function expandOverTime(problem: EvacuationProblem): TimeExpandedNetwork 
     releases,
     holdoverCapacity,
   };
+}
+
+/** Per road with closures, 1 at each step whose departures are refused (null when no road has closures). */
+function closedSteps(problem: EvacuationProblem): (Uint8Array | undefined)[] | null {
+  const { roads, horizonSteps: T, timeStepSeconds: dt } = problem;
+  if (!roads.some((road) => road.closures && road.closures.length > 0)) return null;
+  return roads.map((road) => {
+    if (!road.closures || road.closures.length === 0) return undefined;
+    const closed = new Uint8Array(T + 1);
+    for (let step = 0; step <= T; step++) if (closedAtStep(road.closures, step, dt)) closed[step] = 1;
+    return closed;
+  });
 }
