@@ -8,7 +8,7 @@ import { indexNodes, type NodeIndex } from '../../shared/geo/node-index';
 import { readShelters, type ShelterFeature } from '../../shared/geo/read-shelters';
 import { readZones, type ZoneFeature } from '../../shared/geo/read-zones';
 import { RoadImportError } from '../../shared/geo/road-import-error';
-import { applyShelterFields, applyZoneFields } from './gis/apply-field-mapping';
+import { applyShelterFields, applyZoneFields } from '../../shared/geo/apply-field-mapping';
 import { readGisFile, withCrsQuestion, type GisFeatures } from './gis/read-gis-file';
 
 type AttachableNetwork = Pick<RoadGraph, 'nodes' | 'segments'> | NodeIndex;

@@ -2,7 +2,7 @@
 // worker reads and saves it), read its progress, cancel it.
 import { Router } from 'express';
 import { importKindSchema, importParamsSchema } from '../../shared/api/imports';
-import { importOptionsSchema } from '../../shared/api/road-import';
+import { importOptionsSchema, shelterUploadOptionsSchema, zoneUploadOptionsSchema } from '../../shared/api/road-import';
 import { planParamsSchema } from '../../shared/api/plans';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
@@ -18,7 +18,10 @@ export function importsRouter(db: Database, config: Config, queue: ImportEnqueue
 
   router.post('/imports/:kind', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
     const { planId, kind } = kindParamsSchema.parse(req.params);
-    const options = kind === 'road-layer' ? importOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {}) : undefined;
+    // Each kind's options: a road layer's import options; for zones and shelters, how to read the
+    // file and which columns mean what (the field-mapping step).
+    const raw = jsonField(req.body?.options, 'options') ?? {};
+    const options = kind === 'road-layer' ? importOptionsSchema.parse(raw) : kind === 'zones' ? zoneUploadOptionsSchema.parse(raw) : shelterUploadOptionsSchema.parse(raw);
     const name = typeof req.body?.name === 'string' && req.body.name.trim() ? req.body.name.trim().slice(0, 200) : undefined;
     const file = req.file!;
     res.status(202).json(await queueImport(db, queue, actorOf(req), planId, { kind, bytes: file.buffer, fileName: file.originalname, layerName: name, options }));

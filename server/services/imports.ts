@@ -5,7 +5,7 @@ import { and, eq, getTableColumns, inArray } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { imports } from '../db/schema';
 import type { Import, ImportKind } from '../../shared/api/imports';
-import type { ImportOptions } from '../../shared/api/road-import';
+import type { ImportJobOptions } from '../../shared/api/road-import';
 import { ConflictError, NotFoundError } from '../errors';
 import { queueSqlOf } from '../queue/run-enqueuer';
 import type { ImportEnqueuer } from '../queue/run-queue';
@@ -32,7 +32,7 @@ export function toImport(r: ImportRow): Import {
   };
 }
 
-export type ImportUpload = { kind: ImportKind; bytes: Buffer; fileName: string; layerName?: string | undefined; options?: ImportOptions | undefined };
+export type ImportUpload = { kind: ImportKind; bytes: Buffer; fileName: string; layerName?: string | undefined; options?: ImportJobOptions | undefined };
 
 /** Stores the upload and queues its import, in one transaction; answers with the queued import. */
 export async function queueImport(db: Database, queue: ImportEnqueuer, actor: Actor, planId: string, upload: ImportUpload): Promise<Import> {

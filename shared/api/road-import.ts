@@ -21,6 +21,9 @@ export const propertyMappingSchema = z.object({
   lanesBackward: z.string().min(1).optional(),
   /** Values yes/true/1/FT = along the digitised direction, -1/TF/reverse = against it. */
   oneway: z.string().min(1).optional(),
+  /** The file's own one-way convention where it differs (e.g. a county's F/T/B codes): value →
+   *  along the drawing direction, against it, or both ways. Unlisted values are read as above. */
+  onewayValues: z.record(z.string().max(200), z.enum(['forward', 'backward', 'both'])).default({}),
   speed: z.string().min(1).optional(),
   /** Unit of bare numbers in the speed property (a value like "30 mph" says its own unit). */
   speedUnit: z.enum(['kmh', 'mph']).default('kmh'),
@@ -159,6 +162,10 @@ export const importOptionsSchema = z.object({
 });
 export type ImportOptions = z.infer<typeof importOptionsSchema>;
 export type ImportOptionsInput = z.input<typeof importOptionsSchema>;
+
+/** The `options` field of an import job, per kind: a road layer's import options, or how to read a
+ *  zone or shelter file and which of its columns mean what (the field-mapping step's answer). */
+export type ImportJobOptions = ImportOptions | ZoneUploadOptions | ShelterUploadOptions;
 
 // ---------------------------------------------------------------------------------------------
 // Import report and failures

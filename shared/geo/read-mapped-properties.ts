@@ -38,6 +38,11 @@ export function readMappedProperties(properties: Tags, mapping: PropertyMapping)
     if (field === 'speed' && mapping.speedUnit === 'mph' && (typeof value === 'number' || /^\s*\d+(\.\d+)?\s*$/.test(String(value ?? 'x')))) {
       value = `${String(value).trim()} mph`;
     }
+    // The file's own one-way codes, in the spelling the tag reader knows.
+    if (field === 'oneway' && value !== undefined && value !== null) {
+      const own = mapping.onewayValues?.[String(value).trim()];
+      if (own) value = own === 'forward' ? 'yes' : own === 'backward' ? '-1' : 'no';
+    }
     tags[tag] = value;
     labels[tag] = property;
   }

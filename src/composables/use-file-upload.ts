@@ -8,7 +8,12 @@ import { messageOf } from '@/format/error-message';
 
 /** `send` uploads the file and answers the words to show when it worked; it may report what the
  *  server is doing meanwhile (an import job's phase) through `progress`. */
-export function useFileUpload(send: (file: File, progress: (text: string) => void) => Promise<string>) {
+/** `ask`, when given, runs first (the field-mapping step): it answers the options to send with the
+ *  file, or null when the planner cancels, and nothing is sent. */
+export function useFileUpload<O = undefined>(
+  send: (file: File, progress: (text: string) => void, options?: O) => Promise<string>,
+  ask?: (file: File) => Promise<O | null>,
+) {
   const input = ref<HTMLInputElement | null>(null);
   const message = ref('');
   const error = ref('');
@@ -33,7 +38,13 @@ export function useFileUpload(send: (file: File, progress: (text: string) => voi
     busy.value = true;
     progress.value = '';
     try {
-      message.value = await send(file, (text) => (progress.value = text));
+      let options: O | undefined;
+      if (ask) {
+        const answer = await ask(file);
+        if (answer === null) return;
+        options = answer;
+      }
+      message.value = await send(file, (text) => (progress.value = text), options);
     } catch (e) {
       error.value = messageOf(e);
       problems.value = e instanceof ApiError && e.importFailure ? badFeatureLines(e.importFailure.badFeatures) : [];

@@ -4,7 +4,7 @@
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
 import type { CapacityTable } from '@shared/api/capacity-table';
-import type { ImportFailure } from '@shared/api/road-import';
+import type { ImportFailure, ImportOptionsInput } from '@shared/api/road-import';
 import type { SegmentAttributesPatch } from '@shared/api/road-attributes';
 import type { RoadLayer, Segment } from '@shared/api/road-layers';
 import * as roadApi from '@/api/road-layers';
@@ -53,13 +53,15 @@ export const useRoadLayerStore = defineStore('road-layer', () => {
     }
   }
 
-  async function uploadFile(file: File): Promise<boolean> {
+  /** @param importOptions the field-mapping step's answer (which columns mean what, CRS, layer). */
+  async function uploadFile(file: File, importOptions?: ImportOptionsInput): Promise<boolean> {
     uploadError.value = '';
     refusal.value = null;
     uploadAbort = new AbortController();
     upload.value = { fileName: file.name, share: 0, phase: 'sending', serverPhase: '' };
     try {
       const answer = await roadApi.uploadRoadLayer(planId.value, file, {
+        importOptions,
         signal: uploadAbort.signal,
         onProgress: (p) => {
           upload.value = { fileName: file.name, share: p.share, phase: 'sending', serverPhase: '' };

@@ -9,6 +9,7 @@ import { importFile } from '@/api/imports';
 import { ApiError } from '@/api/api-error';
 import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
+import type { ShelterUploadOptions, ZoneUploadOptions } from '@shared/api/road-import';
 
 export const useZonesSheltersStore = defineStore('zones-shelters', () => {
   const runs = useRunsStore();
@@ -78,8 +79,9 @@ export const useZonesSheltersStore = defineStore('zones-shelters', () => {
    * and share done go to `onServerProgress`); then reads the list again. Resolves with how many
    * were added; a refused file throws with its reasons.
    */
-  async function importPlaces(kind: 'zones' | 'shelters', file: File, onServerProgress?: (phase: string, share: number) => void): Promise<number> {
-    const done = await importFile(planId.value, kind, file, { onServerProgress });
+  /** @param options the field-mapping step's answer: how to read the file, which columns mean what. */
+  async function importPlaces(kind: 'zones' | 'shelters', file: File, onServerProgress?: (phase: string, share: number) => void, options?: ZoneUploadOptions | ShelterUploadOptions): Promise<number> {
+    const done = await importFile(planId.value, kind, file, { onServerProgress, fields: options ? { options: JSON.stringify(options) } : {} });
     const created = Number(done.outcome?.['created'] ?? 0);
     if (kind === 'zones') zones.value = await zonesApi.listZones(planId.value);
     else shelters.value = await sheltersApi.listShelters(planId.value);
@@ -87,7 +89,7 @@ export const useZonesSheltersStore = defineStore('zones-shelters', () => {
     return created;
   }
 
-  const uploadZones = (file: File, onServerProgress?: (phase: string, share: number) => void) => importPlaces('zones', file, onServerProgress);
+  const uploadZones = (file: File, onServerProgress?: (phase: string, share: number) => void, options?: ZoneUploadOptions) => importPlaces('zones', file, onServerProgress, options);
 
   async function createShelter(input: ShelterCreate): Promise<Shelter> {
     const shelter = await sheltersApi.createShelter(planId.value, input);
@@ -109,7 +111,7 @@ export const useZonesSheltersStore = defineStore('zones-shelters', () => {
     changed();
   }
 
-  const uploadShelters = (file: File, onServerProgress?: (phase: string, share: number) => void) => importPlaces('shelters', file, onServerProgress);
+  const uploadShelters = (file: File, onServerProgress?: (phase: string, share: number) => void, options?: ShelterUploadOptions) => importPlaces('shelters', file, onServerProgress, options);
 
   return {
     planId,

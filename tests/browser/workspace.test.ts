@@ -67,6 +67,8 @@ it('goes from the plans list to choke points on the map', async () => {
   fs.copyFileSync(path.resolve(import.meta.dirname, '../../server/seed/demo-town/roads.geojson'), roadFile);
   await page.locator('[data-test="tab-roads-button"]').click();
   await page.locator('[data-test="road-file"]').setInputFiles(roadFile);
+  // The field-mapping step: an OSM-tagged GeoJSON needs no mapping; import as it is.
+  await page.locator('[data-test="field-mapping-import"]:not([disabled])').click();
   await page.locator('[data-test="tab-roads"] h2', { hasText: 'veltmoor-roads-upload.geojson' }).waitFor();
   expect(await page.locator('[data-test="import-report"]').innerText()).toMatch(/[\d,]+ segments and [\d,]+ junctions/);
   await roadTilesDrawn(page);

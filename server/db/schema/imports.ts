@@ -2,7 +2,7 @@
 // until a worker (on any machine with the same database) has read them, with the job's phase,
 // progress and outcome.
 import { customType, index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
-import type { ImportFailure, ImportOptions } from '../../../shared/api/road-import';
+import type { ImportFailure, ImportJobOptions } from '../../../shared/api/road-import';
 import { plans } from './plans';
 import { users } from './organizations';
 
@@ -24,9 +24,9 @@ export const imports = pgTable(
     progress: real().notNull().default(0),
     fileName: text().notNull(),
     sizeBytes: integer().notNull(),
-    // The road layer's name and import options (road layers only).
+    // The road layer's name (road layers only) and the import options of the file's kind.
     layerName: text(),
-    options: jsonb().$type<ImportOptions>(),
+    options: jsonb().$type<ImportJobOptions>(),
     // The upload; emptied once the import has finished, whatever its outcome.
     bytes: bytea(),
     failure: jsonb().$type<ImportFailure>(),

@@ -12,7 +12,7 @@ import { readSheltersUpload } from '../../../server/import/import-zones-and-shel
 import { RoadImportError } from '../../../shared/geo/road-import-error';
 import { tool, westOaklandWorkspace, zipFolder } from './reference-tools';
 
-const mapping = { roadClass: 'highway', classValues: {}, speedUnit: 'kmh' as const };
+const mapping = { roadClass: 'highway', classValues: {}, onewayValues: {}, speedUnit: 'kmh' as const };
 
 async function refusal(p: Promise<unknown>): Promise<{ code: string; message: string }> {
   const e = await p.then(

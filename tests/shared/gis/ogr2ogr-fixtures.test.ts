@@ -14,7 +14,7 @@ import { importRoadLayer, importRoadLayerUpload } from '../../../server/import/i
 import { tool, westOaklandBz2, westOaklandWorkspace, zipFolder } from './reference-tools';
 
 // GDAL's OSM driver gives the tags as fields of these names (osmconf.ini in reference-tools.ts).
-const mapping: PropertyMapping = { roadClass: 'highway', classValues: {}, name: 'name', lanes: 'lanes', oneway: 'oneway', speed: 'maxspeed', speedUnit: 'kmh', bridge: 'bridge', tunnel: 'tunnel', layer: 'layer' };
+const mapping: PropertyMapping = { roadClass: 'highway', classValues: {}, onewayValues: {}, name: 'name', lanes: 'lanes', oneway: 'oneway', speed: 'maxspeed', speedUnit: 'kmh', bridge: 'bridge', tunnel: 'tunnel', layer: 'layer' };
 // OpenStreetMap ways meet at shared nodes; GIS copies of them keep those vertices, so no crossing is split.
 const options = { propertyMapping: mapping, splitAtCrossings: false };
 

@@ -2,7 +2,7 @@
 // zones given as points in a CSV table (neighbourhood centres with a population) → small squares,
 // so that one zone reader serves both. Pure.
 import type { Feature, FeatureCollection } from 'geojson';
-import type { ShelterFieldMapping, ZoneFieldMapping } from '../../../shared/api/road-import';
+import type { ShelterFieldMapping, ZoneFieldMapping } from '../api/road-import';
 
 /** Half the side of the square a point zone becomes, degrees of latitude (about 11 m): small
  *  enough to hold no road node, so the zone attaches to the nearest one. */
