@@ -9,19 +9,12 @@
 // raiseCapacity() adds capacity to one arc; both wake the tree nodes next to the change, and
 // the next maximise() continues from there. This is how the evacuation curve stays incremental.
 
-import { raisedResidual } from './capacity';
 import { FlowAbortedError } from './errors';
 import type { ResidualUndoLog } from './residual-undo-log';
 import type { FlowNetwork } from './flow-network';
+import { FREE, NO_PARENT, ORPHAN, ROOT, SINK_TREE, SOURCE_TREE, SearchTrees, type GrowthProgress } from './search-trees';
 import type { MaxFlowStats, SolveContext } from './solve-context';
 
-const FREE = 0;
-const SOURCE_TREE = 1;
-const SINK_TREE = 2;
-/** parent[] markers; any value ≥ 0 is a residual arc. */
-const NO_PARENT = -1;
-const ROOT = -2;
-const ORPHAN = -3;
 const INFINITE_DISTANCE = 0x3fffffff;
 
 export interface BoykovKolmogorovSolver {
@@ -51,101 +44,94 @@ export function createBoykovKolmogorov(
   initialNodeLimit: number,
   undoLog: ResidualUndoLog | null = null,
 ): BoykovKolmogorovSolver {
-  const { firstOut, head, mate } = network;
-  const n = network.nodeCount;
-  let limit = initialNodeLimit;
-  const tree = new Uint8Array(n);
-  const parent = new Int32Array(n).fill(NO_PARENT);
-  const timestamp = new Int32Array(n);
-  const distance = new Int32Array(n);
+  return new BoykovKolmogorov(network, residual, source, sink, initialNodeLimit, undoLog);
+}
+
+/** The solver's state and its steps; the hot loops copy the fields they read into locals. */
+class BoykovKolmogorov extends SearchTrees implements BoykovKolmogorovSolver {
+  private readonly timestamp: Int32Array;
+  private readonly distance: Int32Array;
   // Active nodes: a FIFO ring; inQueue prevents duplicates.
-  const active = new Int32Array(n);
-  const inQueue = new Uint8Array(n);
-  let activeHead = 0;
-  let activeCount = 0;
+  private readonly active: Int32Array;
+  private readonly inQueue: Uint8Array;
+  private activeHead = 0;
+  private activeCount = 0;
   // Orphans: a ring used as a deque (augmentation orphans at the front, adoption ones at the back).
-  const orphans = new Int32Array(n);
-  let orphanHead = 0;
-  let orphanCount = 0;
-  let time = 0;
+  private readonly orphans: Int32Array;
+  private orphanHead = 0;
+  private orphanCount = 0;
+  private time = 0;
 
-  const activate = (v: number): void => {
-    if (inQueue[v]) return;
-    inQueue[v] = 1;
-    let slot = activeHead + activeCount;
-    if (slot >= n) slot -= n;
-    active[slot] = v;
-    activeCount++;
-  };
-  const orphanFront = (v: number): void => {
-    parent[v] = ORPHAN;
-    orphanHead = orphanHead === 0 ? n - 1 : orphanHead - 1;
-    orphans[orphanHead] = v;
-    orphanCount++;
-  };
-  const orphanBack = (v: number): void => {
-    parent[v] = ORPHAN;
-    let slot = orphanHead + orphanCount;
-    if (slot >= n) slot -= n;
-    orphans[slot] = v;
-    orphanCount++;
-  };
+  constructor(network: FlowNetwork, residual: Int32Array, source: number, sink: number, initialNodeLimit: number, undoLog: ResidualUndoLog | null) {
+    super(network, residual, source, sink, initialNodeLimit, undoLog);
+    const n = this.n;
+    this.timestamp = new Int32Array(n);
+    this.distance = new Int32Array(n);
+    this.active = new Int32Array(n);
+    this.inQueue = new Uint8Array(n);
+    this.orphans = new Int32Array(n);
+    this.plantRoots();
+  }
+
+  protected activate(v: number): void {
+    if (this.inQueue[v]) return;
+    this.inQueue[v] = 1;
+    let slot = this.activeHead + this.activeCount;
+    if (slot >= this.n) slot -= this.n;
+    this.active[slot] = v;
+    this.activeCount++;
+  }
+
+  private orphanFront(v: number): void {
+    this.parent[v] = ORPHAN;
+    this.orphanHead = this.orphanHead === 0 ? this.n - 1 : this.orphanHead - 1;
+    this.orphans[this.orphanHead] = v;
+    this.orphanCount++;
+  }
+
+  private orphanBack(v: number): void {
+    this.parent[v] = ORPHAN;
+    let slot = this.orphanHead + this.orphanCount;
+    if (slot >= this.n) slot -= this.n;
+    this.orphans[slot] = v;
+    this.orphanCount++;
+  }
+
   /** The tree neighbour a node's parent arc leads to. */
-  const parentNode = (v: number): number => {
-    const a = parent[v]!;
-    return tree[v] === SOURCE_TREE ? head[mate[a]!]! : head[a]!;
-  };
-
-  tree[source] = SOURCE_TREE;
-  parent[source] = ROOT;
-  tree[sink] = SINK_TREE;
-  parent[sink] = ROOT;
-  activate(source);
-  activate(sink);
+  private parentNode(v: number): number {
+    const a = this.parent[v]!;
+    return this.tree[v] === SOURCE_TREE ? this.head[this.mate[a]!]! : this.head[a]!;
+  }
 
   /**
    * Pushes the bottleneck along source ⇝ p → q ⇝ sink, where `bridge` is the residual arc
    * p → q with p in the source tree and q in the sink tree. Saturated tree arcs orphan their child.
    */
-  const augment = (bridge: number, stats: MaxFlowStats): number => {
-    let bottleneck = residual[bridge]!;
-    for (let v = head[mate[bridge]!]!; v !== source; ) {
-      const a = parent[v]!;
-      if (residual[a]! < bottleneck) bottleneck = residual[a]!;
-      v = head[mate[a]!]!;
-    }
-    for (let v = head[bridge]!; v !== sink; ) {
-      const a = parent[v]!;
-      if (residual[a]! < bottleneck) bottleneck = residual[a]!;
-      v = head[a]!;
-    }
-    if (undoLog !== null) undoLog.note(bridge);
-    residual[bridge]! -= bottleneck;
-    residual[mate[bridge]!]! += bottleneck;
+  private augment(bridge: number, stats: MaxFlowStats): number {
+    const { residual, parent, head, mate, source, sink } = this;
+    const bottleneck = this.bottleneckOf(bridge);
+    this.push(bridge, bottleneck);
     for (let v = head[mate[bridge]!]!; v !== source; ) {
       const a = parent[v]!;
       const up = head[mate[a]!]!;
-      if (undoLog !== null) undoLog.note(a);
-      residual[a]! -= bottleneck;
-      residual[mate[a]!]! += bottleneck;
-      if (residual[a] === 0) orphanFront(v);
+      this.push(a, bottleneck);
+      if (residual[a] === 0) this.orphanFront(v);
       v = up;
     }
     for (let v = head[bridge]!; v !== sink; ) {
       const a = parent[v]!;
       const down = head[a]!;
-      if (undoLog !== null) undoLog.note(a);
-      residual[a]! -= bottleneck;
-      residual[mate[a]!]! += bottleneck;
-      if (residual[a] === 0) orphanFront(v);
+      this.push(a, bottleneck);
+      if (residual[a] === 0) this.orphanFront(v);
       v = down;
     }
     stats.augmentations++;
     return bottleneck;
-  };
+  }
 
   /** Length of the tree path from j to its root, or INFINITE_DISTANCE if it ends in an orphan. */
-  const rootDistance = (j: number): number => {
+  private rootDistance(j: number): number {
+    const { timestamp, distance, parent, time } = this;
     let d = 0;
     for (let k = j; ; ) {
       if (timestamp[k] === time) return d + distance[k]!;
@@ -157,18 +143,31 @@ export function createBoykovKolmogorov(
       }
       if (a === ORPHAN || a === NO_PARENT) return INFINITE_DISTANCE;
       d++;
-      k = parentNode(k);
+      k = this.parentNode(k);
     }
-  };
+  }
+
   /** Caches the distances along j's verified path so later searches stop early. */
-  const markPath = (j: number, d: number): void => {
-    for (let k = j; timestamp[k] !== time; k = parentNode(k)) {
+  private markPath(j: number, d: number): void {
+    const { timestamp, distance, time } = this;
+    for (let k = j; timestamp[k] !== time; k = this.parentNode(k)) {
       timestamp[k] = time;
       distance[k] = d--;
     }
-  };
+  }
 
-  const adopt = (i: number): void => {
+  private adoptOrphans(): void {
+    while (this.orphanCount > 0) {
+      const v = this.orphans[this.orphanHead]!;
+      this.orphanHead = this.orphanHead + 1 === this.n ? 0 : this.orphanHead + 1;
+      this.orphanCount--;
+      if (!this.adopt(v)) this.setFree(v);
+    }
+  }
+
+  /** Gives orphan i the tree neighbour closest to the root as its parent; false when none leads there. */
+  private adopt(i: number): boolean {
+    const { firstOut, head, mate, tree, parent, residual, limit } = this;
     const side = tree[i]!;
     const fromSource = side === SOURCE_TREE;
     let best = NO_PARENT;
@@ -179,140 +178,92 @@ export function createBoykovKolmogorov(
       // Source tree: the candidate parent j needs residual j → i; sink tree: i → j.
       const link = fromSource ? mate[r]! : r;
       if (residual[link] === 0) continue;
-      const d = rootDistance(j);
+      const d = this.rootDistance(j);
       if (d < INFINITE_DISTANCE) {
         if (d < bestDistance) {
           best = link;
           bestDistance = d;
         }
-        markPath(j, d);
+        this.markPath(j, d);
       }
     }
-    if (best !== NO_PARENT) {
-      parent[i] = best;
-      timestamp[i] = time;
-      distance[i] = bestDistance + 1;
-      return;
-    }
-    // No way back to the root: i becomes free, its tree neighbours may pick it up again later.
+    if (best === NO_PARENT) return false;
+    parent[i] = best;
+    this.timestamp[i] = this.time;
+    this.distance[i] = bestDistance + 1;
+    return true;
+  }
+
+  /** No way back to the root: i becomes free, its tree neighbours may pick it up again later. */
+  private setFree(i: number): void {
+    const { firstOut, head, mate, tree, parent, residual, limit } = this;
+    const side = tree[i]!;
+    const fromSource = side === SOURCE_TREE;
     for (let r = firstOut[i]!, end = firstOut[i + 1]!; r < end; r++) {
       const j = head[r]!;
       if (j >= limit || tree[j] !== side) continue;
       const a = parent[j]!;
       if (a === NO_PARENT) continue;
       const link = fromSource ? mate[r]! : r;
-      if (residual[link]! > 0) activate(j);
-      if (a >= 0 && parentNode(j) === i) orphanBack(j);
+      if (residual[link]! > 0) this.activate(j);
+      if (a >= 0 && this.parentNode(j) === i) this.orphanBack(j);
     }
     tree[i] = FREE;
     parent[i] = NO_PARENT;
-  };
+  }
 
-  const adoptOrphans = (): void => {
-    while (orphanCount > 0) {
-      const v = orphans[orphanHead]!;
-      orphanHead = orphanHead + 1 === n ? 0 : orphanHead + 1;
-      orphanCount--;
-      adopt(v);
-    }
-  };
-
-  const maximise = (stats: MaxFlowStats, shouldAbort?: () => boolean): number => {
+  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): number {
     stats.phases++;
-    let sinceCheck = 0;
-    let added = 0;
-    while (activeCount > 0) {
-      const p = active[activeHead]!;
-      activeHead = activeHead + 1 === n ? 0 : activeHead + 1;
-      activeCount--;
-      inQueue[p] = 0;
-      const side = tree[p]!;
-      if (side === FREE) continue;
-      const end = firstOut[p + 1]!;
-      for (let r = firstOut[p]!; r < end; r++) {
-        const q = head[r]!;
-        if (q >= limit) continue;
-        let bridge = -1;
-        if (side === SOURCE_TREE) {
-          if (residual[r] === 0) continue;
-          const qs = tree[q]!;
-          if (qs === FREE) {
-            tree[q] = SOURCE_TREE;
-            parent[q] = r;
-            timestamp[q] = timestamp[p]!;
-            distance[q] = distance[p]! + 1;
-            activate(q);
-            continue;
-          }
-          if (qs === SOURCE_TREE) {
-            if (timestamp[q]! <= timestamp[p]! && distance[q]! > distance[p]! && parent[q]! >= 0) {
-              parent[q] = r;
-              timestamp[q] = timestamp[p]!;
-              distance[q] = distance[p]! + 1;
-            }
-            continue;
-          }
-          bridge = r;
-        } else {
-          const back = mate[r]!; // q → p
-          if (residual[back] === 0) continue;
-          const qs = tree[q]!;
-          if (qs === FREE) {
-            tree[q] = SINK_TREE;
-            parent[q] = back;
-            timestamp[q] = timestamp[p]!;
-            distance[q] = distance[p]! + 1;
-            activate(q);
-            continue;
-          }
-          if (qs === SINK_TREE) {
-            if (timestamp[q]! <= timestamp[p]! && distance[q]! > distance[p]! && parent[q]! >= 0) {
-              parent[q] = back;
-              timestamp[q] = timestamp[p]!;
-              distance[q] = distance[p]! + 1;
-            }
-            continue;
-          }
-          bridge = back;
-        }
-        // The trees touch: augment, repair the trees, and look at this arc again if p survived.
-        time++;
-        added += augment(bridge, stats);
-        adoptOrphans();
-        if (++sinceCheck >= 256) {
-          sinceCheck = 0;
-          if (shouldAbort?.()) throw new FlowAbortedError('Boykov–Kolmogorov aborted by the caller');
-        }
-        if (tree[p] !== side) break;
-        r--;
-      }
+    const progress: GrowthProgress = { added: 0, sinceCheck: 0 };
+    while (this.activeCount > 0) {
+      const p = this.active[this.activeHead]!;
+      this.activeHead = this.activeHead + 1 === this.n ? 0 : this.activeHead + 1;
+      this.activeCount--;
+      this.inQueue[p] = 0;
+      if (this.tree[p] === FREE) continue;
+      this.growFrom(p, stats, progress, shouldAbort);
     }
-    return added;
-  };
+    return progress.added;
+  }
 
-  return {
-    maximise,
-    extendNodeLimit(newLimit: number): void {
-      const old = limit;
-      limit = newLimit;
-      for (let v = old; v < newLimit; v++) {
-        for (let r = firstOut[v]!, end = firstOut[v + 1]!; r < end; r++) {
-          const u = head[r]!;
-          if (u < old && tree[u] !== FREE) activate(u);
+  // Scans the arcs of active node p: free neighbours join p's tree; a neighbour of the same tree
+  // whose path to the root is longer and no fresher takes p as its parent; a neighbour in the
+  // other tree closes an augmenting path, after which the trees are repaired and the same arc is
+  // looked at again if p survived.
+  private growFrom(p: number, stats: MaxFlowStats, progress: GrowthProgress, shouldAbort?: () => boolean): void {
+    const { firstOut, head, mate, tree, parent, timestamp, distance, residual, limit } = this;
+    const side = tree[p]!;
+    const end = firstOut[p + 1]!;
+    for (let r = firstOut[p]!; r < end; r++) {
+      const q = head[r]!;
+      if (q >= limit) continue;
+      // Source tree: residual p → q; sink tree: q → p.
+      const link = side === SOURCE_TREE ? r : mate[r]!;
+      if (residual[link] === 0) continue;
+      const qs = tree[q]!;
+      if (qs === FREE || (qs === side && timestamp[q]! <= timestamp[p]! && distance[q]! > distance[p]! && parent[q]! >= 0)) {
+        if (qs === FREE) {
+          tree[q] = side;
+          this.activate(q);
         }
+        parent[q] = link;
+        timestamp[q] = timestamp[p]!;
+        distance[q] = distance[p]! + 1;
+        continue;
       }
-    },
-    raiseCapacity(r: number, amount: number): void {
-      if (undoLog !== null) undoLog.note(r);
-      residual[r] = raisedResidual(residual, mate, r, amount);
-      const tail = head[mate[r]!]!;
-      if (tree[tail] !== FREE) activate(tail);
-      if (tree[head[r]!] !== FREE) activate(head[r]!);
-    },
-    get nodeLimit() {
-      return limit;
-    },
-  };
+      if (qs === side) continue;
+      this.time++;
+      progress.added += this.augment(link, stats);
+      this.adoptOrphans();
+      if (++progress.sinceCheck >= 256) {
+        progress.sinceCheck = 0;
+        if (shouldAbort?.()) throw new FlowAbortedError('Boykov–Kolmogorov aborted by the caller');
+      }
+      if (tree[p] !== side) break;
+      r--;
+    }
+  }
+
 }
 
 /** One-shot run for the front door. */

@@ -14,19 +14,12 @@
 // Capacities that only grow keep the trees valid, so the solver can be resumed after more nodes
 // become visible (the next horizon) or after an arc gains capacity (a what-if run).
 
-import { raisedResidual } from './capacity';
 import { FlowAbortedError } from './errors';
 import type { ResidualUndoLog } from './residual-undo-log';
 import type { FlowNetwork } from './flow-network';
+import { FREE, NO_PARENT, ORPHAN, SINK_TREE, SOURCE_TREE, SearchTrees, type GrowthProgress } from './search-trees';
 import type { MaxFlowStats, SolveContext } from './solve-context';
 
-const FREE = 0;
-const SOURCE_TREE = 1;
-const SINK_TREE = 2;
-/** parent[] markers; any value ≥ 0 is a residual arc (from the parent in the source tree, to it in the sink tree). */
-const NO_PARENT = -1;
-const ROOT = -2;
-const ORPHAN = -3;
 /**
  * Label gap between a node and a child found by growth. Leaving room means a parent that has to
  * rise a little still sits below its children, so they keep it; 4 measured best on the bench's
@@ -74,143 +67,174 @@ export function createIncrementalBfs(
   initialBuckets = 1 << 16,
   undoLog: ResidualUndoLog | null = null,
 ): IncrementalSolver {
-  const { firstOut, head, mate } = network;
-  const n = network.nodeCount;
-  let limit = initialNodeLimit;
-  const tree = new Uint8Array(n);
-  const parent = new Int32Array(n).fill(NO_PARENT);
-  const label = new Int32Array(n);
+  return new IncrementalBfs(network, residual, source, sink, initialNodeLimit, initialBuckets, undoLog);
+}
+
+/** The solver's state and its steps; the hot loops copy the fields they read into locals. */
+class IncrementalBfs extends SearchTrees implements IncrementalSolver {
+  private readonly label: Int32Array;
   // Active nodes, bucketed by label, one bucket array per tree (singly linked lists); orphans
   // bucketed the same way (one tree at a time is repaired, so one array suffices). Labels have no
   // fixed ceiling, so the bucket arrays grow on demand.
-  const activeNext = new Int32Array(n);
-  const isActive = new Uint8Array(n);
-  const orphanNext = new Int32Array(n);
-  let buckets = Math.max(2, Math.min(n + 2, initialBuckets));
-  let activeFirstS = new Int32Array(buckets).fill(-1);
-  let activeFirstT = new Int32Array(buckets).fill(-1);
-  let orphanFirst = new Int32Array(buckets).fill(-1);
-  let lowestActiveS = buckets;
-  let lowestActiveT = buckets;
-  let lowestOrphan = buckets;
-  let activeCountS = 0;
-  let activeCountT = 0;
-  let orphanCount = 0;
-  const grown = (array: Int32Array, size: number): Int32Array<ArrayBuffer> => {
-    const bigger = new Int32Array(size).fill(-1);
-    bigger.set(array);
-    return bigger;
-  };
-  const ensureBucket = (d: number): void => {
-    if (d < buckets) return;
-    let size = buckets;
+  private readonly activeNext: Int32Array;
+  private readonly isActive: Uint8Array;
+  private readonly orphanNext: Int32Array;
+  private buckets: number;
+  private activeFirstS: Int32Array;
+  private activeFirstT: Int32Array;
+  private orphanFirst: Int32Array;
+  private lowestActiveS: number;
+  private lowestActiveT: number;
+  private lowestOrphan: number;
+  private activeCountS = 0;
+  private activeCountT = 0;
+  private orphanCount = 0;
+  /** Scratch for repair(): the orphan's children, each listed once. */
+  private readonly children: Int32Array;
+
+  constructor(
+    network: FlowNetwork,
+    residual: Int32Array,
+    source: number,
+    sink: number,
+    initialNodeLimit: number,
+    initialBuckets: number,
+    undoLog: ResidualUndoLog | null,
+  ) {
+    super(network, residual, source, sink, initialNodeLimit, undoLog);
+    const n = this.n;
+    this.label = new Int32Array(n);
+    this.activeNext = new Int32Array(n);
+    this.isActive = new Uint8Array(n);
+    this.orphanNext = new Int32Array(n);
+    this.children = new Int32Array(n);
+    this.buckets = Math.max(2, Math.min(n + 2, initialBuckets));
+    this.activeFirstS = new Int32Array(this.buckets).fill(-1);
+    this.activeFirstT = new Int32Array(this.buckets).fill(-1);
+    this.orphanFirst = new Int32Array(this.buckets).fill(-1);
+    this.lowestActiveS = this.buckets;
+    this.lowestActiveT = this.buckets;
+    this.lowestOrphan = this.buckets;
+    this.plantRoots();
+  }
+
+  /** Makes room for label d in the bucket arrays (doubling them). */
+  private ensureBucket(d: number): void {
+    if (d < this.buckets) return;
+    let size = this.buckets;
     while (size <= d) size *= 2;
-    activeFirstS = grown(activeFirstS, size);
-    activeFirstT = grown(activeFirstT, size);
-    orphanFirst = grown(orphanFirst, size);
-    if (lowestActiveS === buckets) lowestActiveS = size;
-    if (lowestActiveT === buckets) lowestActiveT = size;
-    if (lowestOrphan === buckets) lowestOrphan = size;
-    buckets = size;
-  };
+    this.activeFirstS = grown(this.activeFirstS, size);
+    this.activeFirstT = grown(this.activeFirstT, size);
+    this.orphanFirst = grown(this.orphanFirst, size);
+    if (this.lowestActiveS === this.buckets) this.lowestActiveS = size;
+    if (this.lowestActiveT === this.buckets) this.lowestActiveT = size;
+    if (this.lowestOrphan === this.buckets) this.lowestOrphan = size;
+    this.buckets = size;
+  }
 
-  const activate = (v: number): void => {
-    if (isActive[v]) return;
-    isActive[v] = 1;
-    const d = label[v]!;
-    if (tree[v] === SOURCE_TREE) {
-      activeNext[v] = activeFirstS[d]!;
-      activeFirstS[d] = v;
-      if (d < lowestActiveS) lowestActiveS = d;
-      activeCountS++;
+  protected activate(v: number): void {
+    if (this.isActive[v]) return;
+    this.isActive[v] = 1;
+    const d = this.label[v]!;
+    if (this.tree[v] === SOURCE_TREE) {
+      this.activeNext[v] = this.activeFirstS[d]!;
+      this.activeFirstS[d] = v;
+      if (d < this.lowestActiveS) this.lowestActiveS = d;
+      this.activeCountS++;
     } else {
-      activeNext[v] = activeFirstT[d]!;
-      activeFirstT[d] = v;
-      if (d < lowestActiveT) lowestActiveT = d;
-      activeCountT++;
+      this.activeNext[v] = this.activeFirstT[d]!;
+      this.activeFirstT[d] = v;
+      if (d < this.lowestActiveT) this.lowestActiveT = d;
+      this.activeCountT++;
     }
-  };
-  const addOrphan = (v: number): void => {
-    parent[v] = ORPHAN;
-    const d = label[v]!;
-    orphanNext[v] = orphanFirst[d]!;
-    orphanFirst[d] = v;
-    if (d < lowestOrphan) lowestOrphan = d;
-    orphanCount++;
-  };
-  /** The tree neighbour v's parent arc leads to (v must have a parent arc). */
-  const parentNode = (v: number): number => {
-    const a = parent[v]!;
-    return tree[v] === SOURCE_TREE ? head[mate[a]!]! : head[a]!;
-  };
+  }
 
-  tree[source] = SOURCE_TREE;
-  parent[source] = ROOT;
-  tree[sink] = SINK_TREE;
-  parent[sink] = ROOT;
-  activate(source);
-  activate(sink);
+  private addOrphan(v: number): void {
+    this.parent[v] = ORPHAN;
+    const d = this.label[v]!;
+    this.orphanNext[v] = this.orphanFirst[d]!;
+    this.orphanFirst[d] = v;
+    if (d < this.lowestOrphan) this.lowestOrphan = d;
+    this.orphanCount++;
+  }
 
-  // Source ⇝ tail(bridge) → head(bridge) ⇝ sink; saturated tree arcs orphan their child.
-  const augment = (bridge: number, stats: MaxFlowStats): number => {
-    let bottleneck = residual[bridge]!;
-    for (let v = head[mate[bridge]!]!; v !== source; ) {
-      const a = parent[v]!;
-      if (residual[a]! < bottleneck) bottleneck = residual[a]!;
-      v = head[mate[a]!]!;
+  /** The active node of lowest label in the source tree (fromSource) or the sink tree. */
+  private popActive(fromSource: boolean): number {
+    const { activeNext, isActive } = this;
+    if (fromSource) {
+      while (this.activeFirstS[this.lowestActiveS]! < 0) this.lowestActiveS++;
+      const v = this.activeFirstS[this.lowestActiveS]!;
+      this.activeFirstS[this.lowestActiveS] = activeNext[v]!;
+      this.activeCountS--;
+      isActive[v] = 0;
+      return v;
     }
-    for (let v = head[bridge]!; v !== sink; ) {
-      const a = parent[v]!;
-      if (residual[a]! < bottleneck) bottleneck = residual[a]!;
-      v = head[a]!;
-    }
-    if (undoLog !== null) undoLog.note(bridge);
-    residual[bridge]! -= bottleneck;
-    residual[mate[bridge]!]! += bottleneck;
+    while (this.activeFirstT[this.lowestActiveT]! < 0) this.lowestActiveT++;
+    const v = this.activeFirstT[this.lowestActiveT]!;
+    this.activeFirstT[this.lowestActiveT] = activeNext[v]!;
+    this.activeCountT--;
+    isActive[v] = 0;
+    return v;
+  }
+
+  // Source ⇝ tail(bridge) → head(bridge) ⇝ sink; saturated tree arcs orphan their child, and
+  // each tree is repaired in turn.
+  private augment(bridge: number, stats: MaxFlowStats): number {
+    const { residual, parent, head, mate, source, sink } = this;
+    const bottleneck = this.bottleneckOf(bridge);
+    this.push(bridge, bottleneck);
     let sourceOrphans = 0;
     for (let v = head[mate[bridge]!]!; v !== source; ) {
       const a = parent[v]!;
       const up = head[mate[a]!]!;
-      if (undoLog !== null) undoLog.note(a);
-      residual[a]! -= bottleneck;
-      residual[mate[a]!]! += bottleneck;
+      this.push(a, bottleneck);
       if (residual[a] === 0) {
-        addOrphan(v);
+        this.addOrphan(v);
         sourceOrphans++;
       }
       v = up;
     }
-    if (sourceOrphans > 0) adoptOrphans(SOURCE_TREE);
+    if (sourceOrphans > 0) this.adoptOrphans(SOURCE_TREE);
     for (let v = head[bridge]!; v !== sink; ) {
       const a = parent[v]!;
       const down = head[a]!;
-      if (undoLog !== null) undoLog.note(a);
-      residual[a]! -= bottleneck;
-      residual[mate[a]!]! += bottleneck;
-      if (residual[a] === 0) addOrphan(v);
+      this.push(a, bottleneck);
+      if (residual[a] === 0) this.addOrphan(v);
       v = down;
     }
-    if (orphanCount > 0) adoptOrphans(SINK_TREE);
+    if (this.orphanCount > 0) this.adoptOrphans(SINK_TREE);
     stats.augmentations++;
     return bottleneck;
-  };
+  }
+
+  /** Repairs the orphans of `side` in increasing label order. */
+  private adoptOrphans(side: number): void {
+    const { orphanNext, parent, label } = this;
+    while (this.orphanCount > 0) {
+      while (this.orphanFirst[this.lowestOrphan]! < 0) this.lowestOrphan++;
+      const v = this.orphanFirst[this.lowestOrphan]!;
+      this.orphanFirst[this.lowestOrphan] = orphanNext[v]!;
+      this.orphanCount--;
+      if (parent[v] !== ORPHAN || label[v] !== this.lowestOrphan) continue; // re-queued at a higher label
+      this.repair(v, side);
+    }
+    this.lowestOrphan = this.buckets;
+  }
 
   // Re-attach or relabel one orphan of `side`, in one pass over its arcs: the lowest rooted
   // neighbour below it becomes its parent; failing that it rises to one above its lowest tree
   // neighbour that is not its child (a pending one is checked again when v's new bucket comes
   // up), and only the children that would no longer sit above it become orphans; with no
   // candidate at all it becomes free.
-  const children = new Int32Array(n);
-  const repair = (v: number, side: number): void => {
+  private repair(v: number, side: number): void {
+    const { firstOut, head, mate, tree, parent, label, residual, children, limit } = this;
     const fromSource = side === SOURCE_TREE;
     const d = label[v]!;
-    const start = firstOut[v]!;
-    const end = firstOut[v + 1]!;
     let best = -1;
     let bestLabel = d;
     let lowest = -1;
     let childCount = 0;
-    for (let r = start; r < end; r++) {
+    for (let r = firstOut[v]!, end = firstOut[v + 1]!; r < end; r++) {
       const u = head[r]!;
       if (u >= limit || tree[u] !== side || u === v) continue;
       const pu = parent[u]!;
@@ -230,158 +254,109 @@ export function createIncrementalBfs(
       }
       if (lowest < 0 || lu < lowest) lowest = lu;
     }
-    if (best >= 0) {
-      parent[v] = best;
-      return;
+    if (best >= 0) parent[v] = best;
+    else if (lowest >= 0) this.rise(v, lowest + 1, childCount);
+    else this.setFree(v, side, childCount);
+  }
+
+  /** The orphan v takes label `next`; children that would no longer sit above it are orphaned. */
+  private rise(v: number, next: number, childCount: number): void {
+    const { children, label } = this;
+    this.ensureBucket(next);
+    label[v] = next;
+    for (let k = 0; k < childCount; k++) {
+      const c = children[k]!;
+      if (label[c]! <= next) this.addOrphan(c);
     }
-    if (lowest >= 0) {
-      const next = lowest + 1;
-      ensureBucket(next);
-      label[v] = next;
-      for (let k = 0; k < childCount; k++) {
-        const c = children[k]!;
-        if (label[c]! <= next) addOrphan(c);
-      }
-      addOrphan(v);
-      return;
-    }
-    // Nothing of this tree leads into v any more: v becomes free; neighbours that could reach it
-    // later are woken so the tree can grow back into it.
-    for (let k = 0; k < childCount; k++) addOrphan(children[k]!);
+    this.addOrphan(v);
+  }
+
+  // Nothing of this tree leads into v any more: v becomes free; neighbours that could reach it
+  // later are woken so the tree can grow back into it.
+  private setFree(v: number, side: number, childCount: number): void {
+    const { firstOut, head, mate, tree, parent, residual, children, limit } = this;
+    const fromSource = side === SOURCE_TREE;
+    for (let k = 0; k < childCount; k++) this.addOrphan(children[k]!);
     tree[v] = FREE;
     parent[v] = NO_PARENT;
-    for (let r = start; r < end; r++) {
+    for (let r = firstOut[v]!, end = firstOut[v + 1]!; r < end; r++) {
       const u = head[r]!;
       if (u >= limit || tree[u] !== side || parent[u] === NO_PARENT) continue;
       const link = fromSource ? mate[r]! : r;
-      if (residual[link]! > 0) activate(u);
+      if (residual[link]! > 0) this.activate(u);
     }
-  };
+  }
 
-  const adoptOrphans = (side: number): void => {
-    while (orphanCount > 0) {
-      while (orphanFirst[lowestOrphan]! < 0) lowestOrphan++;
-      const v = orphanFirst[lowestOrphan]!;
-      orphanFirst[lowestOrphan] = orphanNext[v]!;
-      orphanCount--;
-      if (parent[v] !== ORPHAN || label[v] !== lowestOrphan) continue; // re-queued at a higher label
-      repair(v, side);
-    }
-    lowestOrphan = buckets;
-  };
-
-  const popActive = (fromSource: boolean): number => {
-    if (fromSource) {
-      while (activeFirstS[lowestActiveS]! < 0) lowestActiveS++;
-      const v = activeFirstS[lowestActiveS]!;
-      activeFirstS[lowestActiveS] = activeNext[v]!;
-      activeCountS--;
-      isActive[v] = 0;
-      return v;
-    }
-    while (activeFirstT[lowestActiveT]! < 0) lowestActiveT++;
-    const v = activeFirstT[lowestActiveT]!;
-    activeFirstT[lowestActiveT] = activeNext[v]!;
-    activeCountT--;
-    isActive[v] = 0;
-    return v;
-  };
-
-  const maximise = (stats: MaxFlowStats, shouldAbort?: () => boolean): number => {
+  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): number {
     stats.phases++;
-    let sinceCheck = 0;
-    let added = 0;
-    while (activeCountS + activeCountT > 0) {
-      const growSource = activeCountT === 0 || (activeCountS > 0 && lowestActiveS <= lowestActiveT);
-      const p = popActive(growSource);
-      const side = tree[p]!;
-      if (side === FREE) continue;
-      const d = label[p]!;
-      const end = firstOut[p + 1]!;
-      for (let r = firstOut[p]!; r < end; r++) {
-        const q = head[r]!;
-        if (q >= limit) continue;
-        let bridge: number;
-        if (side === SOURCE_TREE) {
-          if (residual[r] === 0) continue;
-          const qs = tree[q]!;
-          if (qs === SOURCE_TREE) continue;
-          if (qs === FREE) {
-            tree[q] = SOURCE_TREE;
-            parent[q] = r;
-            ensureBucket(d + GROWTH_STEP);
-            label[q] = d + GROWTH_STEP;
-            activate(q);
-            continue;
-          }
-          bridge = r;
-        } else {
-          const back = mate[r]!;
-          if (residual[back] === 0) continue;
-          const qs = tree[q]!;
-          if (qs === SINK_TREE) continue;
-          if (qs === FREE) {
-            tree[q] = SINK_TREE;
-            parent[q] = back;
-            ensureBucket(d + GROWTH_STEP);
-            label[q] = d + GROWTH_STEP;
-            activate(q);
-            continue;
-          }
-          bridge = back;
-        }
-        added += augment(bridge, stats);
-        if (++sinceCheck >= 256) {
-          sinceCheck = 0;
-          if (shouldAbort?.()) throw new FlowAbortedError('incremental BFS aborted by the caller');
-        }
-        if (tree[p] !== side) break;
-        if (label[p] !== d) {
-          activate(p);
-          break;
-        }
-        r--; // the same arc may carry more
-      }
+    const progress: GrowthProgress = { added: 0, sinceCheck: 0 };
+    while (this.activeCountS + this.activeCountT > 0) {
+      const growSource = this.activeCountT === 0 || (this.activeCountS > 0 && this.lowestActiveS <= this.lowestActiveT);
+      const p = this.popActive(growSource);
+      if (this.tree[p] === FREE) continue;
+      this.growFrom(p, stats, progress, shouldAbort);
     }
-    return added;
-  };
+    return progress.added;
+  }
 
-  return {
-    maximise,
-    extendNodeLimit(newLimit: number): void {
-      const old = limit;
-      limit = newLimit;
-      for (let v = old; v < newLimit; v++) {
-        for (let r = firstOut[v]!, end = firstOut[v + 1]!; r < end; r++) {
-          const u = head[r]!;
-          if (u < old && tree[u] !== FREE) activate(u);
-        }
+  // Scans the arcs of active node p: free neighbours join p's tree one growth step above it; a
+  // neighbour in the other tree closes an augmenting path. p stops when it leaves its tree, or
+  // is re-queued when a repair relabelled it.
+  private growFrom(p: number, stats: MaxFlowStats, progress: GrowthProgress, shouldAbort?: () => boolean): void {
+    const { firstOut, head, mate, tree, parent, label, residual, limit } = this;
+    const side = tree[p]!;
+    const d = label[p]!;
+    const end = firstOut[p + 1]!;
+    for (let r = firstOut[p]!; r < end; r++) {
+      const q = head[r]!;
+      if (q >= limit) continue;
+      const link = side === SOURCE_TREE ? r : mate[r]!;
+      if (residual[link] === 0) continue;
+      const qs = tree[q]!;
+      if (qs === side) continue;
+      if (qs === FREE) {
+        tree[q] = side;
+        parent[q] = link;
+        this.ensureBucket(d + GROWTH_STEP);
+        label[q] = d + GROWTH_STEP;
+        this.activate(q);
+        continue;
       }
-    },
-    raiseCapacity(r: number, amount: number): void {
-      if (undoLog !== null) undoLog.note(r);
-      residual[r] = raisedResidual(residual, mate, r, amount);
-      const tail = head[mate[r]!]!;
-      if (tree[tail] !== FREE) activate(tail);
-      if (tree[head[r]!] !== FREE) activate(head[r]!);
-    },
-    save(): IncrementalSolverSnapshot {
-      return { tree: tree.slice(), parent: parent.slice(), label: label.slice(), residual: residual.slice(), limit };
-    },
-    restore(snapshot: IncrementalSolverSnapshot): void {
-      // Between maximise() calls the active and orphan queues are empty, so the trees, labels
-      // and residual capacities are the whole state.
-      tree.set(snapshot.tree);
-      parent.set(snapshot.parent);
-      label.set(snapshot.label);
-      residual.set(snapshot.residual);
-      limit = snapshot.limit;
-      while (activeCountS + activeCountT > 0) isActive[popActive(activeCountS > 0)] = 0;
-    },
-    get nodeLimit() {
-      return limit;
-    },
-  };
+      progress.added += this.augment(link, stats);
+      if (++progress.sinceCheck >= 256) {
+        progress.sinceCheck = 0;
+        if (shouldAbort?.()) throw new FlowAbortedError('incremental BFS aborted by the caller');
+      }
+      if (tree[p] !== side) break;
+      if (label[p] !== d) {
+        this.activate(p);
+        break;
+      }
+      r--; // the same arc may carry more
+    }
+  }
+
+
+  save(): IncrementalSolverSnapshot {
+    return { tree: this.tree.slice(), parent: this.parent.slice(), label: this.label.slice(), residual: this.residual.slice(), limit: this.limit };
+  }
+
+  restore(snapshot: IncrementalSolverSnapshot): void {
+    // Between maximise() calls the active and orphan queues are empty, so the trees, labels
+    // and residual capacities are the whole state.
+    this.tree.set(snapshot.tree);
+    this.parent.set(snapshot.parent);
+    this.label.set(snapshot.label);
+    this.residual.set(snapshot.residual);
+    this.limit = snapshot.limit;
+    while (this.activeCountS + this.activeCountT > 0) this.isActive[this.popActive(this.activeCountS > 0)] = 0;
+  }
+}
+
+function grown(array: Int32Array, size: number): Int32Array {
+  const bigger = new Int32Array(size).fill(-1);
+  bigger.set(array);
+  return bigger;
 }
 
 /** One-shot run for the front door. */
