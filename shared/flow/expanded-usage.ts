@@ -1,6 +1,6 @@
 // Per-road use of a time-expanded flow, and its decomposition into trips. The expanded network
 // is acyclic (every arc moves forward in time, except the zone → gate → entry arcs within a
-// step, which never lead back to a zone), so following arcs that still carry flow from the
+// step, which never lead back to a zone, and zero-step roads, which never close a cycle), so following arcs that still carry flow from the
 // source always ends at the sink: each walk is one group of vehicles with one zone, one shelter
 // and one arrival step.
 
@@ -73,6 +73,29 @@ export interface TripSummary {
   shelterLastArrivalStep: number[];
   /** Vehicles of zone z received by shelter s, for every pair with some. */
   assignments: { zone: number; shelter: number; vehicles: number }[];
+  /** Present when the roads were given: how the routes the plan uses are timed against free flow. */
+  plannedRoutes?: PlannedRouteTiming;
+}
+
+/**
+ * The routes the plan's vehicles actually drive (each walk of the decomposition), each route's
+ * modelled driving time Σ τ_e·Δ against its free-flow time Σ t_e (waiting in queues left out: it is
+ * not a rounding error). Weighted by vehicles.
+ */
+export interface PlannedRouteTiming {
+  vehicles: number;
+  /** Largest |modelled − free flow| over the routes used, and the vehicle-weighted median. */
+  largestSeconds: number;
+  typicalSeconds: number;
+  /** Share of the vehicles whose route is modelled within one step of free flow. */
+  withinOneStepShare: number;
+}
+
+/** The roads as decomposeTrips needs them to time the routes it finds. */
+export interface TripRoads {
+  readonly from: ArrayLike<number>;
+  readonly to: ArrayLike<number>;
+  readonly travelTimeSeconds: ArrayLike<number>;
 }
 
 /**
@@ -86,8 +109,11 @@ export function decomposeTrips(
   state: FlowState,
   zoneCount: number,
   shelterCount: number,
+  roads?: TripRoads,
 ): TripSummary {
   const { network, source, sink, layerBase, layerSize } = expanded;
+  const routeError = roads ? routeErrorOfWalk(expanded, roads) : null;
+  const routes: { error: number; vehicles: number }[] = [];
   const { firstOut, head, capacity, mate, residualOfArc } = network;
   const roadNodes = expanded.roadNodeCount;
   const remaining = state.residual; // flow left on forward arc r = capacity[r] − remaining[r]
@@ -127,6 +153,7 @@ export function decomposeTrips(
     if (arrival > shelterLast[shelter]!) shelterLast[shelter] = arrival;
     const key = zone * shelterCount + shelter;
     pairs.set(key, (pairs.get(key) ?? 0) + amount);
+    if (routeError) routes.push({ error: Math.abs(routeError(path, depth)), vehicles: amount });
   }
   // Only forward arcs were raised above; their mates still hold each arc's flow.
   for (let i = 0; i < residualOfArc.length; i++) {
@@ -136,5 +163,66 @@ export function decomposeTrips(
   const assignments = [...pairs.entries()]
     .sort((a, b) => a[0] - b[0])
     .map(([key, vehicles]) => ({ zone: Math.floor(key / shelterCount), shelter: key % shelterCount, vehicles }));
-  return { zoneDelivered, zoneLastArrivalStep: zoneLast, shelterArrived, shelterLastArrivalStep: shelterLast, assignments };
+  const summary: TripSummary = { zoneDelivered, zoneLastArrivalStep: zoneLast, shelterArrived, shelterLastArrivalStep: shelterLast, assignments };
+  if (routeError) summary.plannedRoutes = plannedRouteTiming(routes, expanded.timeStepSeconds);
+  return summary;
+}
+
+/**
+ * Modelled minus free-flow seconds of the roads along a walk. A road arc joins copies of two
+ * different road nodes; it is told from its parallels by its step count (parallel roads with the
+ * same count cannot be told apart in the walk: the first is taken).
+ */
+function routeErrorOfWalk(expanded: TimeExpandedNetwork, roads: TripRoads): (path: Int32Array, depth: number) => number {
+  const { network, layerBase, layerSize, roadNodeCount: N, roadTravelSteps, timeStepSeconds: dt } = expanded;
+  const { head, mate } = network;
+  const R = roadTravelSteps.length;
+  const first = new Int32Array(N + 1);
+  for (let e = 0; e < R; e++) first[roads.from[e]! + 1]!++;
+  for (let v = 0; v < N; v++) first[v + 1]! += first[v]!;
+  const fill = first.slice(0, N);
+  const leaving = new Int32Array(R);
+  for (let e = 0; e < R; e++) leaving[fill[roads.from[e]!]!++] = e;
+  return (path, depth) => {
+    let error = 0;
+    for (let i = 0; i < depth; i++) {
+      const r = path[i]!;
+      const tail = head[mate[r]!]! - layerBase;
+      const to = head[r]! - layerBase;
+      if (tail < 0 || to < 0) continue;
+      const u = tail % layerSize;
+      const v = to % layerSize;
+      if (u >= N || v >= N || u === v) continue; // a zone's or shelter's arc, or waiting
+      const steps = Math.floor(to / layerSize) - Math.floor(tail / layerSize);
+      for (let k = first[u]!, end = first[u + 1]!; k < end; k++) {
+        const e = leaving[k]!;
+        if (roads.to[e] === v && roadTravelSteps[e] === steps) {
+          error += steps * dt - roads.travelTimeSeconds[e]!;
+          break;
+        }
+      }
+    }
+    return error;
+  };
+}
+
+function plannedRouteTiming(routes: { error: number; vehicles: number }[], dt: number): PlannedRouteTiming {
+  const vehicles = routes.reduce((sum, r) => sum + r.vehicles, 0);
+  routes.sort((a, b) => a.error - b.error);
+  let seen = 0;
+  let typical = 0;
+  for (const r of routes) {
+    seen += r.vehicles;
+    if (2 * seen >= vehicles) {
+      typical = r.error;
+      break;
+    }
+  }
+  const within = routes.reduce((sum, r) => sum + (r.error <= dt + 1e-9 ? r.vehicles : 0), 0);
+  return {
+    vehicles,
+    largestSeconds: routes.length === 0 ? 0 : routes[routes.length - 1]!.error,
+    typicalSeconds: typical,
+    withinOneStepShare: vehicles === 0 ? 1 : within / vehicles,
+  };
 }

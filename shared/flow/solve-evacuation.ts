@@ -6,7 +6,7 @@
 import { timeExpandedBottlenecks, type TimeExpandedBottlenecks } from './bottlenecks';
 import { computeEvacuationCurve, type CurveMarks } from './evacuation-curve';
 import { validateEvacuationProblem, type EvacuationProblem } from './evacuation-problem';
-import { arrivalsByStep, decomposeTrips, roadUsage } from './expanded-usage';
+import { arrivalsByStep, decomposeTrips, roadUsage, type PlannedRouteTiming } from './expanded-usage';
 import { rankFixes, type RoadFix } from './fixes';
 import { arcFlows, createFlowState } from './flow-state';
 import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice } from './max-flow';
@@ -123,6 +123,11 @@ export interface EvacuationResult {
    * fastest modelled trip against the fastest free-flow trip (route-timing.ts states the bound).
    */
   routeTiming: RouteTimingError;
+  /**
+   * The routes the plan's vehicles drive (its decomposition into trips), each route's modelled
+   * driving time against its own free-flow time: what the rounding costs the trips actually made.
+   */
+  plannedRoutes: PlannedRouteTiming;
   /** Ranked, largest gain first. */
   fixes: RoadFix[];
   /** True when some fix candidates were not evaluated (maxFixEvaluations). */
@@ -214,7 +219,11 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
   progress('bottlenecks', 0);
   const R = problem.roads.length;
   const usage = roadUsage(expanded, state, R);
-  const trips = decomposeTrips(expanded, state, problem.zones.length, problem.shelters.length);
+  const trips = decomposeTrips(expanded, state, problem.zones.length, problem.shelters.length, {
+    from: problem.roads.map((road) => road.from),
+    to: problem.roads.map((road) => road.to),
+    travelTimeSeconds: problem.roads.map((road) => road.travelTimeSeconds),
+  });
   const planByStep = arrivalsByStep(expanded, state);
   const finalDelivered = curve.deliveredByStep[curve.finalHorizon]!;
   lap('bottlenecks');
@@ -307,6 +316,7 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
     },
     bottlenecks,
     routeTiming,
+    plannedRoutes: trips.plannedRoutes!,
     fixes,
     fixesTruncated: truncated,
     warnings,

@@ -98,6 +98,7 @@ process.stdout.write(
     clearanceStep: r.curve.clearanceStep,
     marks: r.curve.marks,
     routeTiming: { largestSeconds: Math.round(r.routeTiming.largestSeconds), typicalSeconds: Math.round(r.routeTiming.typicalSeconds), pairs: r.routeTiming.pairs },
+    plannedRoutes: r.plannedRoutes,
     steadyStateVehPerHour: r.steadyState.throughputVehPerHour,
     peakRssMb: Math.round(process.resourceUsage().maxRSS / 1024),
     loadAverage: (await import('node:os')).loadavg().map((x) => x.toFixed(2)).join(' '),

@@ -54,7 +54,7 @@ describe('the pruned time-expanded network', () => {
     // The generator's zones start late, sit far from shelters or cannot reach one often enough
     // for the pruning to be exercised.
     expect(prunedSomething).toBeGreaterThan(100);
-  });
+  }, 120_000);
 
   it('lays the arcs out exactly as the generic builder does from the same list', () => {
     fc.assert(
@@ -78,7 +78,7 @@ describe('the pruned time-expanded network', () => {
       }),
       { numRuns: 200, seed: 1404 },
     );
-  });
+  }, 120_000);
 
   it('decomposes the plan into trips without leaving a trace on the residual it reads', () => {
     let withTrips = 0;
@@ -96,5 +96,5 @@ describe('the pruned time-expanded network', () => {
       { numRuns: 200, seed: 1406 },
     );
     expect(withTrips).toBeGreaterThan(50);
-  });
+  }, 120_000);
 });

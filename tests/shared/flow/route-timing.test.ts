@@ -152,6 +152,25 @@ describe('route travel times', () => {
     expect(warning?.message).toMatch(/time step of \d+ s should bring it within 60 s/);
   });
 
+  it('times the routes the plan drives: a chain of twenty 7.2 s roads is modelled in 2 steps, 24 s off its 144 s', () => {
+    // One route only, so the expected figures follow from the rule by hand: the potentials to the
+    // shelter telescope along the chain, Σ τ = round(144 / 60) = 2 steps = 120 s, against 144 s.
+    const roads: EvacuationRoad[] = Array.from({ length: 20 }, (_, k) => ({ from: k, to: k + 1, capacityVehPerHour: 600, travelTimeSeconds: 7.2 }));
+    const result = solveEvacuation({
+      nodeCount: 21,
+      roads,
+      zones: [{ id: 'z', entryNodes: [0], vehicles: 30 }],
+      shelters: [{ id: 's', node: 20, capacityVehicles: null }],
+      timeStepSeconds: 60,
+      horizonSteps: 10,
+    });
+    expect(result.plan.roads.travelSteps.reduce((a, b) => a + b, 0)).toBe(2);
+    expect(result.plannedRoutes.vehicles).toBe(30);
+    expect(result.plannedRoutes.largestSeconds).toBeCloseTo(24, 9);
+    expect(result.plannedRoutes.typicalSeconds).toBeCloseTo(24, 9);
+    expect(result.plannedRoutes.withinOneStepShare).toBe(1);
+  });
+
   it('roads of exact multiples of the step keep their plain step count', () => {
     const roads: EvacuationRoad[] = [
       { from: 0, to: 1, capacityVehPerHour: 600, travelTimeSeconds: 120 },
