@@ -4,6 +4,9 @@ import { z } from 'zod';
 import { runParametersSchema } from '../../shared/api/runs';
 import { planParamsSchema } from '../../shared/api/plans';
 import { chokePointsCsv, curveCsv } from '../../shared/model/run-export-csv';
+import { csvComments } from '../../shared/format/csv';
+import { identityLines, identityObject } from '../../shared/model/export-identity';
+import { runExportIdentity } from '../services/export-identity';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { ConflictError } from '../errors';
@@ -53,24 +56,32 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, ans
 
   async function finishedResult(req: Parameters<Parameters<typeof router.get>[1]>[0]) {
     const { planId, runId } = runParamsSchema.parse(req.params);
-    const row = await getRunRow(db, actorOf(req).organizationId, planId, runId);
+    const { organizationId } = actorOf(req);
+    const row = await getRunRow(db, organizationId, planId, runId);
     if (!row.result) throw new ConflictError(`The run has no result (it is ${row.status}).`);
-    return { row, result: row.result };
+    // Every export carries the caution and the run's identity and assumptions.
+    const identity = (contents: string) => runExportIdentity(db, organizationId, planId, row, contents);
+    return { row, result: row.result, identity };
   }
 
   router.get('/runs/:runId/export/bottlenecks.csv', requireMember('plans:read'), async (req, res) => {
-    const { row, result } = await finishedResult(req);
-    res.attachment(`run-${row.id.slice(0, 8)}-bottlenecks.csv`).type('text/csv').send(chokePointsCsv(result));
+    const { row, result, identity } = await finishedResult(req);
+    const head = csvComments(identityLines(await identity('Run results: choke points')));
+    res.attachment(`run-${row.id.slice(0, 8)}-bottlenecks.csv`).type('text/csv').send(head + chokePointsCsv(result));
   });
 
   router.get('/runs/:runId/export/curve.csv', requireMember('plans:read'), async (req, res) => {
-    const { row, result } = await finishedResult(req);
-    res.attachment(`run-${row.id.slice(0, 8)}-curve.csv`).type('text/csv').send(curveCsv(result));
+    const { row, result, identity } = await finishedResult(req);
+    const head = csvComments(identityLines(await identity('Run results: vehicles arrived over time')));
+    res.attachment(`run-${row.id.slice(0, 8)}-curve.csv`).type('text/csv').send(head + curveCsv(result));
   });
 
   router.get('/runs/:runId/export/arcs.geojson', requireMember('plans:read'), async (req, res) => {
-    const { row } = await finishedResult(req);
-    res.attachment(`run-${row.id.slice(0, 8)}-arcs.geojson`).type('application/geo+json').send(JSON.stringify(await arcsGeoJson(db, row.roadLayerId, row.id)));
+    const { row, identity } = await finishedResult(req);
+    const collection = await arcsGeoJson(db, row.roadLayerId, row.id);
+    // A foreign member (RFC 7946 §6.1): GIS tools keep or ignore it; the data stays plain GeoJSON.
+    const body = { type: collection.type, cutline: identityObject(await identity('Run results: roads (each direction)')), features: collection.features };
+    res.attachment(`run-${row.id.slice(0, 8)}-arcs.geojson`).type('application/geo+json').send(JSON.stringify(body));
   });
 
   return router;

@@ -1,15 +1,9 @@
 // CSV forms of a run's tables, shared so the server's downloads and any client preview agree.
+// Cells go through shared/format/csv.ts (formula guard, quoting).
 import type { RunResult } from '../api/runs';
+import { toCsv } from '../format/csv';
 
-function csvCell(v: string | number | boolean | null): string {
-  if (v === null) return '';
-  const s = String(v);
-  return /[",\n\r]/.test(s) ? `"${s.replaceAll('"', '""')}"` : s;
-}
-
-export function toCsv(header: string[], rows: (string | number | boolean | null)[][]): string {
-  return [header, ...rows].map((r) => r.map(csvCell).join(',')).join('\r\n') + '\r\n';
-}
+export { toCsv };
 
 const windows = (w: [number, number][]) => w.map(([a, b]) => `${a}-${b}`).join(' ');
 

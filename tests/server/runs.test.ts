@@ -5,6 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
 import { defaultRunParameters, runWithResultSchema, type ArcFlow, type RunWithResult } from '../../shared/api/runs';
+import { CAUTION_LINE } from '../../shared/api/caution';
 
 let ctx: TestContext;
 let planner: SignedInAgent;
@@ -122,9 +123,13 @@ describe('a run of the demo plan', () => {
     expect(list[0].result).toBeUndefined();
     const csv = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/bottlenecks.csv`).expect(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
-    expect(csv.text.split('\r\n')[0]).toMatch(/^rank,segment_id,direction/);
+    // The caution and the run's identity lead as comment lines, then the table.
+    const table = (text: string) => text.trim().split('\r\n').filter((l) => !l.startsWith('# '));
+    expect(csv.text.split('\r\n')[0]).toBe(`# caution: ${CAUTION_LINE}`);
+    expect(csv.text).toContain(`# run_id: ${run.id}\r\n`);
+    expect(table(csv.text)[0]).toMatch(/^rank,segment_id,direction/);
     const curve = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/curve.csv`).expect(200);
-    expect(curve.text.trim().split('\r\n')).toHaveLength(run.result!.curve.deliveredVehicles.length + 1);
+    expect(table(curve.text)).toHaveLength(run.result!.curve.deliveredVehicles.length + 1);
     const geo = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/arcs.geojson`).buffer(true).parse((res, cb) => {
       let data = '';
       res.on('data', (c: Buffer) => (data += c));
@@ -138,6 +143,7 @@ describe('a run of the demo plan', () => {
     expect(rows[0]!.n).toBeGreaterThan(0);
     expect(geo.body.features).toHaveLength(rows[0]!.n);
     expect(geo.body.features[0].geometry.coordinates.length).toBeGreaterThanOrEqual(2);
+    expect(geo.body.cutline).toMatchObject({ caution: CAUTION_LINE, run_id: run.id });
   });
 
   it('reuses the stored result for identical inputs (found by the worker when it prepares the run)', async () => {
