@@ -153,7 +153,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', mapTilesRouter(db, answers));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
-  app.use('/api/settings', settingsRouter(settings));
+  app.use('/api/settings', settingsRouter(settings, db, config.BRIEFING_TIME_ZONE));
   app.use('/api/briefings', briefingsRouter(db, config));
   app.use('/api', apiNotFound);
 

@@ -1,12 +1,21 @@
-// /api/settings/map: everyone signed in reads their organization's (the map needs it);
-// its administrators change it.
+// /api/settings/map and /api/settings/organization: everyone signed in reads their organization's
+// (every screen needs them); its administrators change them.
 import { Router } from 'express';
-import { mapSettingsSchema } from '../../shared/api/settings';
+import { mapSettingsSchema, organizationSettingsInputSchema } from '../../shared/api/settings';
+import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
+import { getOrganizationSettings, putOrganizationSettings } from '../services/organization-settings';
 import type { Settings } from '../services/settings';
 
-export function settingsRouter(settings: Settings): Router {
+export function settingsRouter(settings: Settings, db: Database, defaultTimeZone: string): Router {
   const router = Router();
+  // /api/settings/organization: the unit system and time zone every screen of it formats with.
+  router.get('/organization', requireMember(), async (req, res) => {
+    res.json(await getOrganizationSettings(db, actorOf(req).organizationId, defaultTimeZone));
+  });
+  router.put('/organization', requireMember('users:manage'), async (req, res) => {
+    res.json(await putOrganizationSettings(db, actorOf(req), organizationSettingsInputSchema.parse(req.body), defaultTimeZone));
+  });
   router.get('/map', requireMember(), async (req, res) => {
     res.json(await settings.getMapSettings(actorOf(req).organizationId));
   });

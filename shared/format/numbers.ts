@@ -93,3 +93,11 @@ export function formatDate(at: Date, timeZone: string): string {
 export function formatMeters(m: number): string {
   return m >= 1000 ? `${oneDecimal.format(m / 1000)} km` : `${whole.format(m)} m`;
 }
+
+/** The short, non-ambiguous form for lists and run labels: "5 Dec 2026, 14:05 UTC" (day, month
+ *  name, year, 24-hour clock, zone named; never a numeric date that reads differently abroad). */
+export function formatCompactDateTime(at: Date, timeZone: string): string {
+  const date = new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', year: 'numeric' }).format(at);
+  const time = new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23', timeZoneName: 'short' }).format(at);
+  return `${date}, ${time}`;
+}

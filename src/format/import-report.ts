@@ -4,7 +4,8 @@
 import type { BadFeature, DropReason, ImportReport } from '@shared/api/road-import';
 import { roadClassLooks } from '@/map/road-style';
 import type { Bbox } from '@/map/viewport';
-import { formatCount, formatMeters, formatShare } from '@shared/format/numbers';
+import { formatCount, formatShare } from '@shared/format/numbers';
+import { screenLength } from './preferences';
 
 export type ReportLocation = { kind: 'point'; lon: number; lat: number } | { kind: 'bbox'; bbox: Bbox };
 export type ReportItem = { text: string; location?: ReportLocation; label?: string };
@@ -54,7 +55,7 @@ function cut<T>(items: T[]): { items: T[]; more: number } {
 export function importSummary(report: ImportReport): string {
   return (
     `${formatCount(report.segmentCount)} segments and ${formatCount(report.nodeCount)} junctions ` +
-    `(${formatMeters(report.totalLengthMeters)} of road) from ${formatCount(report.featureCount)} features, ${formatWords[report.sourceFormat]}` +
+    `(${screenLength(report.totalLengthMeters)} of road) from ${formatCount(report.featureCount)} features, ${formatWords[report.sourceFormat]}` +
     (report.sourceCrs ? `, reprojected from ${report.sourceCrs.epsg !== null ? `EPSG:${report.sourceCrs.epsg} ` : ''}(${report.sourceCrs.name}).` : '.')
   );
 }
@@ -70,7 +71,7 @@ export function importReportSections(report: ImportReport): ReportSection[] {
     summary: plural(report.kept.reduce((s, k) => s + k.segments, 0), 'segment'),
     items: [...report.kept]
       .sort((a, b) => b.lengthMeters - a.lengthMeters)
-      .map((k) => ({ text: `${classLabel(k.roadClass)}: ${plural(k.segments, 'segment')}, ${formatMeters(k.lengthMeters)}` })),
+      .map((k) => ({ text: `${classLabel(k.roadClass)}: ${plural(k.segments, 'segment')}, ${screenLength(k.lengthMeters)}` })),
     more: 0,
   });
 
@@ -151,7 +152,7 @@ export function importReportSections(report: ImportReport): ReportSection[] {
       key: 'dangling',
       title: 'Dead ends',
       severity: 'warning',
-      summary: `${plural(report.danglingEnds.length, 'road end')} joined to nothing within ${report.snapToleranceMeters} m`,
+      summary: `${plural(report.danglingEnds.length, 'road end')} joined to nothing within ${screenLength(report.snapToleranceMeters)}`,
       ...cut(report.danglingEnds.map((d, i) => ({ text: `Dead end ${i + 1} (junction ${d.node})`, location: { kind: 'point' as const, lon: d.lon, lat: d.lat }, label: `Dead end ${i + 1}` }))),
     });
   }
@@ -161,10 +162,10 @@ export function importReportSections(report: ImportReport): ReportSection[] {
       key: 'snapped',
       title: 'Ends joined to a nearby road',
       severity: 'info',
-      summary: `${plural(report.snappedEnds.length, 'end')} moved up to ${report.snapToleranceMeters} m`,
+      summary: `${plural(report.snappedEnds.length, 'end')} moved up to ${screenLength(report.snapToleranceMeters)}`,
       ...cut(
         report.snappedEnds.map((s, i) => ({
-          text: `Joined end ${i + 1}: moved ${formatMeters(s.movedMeters)}`,
+          text: `Joined end ${i + 1}: moved ${screenLength(s.movedMeters)}`,
           location: { kind: 'point' as const, lon: s.lon, lat: s.lat },
           label: `Joined end ${i + 1}`,
         })),
@@ -177,7 +178,7 @@ export function importReportSections(report: ImportReport): ReportSection[] {
       key: 'tiny',
       title: 'Very short segments',
       severity: 'info',
-      summary: `${plural(report.tinySegments.length, 'segment')} under ${report.tinySegmentMeters} m; sort the segment table by length to see them`,
+      summary: `${plural(report.tinySegments.length, 'segment')} under ${screenLength(report.tinySegmentMeters)}; sort the segment table by length to see them`,
       items: [],
       more: 0,
     });

@@ -5,6 +5,7 @@ import { headlineDifferences, headlineKeys, type ChokePointPresence } from '@sha
 import type { Run, RunResult } from '@shared/api/runs';
 import type { Scenario } from '@shared/api/scenarios';
 import { formatCount, formatDuration } from '@shared/format/numbers';
+import { formatCompactLocalDateTime } from './local-time';
 
 const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -15,12 +16,11 @@ export function runIdsFromQuery(value: unknown): string[] {
   return [...new Set(ids)];
 }
 
-const dateFormat = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit' });
-
-/** "Bridge closed" or "Base plan", with when it was started. */
+/** "Bridge closed" or "Base plan", with when it was started in the organisation's zone:
+ *  "Bridge closed · 5 Dec 2026, 13:56 CST". */
 export function runLabel(run: Pick<Run, 'scenarioId' | 'createdAt'>, scenarios: readonly Pick<Scenario, 'id' | 'name'>[]): string {
   const name = run.scenarioId === null ? 'Base plan' : (scenarios.find((s) => s.id === run.scenarioId)?.name ?? 'Deleted scenario');
-  return `${name} · ${dateFormat.format(new Date(run.createdAt))}`;
+  return `${name} · ${formatCompactLocalDateTime(run.createdAt)}`;
 }
 
 type HeadlineKey = (typeof headlineKeys)[number];

@@ -1,9 +1,11 @@
 // Editing road segments: the form's values, the patch of what changed, and validation with the
 // server's schemas (the patch schema, then the merged attributes, which catch a one-way road
 // that still has lanes backward). Empty lane, speed and capacity fields mean "class default".
+// The speed field is in the organisation's unit (km/h or mph); the patch carries km/h.
 import { roadClassSchema, segmentAttributesPatchSchema, segmentAttributesSchema, type RoadClass, type SegmentAttributesPatch } from '@shared/api/road-attributes';
 import type { Segment } from '@shared/api/road-layers';
 import { roadClassLooks } from '@/map/road-style';
+import { speedForForm, speedFromForm } from '@/format/preferences';
 import { optionalNumberFrom, parseForm, type FieldErrors } from './zod-errors';
 
 export type SegmentFormValues = {
@@ -18,13 +20,25 @@ export type SegmentFormValues = {
 
 export const roadClassItems = roadClassSchema.options.map((value) => ({ value, title: `${roadClassLooks[value].label} (${value})` }));
 
+/** A stored speed as the form shows it: in the organisation's unit, to two decimals at most
+ *  (35 mph entered reads back as 35; 50 km/h reads 31.07 mph). */
+export function speedFieldValue(kmh: number | null): number | null {
+  return kmh === null ? null : Math.round(speedForForm(kmh) * 100) / 100;
+}
+
+/** The speed field read as km/h (null: class default). */
+function speedFieldKmh(value: string | number | null): number | null {
+  const n = optionalNumberFrom(value);
+  return n === null || Number.isNaN(n) ? n : speedFromForm(n);
+}
+
 export function segmentFormValues(segment: Segment): SegmentFormValues {
   return {
     roadClass: segment.roadClass,
     oneway: segment.oneway,
     lanesForward: segment.lanesForward,
     lanesBackward: segment.lanesBackward,
-    speedKmh: segment.speedKmh,
+    speedKmh: speedFieldValue(segment.speedKmh),
     capacityOverrideVehPerHourPerLane: segment.capacityOverrideVehPerHourPerLane,
     closed: segment.closed,
   };
@@ -37,6 +51,7 @@ const numericKeys = ['lanesForward', 'lanesBackward', 'speedKmh', 'capacityOverr
 function readValues(values: SegmentFormValues): SegmentAttributesPatch {
   const read: SegmentAttributesPatch = { roadClass: values.roadClass, oneway: values.oneway, closed: values.closed };
   for (const key of numericKeys) read[key] = optionalNumberFrom(values[key]);
+  read.speedKmh = speedFieldKmh(values.speedKmh);
   // A one-way road has no lanes against its direction: the form says so rather than refusing.
   if (values.oneway && read.lanesBackward === null) read.lanesBackward = 0;
   return read;
@@ -47,6 +62,8 @@ export function segmentPatch(segment: Segment, values: SegmentFormValues): Segme
   const read = readValues(values);
   const patch: SegmentAttributesPatch = {};
   for (const key of Object.keys(read) as Editable[]) {
+    // A speed left as shown is unchanged, whatever rounding the unit's display took.
+    if (key === 'speedKmh' && optionalNumberFrom(values.speedKmh) === speedFieldValue(segment.speedKmh)) continue;
     const next = read[key];
     if (next !== segment[key] && !(Number.isNaN(next) && Number.isNaN(segment[key]))) (patch as Record<string, unknown>)[key] = next;
   }
@@ -81,7 +98,7 @@ export function validateBulkEdit(input: BulkEditValues): { ok: true; patch: Segm
   const patch: SegmentAttributesPatch = {};
   if (input.apply.roadClass) patch.roadClass = input.values.roadClass;
   if (input.apply.closed) patch.closed = input.values.closed;
-  for (const key of numericKeys) if (input.apply[key]) patch[key] = optionalNumberFrom(input.values[key]);
+  for (const key of numericKeys) if (input.apply[key]) patch[key] = key === 'speedKmh' ? speedFieldKmh(input.values[key]) : optionalNumberFrom(input.values[key]);
   if (Object.keys(patch).length === 0) return { ok: false, errors: { form: 'Tick at least one attribute to change.' } };
   const parsed = parseForm(segmentAttributesPatchSchema, patch);
   return parsed.ok ? { ok: true, patch: parsed.value } : parsed;

@@ -168,7 +168,7 @@ it('shows no basemap by default, and the tile layer with its attribution once an
   await page.locator('[data-test="map-settings-form"]').waitFor();
   await page.locator('[data-test="tile-url"] input').fill('http://127.0.0.1:9/{z}/{x}/{y}.png');
   await page.getByLabel('Attribution').fill('Test tiles');
-  await page.getByRole('button', { name: 'Save' }).click();
+  await page.locator('[data-test="map-settings-form"]').getByRole('button', { name: 'Save' }).click();
   await page.getByText('Saved.').waitFor();
   await page.goto(`${server.url}/plans`);
   await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
@@ -180,6 +180,24 @@ it('shows no basemap by default, and the tile layer with its attribution once an
   expect(await page.locator('[data-test="tile-url"] input').inputValue()).toBe('http://127.0.0.1:9/{z}/{x}/{y}.png');
   await page.locator('[data-test="tile-url"] input').fill('');
   await page.getByLabel('Attribution').fill('');
-  await page.getByRole('button', { name: 'Save' }).click();
+  await page.locator('[data-test="map-settings-form"]').getByRole('button', { name: 'Save' }).click();
   await page.getByText('Saved. Maps opened from now on use no basemap.').waitFor();
+
+  // US customary: the scale bar in feet and miles only, road lengths and speeds in the table too.
+  await page.locator('[data-test="unit-system-us-customary"] input').check();
+  await page.locator('[data-test="time-zone"] input').fill('America/Chicago');
+  await page.locator('[data-test="organization-settings-save"]').click();
+  await page.locator('[data-test="organization-settings-saved"]').waitFor();
+  expect(await page.locator('[data-test="organization-settings-saved"]').innerText()).toContain('America/Chicago');
+  await page.goto(`${server.url}/plans`);
+  await page.locator('[data-test="plan-card"]', { hasText: 'Veltmoor river crossings' }).click();
+  await roadTilesDrawn(page);
+  const scaleLines = page.locator('.leaflet-control-scale-line');
+  expect(await scaleLines.count()).toBe(1);
+  expect(await scaleLines.first().innerText()).toMatch(/\d+ (ft|mi)$/);
+  await page.goto(`${server.url}/admin/map`);
+  await page.locator('[data-test="unit-system-metric"] input').check();
+  await page.locator('[data-test="time-zone"] input').fill('');
+  await page.locator('[data-test="organization-settings-save"]').click();
+  await page.locator('[data-test="organization-settings-saved"]').waitFor();
 });

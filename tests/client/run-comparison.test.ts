@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ChokePoint, RunResult } from '../../shared/api/runs';
 import { chokePointPresence } from '../../shared/model/compare-runs';
+import { setPreferences } from '../../src/format/preferences';
 import { comparisonOrder, comparisonRows, presenceByChange, presenceSummary, runIdsFromQuery, runLabel } from '../../src/format/run-comparison';
 
 const a = '00000000-0000-4000-8000-00000000000a';
@@ -47,7 +48,10 @@ describe('runIdsFromQuery', () => {
 describe('runLabel', () => {
   it('names the base plan, a scenario, or a deleted one', () => {
     const createdAt = '2026-12-02T10:30:00.000Z';
-    expect(runLabel({ scenarioId: null, createdAt }, [])).toMatch(/^Base plan · Dec 2/);
+    setPreferences({ unitSystem: 'metric', timeZone: 'UTC' });
+    // Day, month name, year and zone: not the ambiguous US-style "Dec 2, 10:30 AM".
+    expect(runLabel({ scenarioId: null, createdAt }, [])).toBe('Base plan · 2 Dec 2026, 10:30 UTC');
+    setPreferences({ unitSystem: 'metric', timeZone: null });
     expect(runLabel({ scenarioId: a, createdAt }, [{ id: a, name: 'Quay Bridge closed' }])).toMatch(/^Quay Bridge closed · /);
     expect(runLabel({ scenarioId: b, createdAt }, [])).toMatch(/^Deleted scenario · /);
   });

@@ -2,7 +2,10 @@
 // merged attributes are checked with the server's schema (a one-way road has no lanes back).
 import { describe, expect, it } from 'vitest';
 import type { Segment } from '../../shared/api/road-layers';
+import { afterEach } from 'vitest';
+import { speedToKmh } from '../../shared/format/units';
 import { segmentFormValues, segmentPatch, validateBulkEdit, validateSegmentEdit } from '../../src/forms/segment-edit';
+import { setPreferences } from '../../src/format/preferences';
 
 const segment: Segment = {
   id: 7,
@@ -68,5 +71,34 @@ describe('segment edit', () => {
     expect(validateBulkEdit({ apply: { speedKmh: true }, values })).toEqual({ ok: true, patch: { speedKmh: null } });
     const bad = validateBulkEdit({ apply: { lanesForward: true }, values: { ...values, lanesForward: '2.5' } });
     expect(bad.ok ? '' : bad.errors.lanesForward).toBe('Enter a whole number.');
+  });
+});
+
+describe('segment edit in US customary units', () => {
+  afterEach(() => setPreferences({ unitSystem: 'metric', timeZone: null }));
+
+  it('takes the speed in mph, sends km/h, and shows the entered mph back', () => {
+    setPreferences({ unitSystem: 'us-customary', timeZone: null });
+    const values = { ...segmentFormValues(segment), speedKmh: '35' };
+    const checked = validateSegmentEdit(segment, values);
+    expect(checked).toEqual({ ok: true, patch: { speedKmh: speedToKmh(35, 'us-customary') } });
+    // 1 mph = 1.609344 km/h exactly (international yard and pound agreement, 1959).
+    expect(checked.ok && checked.patch.speedKmh).toBeCloseTo(56.32704, 10);
+    const stored = { ...segment, speedKmh: checked.ok ? checked.patch.speedKmh! : null };
+    expect(segmentFormValues(stored).speedKmh).toBe(35);
+    expect(segmentPatch(stored, segmentFormValues(stored))).toEqual({});
+  });
+
+  it('leaves a metric speed it only showed in mph unchanged', () => {
+    setPreferences({ unitSystem: 'us-customary', timeZone: null });
+    const stored = { ...segment, speedKmh: 50 };
+    expect(segmentFormValues(stored).speedKmh).toBe(31.07);
+    expect(segmentPatch(stored, segmentFormValues(stored))).toEqual({});
+  });
+
+  it('converts a bulk edit speed', () => {
+    setPreferences({ unitSystem: 'us-customary', timeZone: null });
+    const result = validateBulkEdit({ apply: { speedKmh: true }, values: { roadClass: 'residential', lanesForward: '', lanesBackward: '', speedKmh: '25', capacityOverrideVehPerHourPerLane: '', closed: false } });
+    expect(result).toEqual({ ok: true, patch: { speedKmh: speedToKmh(25, 'us-customary') } });
   });
 });

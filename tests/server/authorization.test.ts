@@ -364,6 +364,8 @@ const rows: Row[] = [
   { route: 'GET /api/settings/map', expect: readers(200, 'own') },
   // The map settings are the installation's, not an organization's: any organization's administrator sets them for all.
   { route: 'PUT /api/settings/map', expect: adminsOnly(200, 'own'), call: (f) => ({ body: { tileUrl: '', attribution: `Drill tiles ${f.next()}` } }) },
+  { route: 'GET /api/settings/organization', expect: readers(200, 'own') },
+  { route: 'PUT /api/settings/organization', expect: adminsOnly(200, 'own'), call: () => ({ body: { unitSystem: 'metric', timeZone: null } }) },
 
   // Briefings
   {

@@ -25,7 +25,7 @@ import { planCreateSchema, planUpdateSchema } from '../../shared/api/plans';
 import { segmentBulkUpdateSchema } from '../../shared/api/road-layers';
 import { defaultRunParameters, runParametersSchema } from '../../shared/api/runs';
 import { scenarioCreateSchema, scenarioUpdateSchema } from '../../shared/api/scenarios';
-import { mapSettingsSchema } from '../../shared/api/settings';
+import { mapSettingsSchema, organizationSettingsInputSchema } from '../../shared/api/settings';
 import { memberCreateSchema, memberPasswordSchema, memberUpdateSchema } from '../../shared/api/users';
 import { shelterCreateSchema, shelterUpdateSchema, zoneCreateSchema, zoneUpdateSchema } from '../../shared/api/zones-shelters';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';
@@ -195,6 +195,11 @@ const rows: Record<string, Row> = {
     who: 'admin',
     path: () => '/api/settings/map',
     body: { json: () => ({ tileUrl: 'https://tiles.veltmoor.example/{z}/{x}/{y}.png', attribution: 'Veltmoor tiles' }), refuses: refusedBy(mapSettingsSchema) },
+  },
+  'PUT /api/settings/organization': {
+    who: 'admin',
+    path: () => '/api/settings/organization',
+    body: { json: () => ({ unitSystem: 'us-customary', timeZone: 'America/Chicago' }), refuses: refusedBy(organizationSettingsInputSchema) },
   },
   'POST /api/briefings/verify': { who: 'signed-out', path: () => '/api/briefings/verify', body: 'upload' },
   'POST /api/briefings': {

@@ -3,11 +3,16 @@ import { index, pgEnum, pgTable, primaryKey, text, timestamp, uuid, boolean, int
 import { timestamps } from './columns';
 
 export const roleEnum = pgEnum('role', ['admin', 'planner', 'official', 'viewer']);
+export const unitSystemEnum = pgEnum('unit_system', ['metric', 'us-customary']);
 
 export const organizations = pgTable('organizations', {
   id: uuid().primaryKey().defaultRandom(),
   name: text().notNull(),
   slug: text().notNull().unique(),
+  // What its screens, forms, exports and briefings use: lengths and speeds, and the zone times
+  // are given in (null: the deployment's BRIEFING_TIME_ZONE).
+  unitSystem: unitSystemEnum().notNull().default('metric'),
+  timeZone: text(),
   ...timestamps,
 });
 

@@ -58,7 +58,9 @@ export const roadSegments = pgTable(
     lanesForward: integer(),
     lanesBackward: integer(),
     oneway: boolean().notNull(),
-    speedKmh: real(),
+    // Double precision so that a speed entered in mph (35 → 56.32704 km/h) converts back to
+    // exactly what was entered (shared/format/units.ts).
+    speedKmh: doublePrecision(),
     name: text(),
     bridge: boolean().notNull(),
     tunnel: boolean().notNull(),

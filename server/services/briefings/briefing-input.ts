@@ -1,5 +1,6 @@
 // Everything a briefing prints, gathered by the caller (the briefing service) from the database.
 // The document builder reads nothing else: no clock, no database, no files.
+import type { UnitSystem } from '../../../shared/api/units';
 import type { Run, RunResult } from '../../../shared/api/runs';
 import type { ProposalResult } from '../../../shared/api/proposals';
 
@@ -92,6 +93,9 @@ export type BriefingInput = {
   verificationUrl?: string | undefined;
   /** IANA time zone for dates on the page; the organisation's. */
   timeZone: string;
+  /** The organisation's units for speeds, densities and the map's scale (metric when absent);
+   *  like the time zone, how the page reads, not what the figures say: outside the content hash. */
+  unitSystem?: UnitSystem | undefined;
   pageSize?: 'LETTER' | 'A4' | undefined;
   /** Searches for the best change run on exactly this run's problem (one per kind), printed on a page of their own. */
   searches?: ProposalResult[] | undefined;

@@ -28,6 +28,7 @@ import { finishedRun, gatherBriefingInput } from './briefing-source';
 import { briefingDetail, visibleBriefing, type BriefingActor, type BriefingRow } from './briefing-views';
 import { signingKeyFor } from './signing-key';
 import { ContentMismatchError, inputFromStored } from './stored-input';
+import { organizationPreferences } from '../organization-settings';
 
 export { briefingDetail, listBriefings } from './briefing-views';
 
@@ -59,7 +60,8 @@ async function guarded<T>(work: () => Promise<T>): Promise<T> {
 function workflowContext(db: Database, config: Config, mailer: Mailer | null) {
   const base = publicBaseUrl(config);
   const verificationUrl = `${base}/verify`;
-  const timeZone = config.BRIEFING_TIME_ZONE;
+  // The organisation's zone and units (its setting, else the deployment's BRIEFING_TIME_ZONE).
+  const preferences = (organizationId: string) => organizationPreferences(db, organizationId, config.BRIEFING_TIME_ZONE);
   const renderBudget = { seconds: config.BRIEFING_RENDER_SECONDS, megabytes: config.BRIEFING_RENDER_MEGABYTES };
 
   const content = (row: BriefingRow) => row.content as StoredBriefingContent & { organizationName: string; planName: string; scenarioName: string | null };
@@ -71,9 +73,10 @@ function workflowContext(db: Database, config: Config, mailer: Mailer | null) {
     scenarioName: content(row).scenarioName,
   });
 
-  function render(row: BriefingRow, status: BriefingStatus, extra: { signature?: BriefingSignature; returned?: BriefingReturn } = {}) {
+  async function render(row: BriefingRow, status: BriefingStatus, extra: { signature?: BriefingSignature; returned?: BriefingReturn } = {}) {
+    const { timeZone, unitSystem } = await preferences(row.organizationId);
     try {
-      return inputFromStored(row.content, row.contentSha256, { status, timeZone, verificationUrl, ...extra });
+      return inputFromStored(row.content, row.contentSha256, { status, timeZone, unitSystem, verificationUrl, ...extra });
     } catch (err) {
       if (err instanceof ContentMismatchError) throw new HttpError(500, 'internal', 'The stored content of this briefing no longer matches its recorded SHA-256; it cannot be rendered or signed.');
       throw err;
@@ -86,7 +89,7 @@ function workflowContext(db: Database, config: Config, mailer: Mailer | null) {
     mailer,
     verificationUrl,
     reviewUrl: (id: string) => `${base}/briefings/${id}/review`,
-    timeZone,
+    preferences,
     renderBudget,
     ref,
     render,
@@ -124,14 +127,16 @@ async function draft(w: Workflow, actor: BriefingActor, o: { runId: string; titl
   if (o.previous && run.planId !== o.previous.planId) throw new BadRequestError('A new version must come from an analysis of the same plan.', [{ path: 'runId', message: 'Another plan’s run.' }]);
   const id = randomUUID();
   const version = Math.max(await nextVersionOfRun(db, run.id), (o.previous?.version ?? 0) + 1);
-  const input = await gatherBriefingInput(db, actor.organizationId, run, {
+  const { timeZone, unitSystem } = await w.preferences(actor.organizationId);
+  const gathered = await gatherBriefingInput(db, actor.organizationId, run, {
     briefingId: id,
     version,
     createdAt: new Date(),
     preparer: { userId: actor.userId, role: actor.role },
-    timeZone: w.timeZone,
+    timeZone,
     verificationUrl: w.verificationUrl,
   });
+  const input = { ...gathered, unitSystem };
   const rendered = await renderBriefing(input, w.renderBudget);
   await guarded(() =>
     db.transaction(async (tx) => {
@@ -242,7 +247,7 @@ async function requestSignOff(w: Workflow, actor: BriefingActor, id: string, req
       const row = await visibleBriefing(tx, actor, id, true);
       refuseSigned(row);
       if (row.status === 'awaiting-sign-off') throw new ConflictError('Sign-off has already been requested for this briefing.');
-      const rendered = await renderBriefing(w.render(row, 'awaiting-sign-off'), w.renderBudget);
+      const rendered = await renderBriefing(await w.render(row, 'awaiting-sign-off'), w.renderBudget);
       const now = new Date();
       for (const official of reviewers) {
         await tx
@@ -282,7 +287,7 @@ async function withdraw(w: Workflow, actor: BriefingActor, id: string): Promise<
       const row = await visibleBriefing(tx, actor, id, true);
       refuseSigned(row);
       if (row.status !== 'awaiting-sign-off') throw new ConflictError('No sign-off request is open for this briefing.');
-      const rendered = await renderBriefing(w.render(row, 'draft'), w.renderBudget);
+      const rendered = await renderBriefing(await w.render(row, 'draft'), w.renderBudget);
       await tx.update(briefingReviews).set({ decision: 'withdrawn', decidedAt: new Date() }).where(and(eq(briefingReviews.briefingId, id), eq(briefingReviews.decision, 'pending')));
       await storeFile(tx, id, 'draft', rendered.pdf, rendered.fileSha256);
       await statusChange(tx, actor, id, row.status, 'draft', 'request withdrawn');
@@ -299,7 +304,7 @@ async function signInTransaction(w: Workflow, tx: Tx, actor: BriefingActor, id: 
   const [signer] = await tx.select({ name: users.displayName }).from(users).where(eq(users.id, actor.userId));
   const person = { name: signer!.name, role: roleLabels[actor.role] };
   const key = await signingKeyFor(tx, w.config, actor);
-  const pdf = await signBriefingPdf(w.render(row, 'awaiting-sign-off'), person, key.certificate, new Date(), w.renderBudget);
+  const pdf = await signBriefingPdf(await w.render(row, 'awaiting-sign-off'), person, key.certificate, new Date(), w.renderBudget);
   // Our own check of what is about to become the record, before it is stored.
   const check = verifyPdf(pdf.pdf, [key.certificate.certificatePem]);
   if (!check.valid) throw new Error(`the freshly signed briefing ${id} does not verify: ${check.problems.join(' ')}`);
@@ -337,7 +342,7 @@ async function sign(w: Workflow, actor: BriefingActor, id: string): Promise<Brie
     fileSha256: signed.pdf.fileSha256,
     signedBy: { ...signed.person, signedAt: signed.pdf.signedAt },
     verificationUrl: w.verificationUrl,
-    timeZone: w.timeZone,
+    timeZone: (await w.preferences(actor.organizationId)).timeZone,
   });
   return w.respond(actor, id, mail);
 }
@@ -348,7 +353,7 @@ async function returnWithComment(w: Workflow, actor: BriefingActor, id: string, 
       const row = await decidable(tx, actor, id);
       const [official] = await tx.select({ name: users.displayName }).from(users).where(eq(users.id, actor.userId));
       const now = new Date();
-      const rendered = await renderBriefing(w.render(row, 'returned', { returned: { name: official!.name, role: roleLabels[actor.role], returnedAt: now, comment } }), w.renderBudget);
+      const rendered = await renderBriefing(await w.render(row, 'returned', { returned: { name: official!.name, role: roleLabels[actor.role], returnedAt: now, comment } }), w.renderBudget);
       await tx
         .update(briefingReviews)
         .set({ decision: 'returned', comment, decidedAt: now })
@@ -376,7 +381,7 @@ async function distribute(w: Workflow, actor: BriefingActor, id: string): Promis
     fileSha256: file!.sha256,
     signedBy: { name: row.signerName!, role: row.signerRole ?? '', signedAt: row.signedAt! },
     verificationUrl: w.verificationUrl,
-    timeZone: w.timeZone,
+    timeZone: (await w.preferences(actor.organizationId)).timeZone,
   });
   return w.respond(actor, id, mail);
 }

@@ -2,6 +2,8 @@
 // shelters and exits, the choke points with their rank, a legend and a scale bar.
 // Drawn from the stored geometries on the server (no tiles, no screenshot), north up, with the
 // equirectangular projection of map-projection.ts.
+import type { UnitSystem } from '../../../shared/api/units';
+import { METERS_PER_FOOT, METERS_PER_MILE } from '../../../shared/format/units';
 import type { BriefingMapInput, LonLat, MapSegment } from './briefing-input';
 import { boundsOf, equirectangularAbout, fitToBox, type PageFit } from './map-projection';
 import { n, polylinePoints, svgText } from './svg-text';
@@ -12,6 +14,8 @@ export type ChokePoint = { segmentId: number; rank: number };
 
 export type MapSvgInput = BriefingMapInput & {
   chokePoints: ChokePoint[];
+  /** The organisation's units for the scale bar (metric when absent). */
+  unitSystem?: UnitSystem | undefined;
   /** Page units (pt); the map keeps its aspect ratio inside. */
   width?: number;
   height?: number;
@@ -48,16 +52,31 @@ export const MAP_COLOURS = {
 };
 
 const SCALE_STEPS_M = [25, 50, 100, 200, 250, 500, 1_000, 2_000, 2_500, 5_000, 10_000, 20_000, 25_000, 50_000, 100_000];
+// Round US customary distances: feet below a quarter mile, then miles.
+const SCALE_STEPS_FT = [100, 200, 500, 1_000];
+const SCALE_STEPS_MI = [0.25, 0.5, 1, 2, 5, 10, 20, 50];
 
-/** The longest round distance whose bar is at most `maxPage` long. */
-export function scaleBarLength(scale: number, maxPage: number): number {
-  let best = SCALE_STEPS_M[0]!;
-  for (const m of SCALE_STEPS_M) if (m * scale <= maxPage) best = m;
+type ScaleStep = { meters: number; label: string };
+
+function scaleSteps(system: UnitSystem): ScaleStep[] {
+  if (system === 'metric') return SCALE_STEPS_M.map((m) => ({ meters: m, label: m >= 1000 ? `${m / 1000} km` : `${m} m` }));
+  return [
+    ...SCALE_STEPS_FT.map((ft) => ({ meters: ft * METERS_PER_FOOT, label: `${ft.toLocaleString('en-US')} ft` })),
+    ...SCALE_STEPS_MI.map((mi) => ({ meters: mi * METERS_PER_MILE, label: `${mi} mi` })),
+  ];
+}
+
+/** The longest round distance (in the unit system) whose bar is at most `maxPage` long. */
+export function scaleBarStep(scale: number, maxPage: number, system: UnitSystem = 'metric'): ScaleStep {
+  const steps = scaleSteps(system);
+  let best = steps[0]!;
+  for (const s of steps) if (s.meters * scale <= maxPage) best = s;
   return best;
 }
 
-function distanceLabel(m: number): string {
-  return m >= 1000 ? `${m / 1000} km` : `${m} m`;
+/** The longest round metric distance whose bar is at most `maxPage` long, in metres. */
+export function scaleBarLength(scale: number, maxPage: number): number {
+  return scaleBarStep(scale, maxPage, 'metric').meters;
 }
 
 /** The point halfway along a polyline (by length), where a rank badge sits. */
@@ -144,7 +163,7 @@ function drawRoads(segments: MapSegment[], fit: PageFit, project: (p: LonLat) =>
   return out.join('');
 }
 
-function drawLegend(x: number, y: number, width: number, scale: number): string {
+function drawLegend(x: number, y: number, width: number, scale: number, system: UnitSystem): string {
   const out: string[] = [];
   const t = (tx: number, ty: number, s: string) => svgText(tx, ty, s, { size: 7.5, fill: MAP_COLOURS.text });
   const line = (x0: number, yy: number, colour: string, w: number) =>
@@ -164,8 +183,8 @@ function drawLegend(x: number, y: number, width: number, scale: number): string 
   out.push(shelterMarker(c3 + 11, row2), t(c3 + 28, row2 + 2.6, 'Shelter or exit'));
 
   // Scale bar, right-aligned: two alternating halves so the midpoint can be read off.
-  const barM = scaleBarLength(scale, Math.min(120, width * 0.22));
-  const barW = barM * scale;
+  const bar = scaleBarStep(scale, Math.min(120, width * 0.22), system);
+  const barW = bar.meters * scale;
   // Room on the right for the end label, centred on the bar's end ("10 km" is about 20 pt wide).
   const bx = x + width - barW - 16;
   const by = row1 + 4;
@@ -174,7 +193,7 @@ function drawLegend(x: number, y: number, width: number, scale: number): string 
     `<rect x="${n(bx + barW / 2)}" y="${n(by)}" width="${n(barW / 2)}" height="4" fill="#ffffff" stroke="${MAP_COLOURS.text}" stroke-width="0.6"/>`,
     `<rect x="${n(bx)}" y="${n(by)}" width="${n(barW)}" height="4" fill="none" stroke="${MAP_COLOURS.text}" stroke-width="0.6"/>`,
     svgText(bx, by - 3, '0', { size: 7, fill: MAP_COLOURS.text, anchor: 'middle' }),
-    svgText(bx + barW, by - 3, distanceLabel(barM), { size: 7, fill: MAP_COLOURS.text, anchor: 'middle' }),
+    svgText(bx + barW, by - 3, bar.label, { size: 7, fill: MAP_COLOURS.text, anchor: 'middle' }),
     svgText(bx + barW / 2, by + 14, 'Scale', { size: 6.5, fill: '#6c757d', anchor: 'middle' }),
   );
   return out.join('');
@@ -272,7 +291,7 @@ export function mapSvg(input: MapSvgInput): string {
     badges,
     note ? svgText(6, height - legendHeight - 6, note, { size: 7, fill: MAP_COLOURS.text, halo: true }) : '',
     northArrow(width - 24, 12),
-    drawLegend(4, height - legendHeight + 4, width - 8, fit.scale),
+    drawLegend(4, height - legendHeight + 4, width - 8, fit.scale, input.unitSystem ?? 'metric'),
     '</svg>',
   ].join('');
 }

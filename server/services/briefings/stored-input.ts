@@ -2,6 +2,7 @@
 // renderer's input, with the status-dependent parts (sign-off, return comment) added. Checks
 // that the content still hashes to the recorded value: a row edited behind the app's back
 // would otherwise be rendered, and signed, with figures nobody reviewed.
+import type { UnitSystem } from '../../../shared/api/units';
 import type { BriefingInput, BriefingReturn, BriefingSignature, BriefingStatus } from './briefing-input';
 import { contentSha256, sha256OfStoredContent, type StoredBriefingContent } from './content-fingerprint';
 
@@ -12,6 +13,7 @@ export type RenderState = {
   signature?: BriefingSignature | undefined;
   returned?: BriefingReturn | undefined;
   timeZone: string;
+  unitSystem?: UnitSystem | undefined;
   verificationUrl: string;
 };
 
@@ -25,6 +27,7 @@ export function inputFromStored(content: StoredBriefingContent, recordedSha256: 
     signature: state.signature,
     returned: state.returned,
     timeZone: state.timeZone,
+    unitSystem: state.unitSystem,
     verificationUrl: state.verificationUrl,
   } satisfies BriefingInput;
   if (contentSha256(input) !== recordedSha256) throw new ContentMismatchError(`briefing ${content.briefingId} no longer renders to its recorded content`);

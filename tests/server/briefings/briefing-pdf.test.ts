@@ -241,6 +241,35 @@ describe('a run that does not clear within its horizon', () => {
   });
 });
 
+describe('in US customary units', () => {
+  let usText = '';
+  let usPdf: Buffer;
+  beforeAll(async () => {
+    usPdf = (await renderBriefing({ ...briefingInput(), unitSystem: 'us-customary' })).pdf;
+    usText = squeeze(pdfToText(usPdf)).replace(/\s+/g, ' ');
+  });
+
+  it('prints speeds in mph, the jam density per mile and the scale in miles or feet', () => {
+    // 50 km/h = 31.07 mph (1 mi = 1,609.344 m, international yard and pound agreement, 1959).
+    expect(usText).toContain('Road class Lanes mph veh/h/lane Sources');
+    expect(usText).toMatch(/secondary 1 31 850 Capacity/);
+    // HCM 6th ed. Exhibit 25-2: 190 pc/mi/ln.
+    expect(usText).toContain('Queue space jam density 190 veh/mi per lane');
+    // The map's scale bar: "0" at its start, a round distance in miles or feet at its end.
+    expect(usText).toMatch(/0 \d[\d.,]* (mi|ft) /);
+    expect(usText).not.toContain('km/h');
+  });
+
+  it('keeps the content hash of the metric copy: units are how it reads, not what it says', () => {
+    expect(storedBriefingContent({ ...briefingInput(), unitSystem: 'us-customary' })).toEqual(storedBriefingContent(briefingInput()));
+  });
+
+  it('renders its pages to PNG for review', () => {
+    const pngs = pdfToPng(usPdf, outDir, 'us-customary');
+    expect(pngs.length).toBeGreaterThan(1);
+  });
+});
+
 describe('names beyond ASCII', () => {
   it('prints letters outside Latin-1 with the bundled fonts', async () => {
     const pdf = (await renderBriefing(briefingInput({ planName: 'Řeka Zoë: Łódź–Čapek', preparedBy: { name: 'Dvořák Þórsdóttir', role: 'Planner' } }))).pdf;

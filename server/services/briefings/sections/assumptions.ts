@@ -4,6 +4,8 @@ import type { Content, TableCell } from 'pdfmake/interfaces';
 import type { BriefingInput } from '../briefing-input';
 import { formatCount, formatDateTime, formatDecimal, formatSpan, formatStep } from '../../../../shared/format/numbers';
 import { COLOURS, dataTable, td, th } from './document-styles';
+import type { UnitSystem } from '../../../../shared/api/units';
+import { formatDensity, speedFromKmh, speedUnit } from '../../../../shared/format/units';
 import { algorithmWords } from '../../../../shared/format/engine-words';
 import { tripTimesMethod, tripTimesWarning } from '../../../../shared/format/trip-times';
 import { CAPACITY_FACTOR_PRESETS } from '../../../../shared/model/capacity-factors';
@@ -31,14 +33,15 @@ function factorPresetWords(factor: number): string {
 }
 
 /** Jam density used for queue space (storage = jam density × lanes × length), with its source. */
-function jamDensityWords(rows: BriefingInput['assumptions']['capacityTable']): string {
+function jamDensityWords(rows: BriefingInput['assumptions']['capacityTable'], system: UnitSystem): string {
   const distinct = [...new Map(rows.filter((r) => r.jamDensityVehPerKmPerLane !== undefined).map((r) => [`${r.jamDensityVehPerKmPerLane}|${r.jamDensitySource ?? ''}`, r])).values()];
   if (distinct.length === 0) return 'jam density not stated in the capacity table';
-  return distinct.map((r) => `jam density ${formatDecimal(r.jamDensityVehPerKmPerLane!)} veh/km per lane${r.jamDensitySource ? ` — ${r.jamDensitySource}` : ''}`).join('; ') + '; storage = jam density × lanes × length';
+  return distinct.map((r) => `jam density ${formatDensity(r.jamDensityVehPerKmPerLane!, system)}${r.jamDensitySource ? ` — ${r.jamDensitySource}` : ''}`).join('; ') + '; storage = jam density × lanes × length';
 }
 
 export function assumptionsSection(input: BriefingInput): Content[] {
   const { run, result, assumptions: a } = input;
+  const units = input.unitSystem ?? 'metric';
   const p = run.parameters;
   const s = result.stats;
   const tripWarning = result.routeTiming ? tripTimesWarning(result.routeTiming) : null;
@@ -49,7 +52,7 @@ export function assumptionsSection(input: BriefingInput): Content[] {
     ['Horizon', `${formatSpan(p.horizonMinutes)} after the evacuation order`],
     ['Time step', formatStep(p.timeStepSeconds)],
     ['Capacity factor', `${formatDecimal(p.capacityFactor)} on every lane capacity${a.capacityFactorNote ? ` — ${a.capacityFactorNote}` : ''}${factorPresetWords(p.capacityFactor)}`],
-    ['Queue space', jamDensityWords(a.capacityTable)],
+    ['Queue space', jamDensityWords(a.capacityTable, units)],
     ...(a.participation ? ([['Participation', a.participation]] as [string, string][]) : []),
     ['Persons per vehicle', `${formatDecimal(a.personsPerVehicle)} — ${a.personsPerVehicleSource}${/from memory/.test(a.personsPerVehicleSource) ? '' : `; the default of ${formatDecimal(ZONE_DEFAULTS.personsPerVehicle)} is ${ZONE_DEFAULTS.personsPerVehicleSource}`}`],
     ['Departure curve', a.departureCurve],
@@ -65,7 +68,7 @@ export function assumptionsSection(input: BriefingInput): Content[] {
   const capRows: TableCell[][] = a.capacityTable.map((r) => [
     td(r.roadClass.replace(/_/g, ' ')),
     td(String(r.lanesPerDirection), { right: true }),
-    td(formatCount(r.speedKmh), { right: true }),
+    td(formatCount(speedFromKmh(r.speedKmh, units)), { right: true }),
     td(formatCount(r.capacityVehPerHourPerLane), { right: true }),
     {
       stack: [
@@ -83,7 +86,7 @@ export function assumptionsSection(input: BriefingInput): Content[] {
     { text: 'Assumptions', style: 'h1' },
     keyValue(rows),
     { text: 'Capacity table', style: 'h2', margin: [0, 14, 0, 4] },
-    dataTable([62, 34, 34, 44, '*'], [th('Road class'), th('Lanes\nper dir.', 'right'), th('km/h', 'right'), th('veh/h/lane', 'right'), th('Sources')], capRows),
+    dataTable([62, 34, 34, 44, '*'], [th('Road class'), th('Lanes\nper dir.', 'right'), th(speedUnit(units), 'right'), th('veh/h/lane', 'right'), th('Sources')], capRows),
     {
       text: 'Per-segment values from the road data (lanes, speed limits, closures) replace these defaults where present. Arc capacity = lanes × per-lane capacity × capacity factor.',
       style: 'note',

@@ -28,7 +28,7 @@ export function mapFigure(input: BriefingInput): Content[] {
       style: 'note',
       margin: [0, 0, 0, 6],
     },
-    { svg: mapSvg({ ...input.map, chokePoints: chokePointRanks(input.result), width: 516, height: 350 }), width: 516 },
+    { svg: mapSvg({ ...input.map, chokePoints: chokePointRanks(input.result), unitSystem: input.unitSystem, width: 516, height: 350 }), width: 516 },
     { text: 'Figure 2. Road network, evacuation zones and shelters; north is up. Drawn from the run’s stored geometry.', style: 'caption' },
   ];
 }
