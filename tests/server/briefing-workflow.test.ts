@@ -508,6 +508,27 @@ describe('role matrix', () => {
   });
 });
 
+describe('the organisation units and time zone', () => {
+  it('give a draft its speeds in mph and its dates in the organisation zone, and the deployment zone again when cleared', async () => {
+    const { agent, csrf } = as('admin');
+    await agent.put('/api/settings/organization').set('x-csrf-token', csrf).send({ unitSystem: 'us-customary', timeZone: 'America/Chicago' }).expect(200);
+    const us = await post('planner', '/api/briefings', { runId, title: 'In miles' });
+    expect(us.status, JSON.stringify(us.body)).toBe(201);
+    const t = squeeze(pdfToText((await getPdf('planner', us.body.briefing.id)).body)).replace(/\s+/g, ' ');
+    // Chicago is UTC−6 in winter (IANA tz database); the zone is named with every time.
+    expect(t).toMatch(/Prepared on \d{1,2} \w+ 20\d\d, \d\d:\d\d GMT-6/);
+    expect(t).not.toMatch(/\d\d:\d\d UTC/);
+    expect(t).toContain('Road class Lanes mph veh/h/lane Sources');
+    expect(t).toContain('veh/mi per lane');
+
+    await agent.put('/api/settings/organization').set('x-csrf-token', csrf).send({ unitSystem: 'metric', timeZone: null }).expect(200);
+    const metric = await post('planner', '/api/briefings', { runId, title: 'In kilometres' });
+    const m = squeeze(pdfToText((await getPdf('planner', metric.body.briefing.id)).body)).replace(/\s+/g, ' ');
+    expect(m).toMatch(/Prepared on \d{1,2} \w+ 20\d\d, \d\d:\d\d UTC/);
+    expect(m).toContain('Road class Lanes km/h veh/h/lane Sources');
+  });
+});
+
 async function countKeys(): Promise<number> {
   return Number((await ctx.pool.query('SELECT count(*) AS n FROM organization_signing_keys WHERE organization_id = $1', [ctx.demoOrganizationId])).rows[0].n);
 }
