@@ -4,17 +4,17 @@
 // fix ranking, and on request the independent verification of every flow returned.
 
 import { timeExpandedBottlenecks, type TimeExpandedBottlenecks } from './bottlenecks';
-import { computeEvacuationCurve, type CurveMarks } from './evacuation-curve';
+import { computeEvacuationCurve, type CurveComputation, type CurveMarks } from './evacuation-curve';
 import { validateEvacuationProblem, type EvacuationProblem } from './evacuation-problem';
-import { arrivalsByStep, decomposeTrips, roadUsage, type PlannedRouteTiming } from './expanded-usage';
+import { arrivalsByStep, decomposeTrips, roadUsage, type PlannedRouteTiming, type RoadUsage, type TripSummary } from './expanded-usage';
 import { rankFixes, type RoadFix } from './fixes';
-import { arcFlows, createFlowState } from './flow-state';
-import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice } from './max-flow';
+import { arcFlows, createFlowState, type FlowState } from './flow-state';
+import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice, type MaxFlowResult } from './max-flow';
 import { minimumCut } from './min-cut';
 import { perStepCapacity } from './road-timing';
 import { suggestedTimeStepSeconds, type RouteTimingError } from './route-timing';
-import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateSummary } from './steady-state';
-import { expandOverTime, nodeLimitAtHorizon } from './time-expanded';
+import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateNetwork, type SteadyStateSummary } from './steady-state';
+import { expandOverTime, nodeLimitAtHorizon, type TimeExpandedNetwork } from './time-expanded';
 import { verify } from './verify';
 
 export type EvacuationPhase = 'steady-state' | 'expand' | 'curve' | 'bottlenecks' | 'fixes' | 'verify';
@@ -161,7 +161,36 @@ const DEFAULT_MAX_FIX_EVALUATIONS = 200;
  */
 export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacuationOptions = {}): EvacuationResult {
   validateEvacuationProblem(problem);
-  const progress = options.onProgress ?? (() => {});
+  const run = startRun(problem, options);
+  const steady = steadyStatePhase(run);
+  const expanded = expansionPhase(run);
+  const curve = curvePhase(run, expanded);
+  // Read-out of the final plan, then the cut: taking the cut may turn the flow state back into
+  // the flow of the horizon before clearance (see takeCutResidual), so the final flow is read first.
+  const plan = planReadOut(run, expanded, curve);
+  const bottlenecks = cutPhase(run, expanded, curve);
+  const fixes = fixesPhase(run, steady);
+  const result = assembleResult(run, { steady, expanded, curve, plan, bottlenecks, fixes });
+  if (options.verify) result.verification = { ok: run.problems.length === 0, problems: run.problems };
+  return result;
+}
+
+/** What every phase of one solve shares: the problem, the options, progress, timings and findings. */
+interface SolveRun {
+  readonly problem: EvacuationProblem;
+  readonly options: SolveEvacuationOptions;
+  readonly choice: MaxFlowAlgorithmChoice;
+  readonly demand: number;
+  readonly progress: (phase: EvacuationPhase, fraction: number) => void;
+  /** Adds the time since the last lap to `phase` (when options.now was given). */
+  readonly lap: (phase: EvacuationPhase) => void;
+  readonly timings: Partial<Record<EvacuationPhase, number>>;
+  readonly warnings: EvacuationWarning[];
+  /** verify()'s findings, when options.verify is set. */
+  readonly problems: string[];
+}
+
+function startRun(problem: EvacuationProblem, options: SolveEvacuationOptions): SolveRun {
   const timings: Partial<Record<EvacuationPhase, number>> = {};
   let clock = options.now?.();
   const lap = (phase: EvacuationPhase): void => {
@@ -170,166 +199,220 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
     timings[phase] = (timings[phase] ?? 0) + t - clock;
     clock = t;
   };
-  const T = problem.horizonSteps;
-  const demand = problem.zones.reduce((sum, zone) => sum + zone.vehicles, 0);
-  const warnings = collectWarnings(problem);
-  const problems: string[] = [];
+  return {
+    problem,
+    options,
+    choice: options.algorithm ?? 'auto',
+    demand: problem.zones.reduce((sum, zone) => sum + zone.vehicles, 0),
+    progress: options.onProgress ?? (() => {}),
+    lap,
+    timings,
+    warnings: collectWarnings(problem),
+    problems: [],
+  };
+}
 
-  // Steady state.
-  progress('steady-state', 0);
+type SteadyPhase = { steady: SteadyStateNetwork; summary: SteadyStateSummary; result: MaxFlowResult };
+
+/** The static maximum flow at one instant and its cut. */
+function steadyStatePhase(run: SolveRun): SteadyPhase {
+  const { problem, options, choice } = run;
+  run.progress('steady-state', 0);
   const steady = buildSteadyStateNetwork(problem, options.steadyStateAtSeconds ?? 0);
-  const choice = options.algorithm ?? 'auto';
-  const steadyAlgorithm = choice === 'auto' ? chooseAlgorithm(steady.network) : choice;
-  const { summary, result: steadyResult } = solveSteadyState(problem, steady, {
-    algorithm: steadyAlgorithm,
-    shouldAbort: options.shouldAbort,
-  });
+  const algorithm = choice === 'auto' ? chooseAlgorithm(steady.network) : choice;
+  const { summary, result } = solveSteadyState(problem, steady, { algorithm, shouldAbort: options.shouldAbort });
   if (summary.unbounded) {
-    warnings.push({
+    run.warnings.push({
       code: 'steady-state-unbounded',
       message: 'a zone reaches a shelter through roads without a capacity limit; the steady state has no finite bottleneck',
     });
   }
-  if (options.verify) collect(problems, 'steady state', verify(steady.network, steadyResult).problems);
-  lap('steady-state');
-  progress('steady-state', 1);
+  if (options.verify) collect(run.problems, 'steady state', verify(steady.network, result).problems);
+  run.lap('steady-state');
+  run.progress('steady-state', 1);
+  return { steady, summary, result };
+}
 
-  // Time expansion and the curve.
-  progress('expand', 0);
-  const expanded = expandOverTime(problem);
-  const { routeTiming } = expanded;
-  const routeWarning = routeTimingWarning(routeTiming, problem);
-  if (routeWarning) warnings.push(routeWarning);
-  lap('expand');
-  progress('expand', 1);
-  const curveAlgorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
-  progress('curve', 0);
+/** The time-expanded network, and the warning when its route times drift past one step. */
+function expansionPhase(run: SolveRun): TimeExpandedNetwork {
+  run.progress('expand', 0);
+  const expanded = expandOverTime(run.problem);
+  const routeWarning = routeTimingWarning(expanded.routeTiming, run.problem);
+  if (routeWarning) run.warnings.push(routeWarning);
+  run.lap('expand');
+  run.progress('expand', 1);
+  return expanded;
+}
+
+type CurvePhase = { curve: CurveComputation; state: FlowState; algorithm: MaxFlowAlgorithm };
+
+/** The evacuation curve: the maximum flow at every horizon, ending with the final horizon's flow in `state`. */
+function curvePhase(run: SolveRun, expanded: TimeExpandedNetwork): CurvePhase {
+  const { options, choice } = run;
+  const T = run.problem.horizonSteps;
+  const algorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
+  run.progress('curve', 0);
   const state = createFlowState(expanded.network);
-  const curve = computeEvacuationCurve(expanded, demand, state, {
-    algorithm: curveAlgorithm,
+  const curve = computeEvacuationCurve(expanded, run.demand, state, {
+    algorithm,
     cutHorizon: options.bottleneckStep === undefined ? undefined : Math.max(0, Math.min(T, options.bottleneckStep)),
-    onHorizon: (t) => progress('curve', T === 0 ? 1 : t / T),
+    onHorizon: (t) => run.progress('curve', T === 0 ? 1 : t / T),
     shouldAbort: options.shouldAbort,
   });
-  lap('curve');
-  progress('curve', 1);
+  run.lap('curve');
+  run.progress('curve', 1);
+  return { curve, state, algorithm };
+}
 
-  // Read-out of the final plan, then the cut: taking the cut may turn `state` back into the
-  // flow of the horizon before clearance (see takeCutResidual), so the final flow is read first.
-  progress('bottlenecks', 0);
-  const R = problem.roads.length;
-  const usage = roadUsage(expanded, state, R);
+type PlanReadOut = { usage: RoadUsage; trips: TripSummary; byStep: number[]; delivered: number };
+
+/** Road use, trips and arrivals of the final plan, checked by verify() on request. */
+function planReadOut(run: SolveRun, expanded: TimeExpandedNetwork, { curve, state }: CurvePhase): PlanReadOut {
+  const { problem } = run;
+  run.progress('bottlenecks', 0);
+  const usage = roadUsage(expanded, state, problem.roads.length);
   const trips = decomposeTrips(expanded, state, problem.zones.length, problem.shelters.length, {
     from: problem.roads.map((road) => road.from),
     to: problem.roads.map((road) => road.to),
     travelTimeSeconds: problem.roads.map((road) => road.travelTimeSeconds),
   });
-  const planByStep = arrivalsByStep(expanded, state);
-  const finalDelivered = curve.deliveredByStep[curve.finalHorizon]!;
-  lap('bottlenecks');
-  if (options.verify) {
-    const { network, source, sink } = expanded;
-    const finalLimit = nodeLimitAtHorizon(expanded, curve.finalHorizon);
-    collect(problems, 'time-expanded flow', verify(network, {
-      source,
-      sink,
-      nodeLimit: finalLimit,
-      value: finalDelivered,
-      flow: arcFlows(network, state),
-      minCut: minimumCut(network, state.residual, source, finalLimit),
-    }).problems);
-    if (trips.zoneDelivered.reduce((a, b) => a + b, 0) !== finalDelivered) problems.push('trips do not add up to the delivered total');
-    lap('verify');
+  const byStep = arrivalsByStep(expanded, state);
+  const delivered = curve.deliveredByStep[curve.finalHorizon]!;
+  run.lap('bottlenecks');
+  if (run.options.verify) {
+    verifyExpandedFlow(run, expanded, state.residual, curve.finalHorizon, delivered, 'time-expanded flow');
+    if (trips.zoneDelivered.reduce((a, b) => a + b, 0) !== delivered) run.problems.push('trips do not add up to the delivered total');
+    run.lap('verify');
   }
+  return { usage, trips, byStep, delivered };
+}
+
+/** The minimum cut at the cut horizon: what holds the arrivals down. */
+function cutPhase(run: SolveRun, expanded: TimeExpandedNetwork, { curve }: CurvePhase): TimeExpandedBottlenecks {
   const cutResidual = curve.takeCutResidual();
   const bottlenecks = timeExpandedBottlenecks(expanded, cutResidual, curve.cutHorizon);
-  lap('bottlenecks');
-  if (options.verify) {
-    const { network, source, sink } = expanded;
-    const cutLimit = nodeLimitAtHorizon(expanded, curve.cutHorizon);
-    collect(problems, `time-expanded flow at step ${curve.cutHorizon}`, verify(network, {
-      source,
-      sink,
-      nodeLimit: cutLimit,
-      value: curve.deliveredByStep[curve.cutHorizon]!,
-      flow: arcFlows(network, { residual: cutResidual }),
-      minCut: minimumCut(network, cutResidual, source, cutLimit),
-    }).problems);
-    lap('verify');
+  run.lap('bottlenecks');
+  if (run.options.verify) {
+    const value = curve.deliveredByStep[curve.cutHorizon]!;
+    verifyExpandedFlow(run, expanded, cutResidual, curve.cutHorizon, value, `time-expanded flow at step ${curve.cutHorizon}`);
+    run.lap('verify');
   }
-  progress('bottlenecks', 1);
+  run.progress('bottlenecks', 1);
+  return bottlenecks;
+}
 
-  // Fixes.
-  progress('fixes', 0);
-  const fixAlgorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
-  const { fixes, truncated } = summary.unbounded
+/** verify() on the flow held in `residual` at a horizon, its value and its cut. */
+function verifyExpandedFlow(run: SolveRun, expanded: TimeExpandedNetwork, residual: Int32Array, horizon: number, value: number, what: string): void {
+  const { network, source, sink } = expanded;
+  const nodeLimit = nodeLimitAtHorizon(expanded, horizon);
+  collect(run.problems, what, verify(network, {
+    source,
+    sink,
+    nodeLimit,
+    value,
+    flow: arcFlows(network, { residual }),
+    minCut: minimumCut(network, residual, source, nodeLimit),
+  }).problems);
+}
+
+type FixesPhase = { fixes: RoadFix[]; truncated: boolean };
+
+/** Road what-ifs ranked by the steady-state gain (none when the steady state is unbounded). */
+function fixesPhase(run: SolveRun, { steady, summary, result }: SteadyPhase): FixesPhase {
+  const { problem, options, choice } = run;
+  run.progress('fixes', 0);
+  const algorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
+  const ranked = summary.unbounded
     ? { fixes: [], truncated: false }
-    : rankFixes(problem, steady, steadyResult, {
-        algorithm: fixAlgorithm,
+    : rankFixes(problem, steady, result, {
+        algorithm,
         maxEvaluations: options.maxFixEvaluations ?? DEFAULT_MAX_FIX_EVALUATIONS,
-        onEvaluated: (done, total) => progress('fixes', done / total),
+        onEvaluated: (done, total) => run.progress('fixes', done / total),
         shouldAbort: options.shouldAbort,
       });
-  lap('fixes');
-  progress('fixes', 1);
+  run.lap('fixes');
+  run.progress('fixes', 1);
   if (options.verify) {
     // The checks ran beside the read-out (timed as 'verify'); the phase is still announced.
-    progress('verify', 0);
-    progress('verify', 1);
+    run.progress('verify', 0);
+    run.progress('verify', 1);
   }
+  return ranked;
+}
 
-  const released = expanded.releases.map((counts) => counts.reduce((a, b) => a + b, 0));
-  const earliestArrival = planByStep.every((d, t) => d === curve.deliveredByStep[t]);
-  const orNull = (step: number): number | null => (step < 0 ? null : step);
-  const result: EvacuationResult = {
+type Phases = {
+  steady: SteadyPhase;
+  expanded: TimeExpandedNetwork;
+  curve: CurvePhase;
+  plan: PlanReadOut;
+  bottlenecks: TimeExpandedBottlenecks;
+  fixes: FixesPhase;
+};
+
+/** The plain-JSON result from what the phases found. */
+function assembleResult(run: SolveRun, { steady, expanded, curve: { curve, algorithm }, plan, bottlenecks, fixes }: Phases): EvacuationResult {
+  const { problem, options } = run;
+  const { summary } = steady;
+  return {
     timeStepSeconds: problem.timeStepSeconds,
-    horizonSteps: T,
-    demandVehicles: demand,
+    horizonSteps: problem.horizonSteps,
+    demandVehicles: run.demand,
     steadyState: summary,
     curve: { deliveredVehiclesByStep: curve.deliveredByStep, clearanceStep: curve.clearanceStep, marks: curve.marks },
-    plan: {
-      horizonStep: curve.finalHorizon,
-      deliveredVehicles: finalDelivered,
-      deliveredVehiclesByStep: planByStep,
-      earliestArrival,
-      zones: problem.zones.map((zone, z) => ({
-        id: zone.id,
-        vehicles: zone.vehicles,
-        releasedVehicles: released[z]!,
-        deliveredVehicles: trips.zoneDelivered[z]!,
-        lastArrivalStep: orNull(trips.zoneLastArrivalStep[z]!),
-        steadyStateVehPerHour: summary.zones[z]!.vehPerHour,
-      })),
-      shelters: problem.shelters.map((shelter, s) => ({
-        id: shelter.id,
-        capacityVehicles: shelter.capacityVehicles,
-        arrivedVehicles: trips.shelterArrived[s]!,
-        lastArrivalStep: orNull(trips.shelterLastArrivalStep[s]!),
-        steadyStateVehPerHour: summary.shelters[s]!.vehPerHour,
-      })),
-      assignments: trips.assignments,
-      roads: {
-        ...usage,
-        stepCapacity: Array.from(expanded.roadStepCapacity),
-        travelSteps: Array.from(expanded.roadTravelSteps),
-      },
-    },
+    plan: planOf(problem, expanded, curve, plan, summary),
     bottlenecks,
-    routeTiming,
-    plannedRoutes: trips.plannedRoutes!,
-    fixes,
-    fixesTruncated: truncated,
-    warnings,
+    routeTiming: expanded.routeTiming,
+    plannedRoutes: plan.trips.plannedRoutes!,
+    fixes: fixes.fixes,
+    fixesTruncated: fixes.truncated,
+    warnings: run.warnings,
     stats: {
-      algorithm: { steadyState: steadyResult.algorithm, curve: curveAlgorithm },
-      steadyStateNetwork: { nodes: steady.network.nodeCount, arcs: steady.network.arcCount },
+      algorithm: { steadyState: steady.result.algorithm, curve: algorithm },
+      steadyStateNetwork: { nodes: steady.steady.network.nodeCount, arcs: steady.steady.network.arcCount },
       timeExpandedNetwork: { nodes: expanded.network.nodeCount, arcs: expanded.network.arcCount },
-      augmentations: steadyResult.stats.augmentations + curve.stats.augmentations,
-      ...(options.now ? { timingsMs: timings } : {}),
+      augmentations: steady.result.stats.augmentations + curve.stats.augmentations,
+      ...(options.now ? { timingsMs: run.timings } : {}),
     },
   };
-  if (options.verify) result.verification = { ok: problems.length === 0, problems };
-  return result;
+}
+
+/** The plan part of the result: per zone, shelter and road. */
+function planOf(
+  problem: EvacuationProblem,
+  expanded: TimeExpandedNetwork,
+  curve: CurveComputation,
+  { usage, trips, byStep, delivered }: PlanReadOut,
+  summary: SteadyStateSummary,
+): EvacuationResult['plan'] {
+  const released = expanded.releases.map((counts) => counts.reduce((a, b) => a + b, 0));
+  const orNull = (step: number): number | null => (step < 0 ? null : step);
+  return {
+    horizonStep: curve.finalHorizon,
+    deliveredVehicles: delivered,
+    deliveredVehiclesByStep: byStep,
+    earliestArrival: byStep.every((d, t) => d === curve.deliveredByStep[t]),
+    zones: problem.zones.map((zone, z) => ({
+      id: zone.id,
+      vehicles: zone.vehicles,
+      releasedVehicles: released[z]!,
+      deliveredVehicles: trips.zoneDelivered[z]!,
+      lastArrivalStep: orNull(trips.zoneLastArrivalStep[z]!),
+      steadyStateVehPerHour: summary.zones[z]!.vehPerHour,
+    })),
+    shelters: problem.shelters.map((shelter, s) => ({
+      id: shelter.id,
+      capacityVehicles: shelter.capacityVehicles,
+      arrivedVehicles: trips.shelterArrived[s]!,
+      lastArrivalStep: orNull(trips.shelterLastArrivalStep[s]!),
+      steadyStateVehPerHour: summary.shelters[s]!.vehPerHour,
+    })),
+    assignments: trips.assignments,
+    roads: {
+      ...usage,
+      stepCapacity: Array.from(expanded.roadStepCapacity),
+      travelSteps: Array.from(expanded.roadTravelSteps),
+    },
+  };
 }
 
 function collect(into: string[], what: string, problems: readonly string[]): void {
