@@ -56,7 +56,7 @@ export function tripTimesMethod(timeStepSeconds: number, t: RouteTiming | undefi
   const model =
     `Travel times are counted in whole time steps of ${step}. Each road's steps are rounded against node time potentials ` +
     '(the free-flow time from each junction to the nearest shelter or exit, or from the nearest zone), so that rounding errors do not add up along a route ' +
-    '(as in condensed time-expanded networks, Fleischer & Skutella 2007): a trip over the fastest roads is modelled within one time step of its free-flow travel time, however short its roads, ' +
-    'and each road off those fastest trips adds less than one step. Travel times are free-flow times; queues form only where capacity runs out.';
+    '(as in condensed time-expanded networks, Fleischer & Skutella 2007): a trip along a fastest route to the nearest shelter or exit (or, when that potential is used, out of the nearest zone) is modelled within one time step of its free-flow travel time, however short its roads. ' +
+    'Other trips are not bounded this way: each road on them that lies off those fastest routes can add up to one step. Travel times are free-flow times; queues form only where capacity runs out.';
   return t === undefined ? model : `${model} In this analysis: ${tripTimesSummary(t)}`;
 }

@@ -49,6 +49,9 @@ describe('trip-time words', () => {
     const m = tripTimesMethod(60, within);
     expect(m).toContain('whole time steps of 1 minute');
     expect(m).toContain('within one time step of its free-flow travel time');
+    // Which trips the bound covers, and that the others are not bounded (docs/model.md §1).
+    expect(m).toContain('a fastest route to the nearest shelter or exit');
+    expect(m).toContain('Other trips are not bounded this way');
     expect(m).toContain('Fleischer & Skutella 2007');
     expect(m).toContain(tripTimesSummary(within));
     expect(tripTimesMethod(300, undefined)).not.toContain('In this analysis');
