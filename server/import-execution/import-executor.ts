@@ -14,6 +14,7 @@ import { zoneGeometrySchema } from '../../shared/api/zones-shelters';
 import { importOptionsSchema } from '../../shared/api/road-import';
 import { saveRoadLayer } from '../services/road-layers';
 import { createShelters, createZones } from '../services/zones-shelters';
+import { dropImportBytes, importBytes } from '../services/imports';
 import { ImportFailed, readUploadInWorker } from './read-upload-in-worker';
 
 const cancelPollMs = 500;
@@ -39,13 +40,14 @@ export function createImportExecutor(db: Database, config: Pick<Config, 'IMPORT_
       .from(imports)
       .innerJoin(plans, eq(plans.id, imports.planId))
       .where(and(eq(imports.id, importId), inFlight));
-    const bytes = job?.imp.bytes;
-    if (!job || !bytes) return;
+    if (!job) return;
+    const bytes = await importBytes(db, importId);
+    if (!bytes) return;
     const { imp } = job;
     if (!(await setState(importId, { status: 'running', phase: 'reading the file', progress: 0.05, startedAt: new Date() }))) return;
     const actor = { userId: imp.createdBy, organizationId: job.organizationId };
     const reading = readUploadInWorker(
-      { kind: imp.kind, bytes: new Uint8Array(bytes), fileName: imp.fileName, options: imp.options },
+      { kind: imp.kind, bytes, fileName: imp.fileName, options: imp.options },
       { timeSeconds: config.IMPORT_TIME_BUDGET_SECONDS, memoryMegabytes: config.IMPORT_MEMORY_BUDGET_MEGABYTES },
     );
     // A planner's cancel may reach another process: notice it in the database.
@@ -94,13 +96,13 @@ export function createImportExecutor(db: Database, config: Pick<Config, 'IMPORT_
         );
         outcome = { created: created.length };
       }
-      await setState(importId, { status: 'succeeded', phase: 'done', progress: 1, outcome, bytes: null, finishedAt: new Date() });
+      if (await setState(importId, { status: 'succeeded', phase: 'done', progress: 1, outcome, finishedAt: new Date() })) await dropImportBytes(db, importId);
     } catch (e) {
       if (e instanceof CancelledWhileSaving) return;
       if (e instanceof ImportFailed && e.kind === 'cancelled') return;
       if (!(e instanceof ImportFailed)) log(e);
       const failure = e instanceof ImportFailed && e.failure ? e.failure : { code: 'unreadableFile' as const, message: e instanceof Error ? e.message : String(e), badFeatures: [] };
-      await setState(importId, { status: 'failed', phase: 'failed', failure, bytes: null, finishedAt: new Date() });
+      if (await setState(importId, { status: 'failed', phase: 'failed', failure, finishedAt: new Date() })) await dropImportBytes(db, importId);
     } finally {
       clearInterval(watch);
     }

@@ -1,13 +1,14 @@
-// /api/plans/:planId/imports/:kind (road-layer, zones, shelters): upload a file (202: stored and queued; a
-// worker reads and saves it), read its progress, cancel it.
-import { Router } from 'express';
+// /api/plans/:planId/imports/:kind (road-layer, zones, shelters): upload a file (202: stored as it
+// arrives and queued; a worker reads and saves it), read its progress, cancel it.
+import { Router, type RequestHandler } from 'express';
 import { importKindSchema, importParamsSchema } from '../../shared/api/imports';
 import { importOptionsSchema, shelterUploadOptionsSchema, zoneUploadOptionsSchema } from '../../shared/api/road-import';
 import { planParamsSchema } from '../../shared/api/plans';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { jsonField, singleFileUpload } from '../middleware/upload';
+import { jsonField } from '../middleware/upload';
+import { streamedFileUpload, streamedUploadOf } from '../middleware/streamed-upload';
 import type { ImportEnqueuer } from '../queue/run-queue';
 import { cancelImport, getImport, queueImport } from '../services/imports';
 
@@ -16,15 +17,30 @@ const kindParamsSchema = planParamsSchema.extend({ kind: importKindSchema });
 export function importsRouter(db: Database, config: Config, queue: ImportEnqueuer): Router {
   const router = Router({ mergeParams: true });
 
-  router.post('/imports/:kind', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
+  // Beside the file: a road layer's name, and each kind's options.
+  const knownKind: RequestHandler = (req, _res, next) => {
+    kindParamsSchema.parse(req.params);
+    next();
+  };
+  router.post('/imports/:kind', requireMember('plans:write'), knownKind, streamedFileUpload(config.UPLOAD_MAX_MEGABYTES, ['name', 'options']), async (req, res) => {
     const { planId, kind } = kindParamsSchema.parse(req.params);
+    const upload = streamedUploadOf(res);
+    // Fields sent before the file are checked before a byte is stored; later ones once it has arrived.
     // Each kind's options: a road layer's import options; for zones and shelters, how to read the
     // file and which columns mean what (the field-mapping step).
-    const raw = jsonField(req.body?.options, 'options') ?? {};
-    const options = kind === 'road-layer' ? importOptionsSchema.parse(raw) : kind === 'zones' ? zoneUploadOptionsSchema.parse(raw) : shelterUploadOptionsSchema.parse(raw);
-    const name = typeof req.body?.name === 'string' && req.body.name.trim() ? req.body.name.trim().slice(0, 200) : undefined;
-    const file = req.file!;
-    res.status(202).json(await queueImport(db, queue, actorOf(req), planId, { kind, bytes: file.buffer, fileName: file.originalname, layerName: name, options }));
+    const detailsOf = (fields: Record<string, string>) => {
+      const raw = jsonField(fields.options, 'options') ?? {};
+      const options = kind === 'road-layer' ? importOptionsSchema.parse(raw) : kind === 'zones' ? zoneUploadOptionsSchema.parse(raw) : shelterUploadOptionsSchema.parse(raw);
+      return { options, layerName: fields.name?.trim() ? fields.name.trim().slice(0, 200) : undefined };
+    };
+    detailsOf(upload.fieldsBefore);
+    const queued = await queueImport(db, queue, actorOf(req), planId, {
+      kind,
+      fileName: upload.fileName,
+      pieces: upload.pieces,
+      details: async () => detailsOf(await upload.fields()),
+    });
+    res.status(202).json(queued);
   });
 
   router.get('/imports/:importId', requireMember('plans:read'), async (req, res) => {

@@ -1,9 +1,9 @@
 // Imports as queued jobs: the upload stores the file's bytes and queues the job in one
 // transaction (any worker machine can take it: the bytes live in PostgreSQL, not on a disk);
 // planners read the job's phase and progress, and may cancel it.
-import { and, eq, getTableColumns, inArray } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../db/client';
-import { imports } from '../db/schema';
+import { importChunks, imports } from '../db/schema';
 import type { Import, ImportKind } from '../../shared/api/imports';
 import type { ImportJobOptions } from '../../shared/api/road-import';
 import { ConflictError, NotFoundError } from '../errors';
@@ -12,8 +12,7 @@ import type { ImportEnqueuer } from '../queue/run-queue';
 import { recordAudit, type Actor } from './audit';
 import { assertPlanInOrganization } from './plan-access';
 
-const { bytes: _bytes, ...columnsWithoutBytes } = getTableColumns(imports);
-type ImportRow = Omit<typeof imports.$inferSelect, 'bytes'>;
+type ImportRow = typeof imports.$inferSelect;
 
 export function toImport(r: ImportRow): Import {
   return {
@@ -32,34 +31,69 @@ export function toImport(r: ImportRow): Import {
   };
 }
 
-export type ImportUpload = { kind: ImportKind; bytes: Buffer; fileName: string; layerName?: string | undefined; options?: ImportJobOptions | undefined };
+export type ImportDetails = { layerName?: string | undefined; options?: ImportJobOptions | undefined };
+export type ImportUpload = {
+  kind: ImportKind;
+  fileName: string;
+  /** The file's bytes as they arrive (about 1 MB each); a fault of the upload is thrown from here. */
+  pieces: AsyncIterable<Uint8Array>;
+  /** The rest of the request (a road layer's name and options), once the whole upload has arrived; throws what it refuses. */
+  details: () => Promise<ImportDetails>;
+};
 
-/** Stores the upload and queues its import, in one transaction; answers with the queued import. */
+/**
+ * Stores the upload piece by piece as it arrives and queues its import, all in one transaction:
+ * the caller is answered once the last piece is stored and the job queued, and an upload that
+ * fails on the way (too large, cut short, refused fields) rolls back, leaving nothing.
+ */
 export async function queueImport(db: Database, queue: ImportEnqueuer, actor: Actor, planId: string, upload: ImportUpload): Promise<Import> {
   return db.transaction(async (tx) => {
     await assertPlanInOrganization(tx, actor.organizationId, planId);
-    const [row] = await tx
+    const [created] = await tx
       .insert(imports)
-      .values({
-        planId,
-        kind: upload.kind,
-        fileName: upload.fileName,
-        sizeBytes: upload.bytes.length,
-        layerName: upload.layerName ?? null,
-        options: upload.options ?? null,
-        bytes: upload.bytes,
-        createdBy: actor.userId,
-      })
-      .returning(columnsWithoutBytes);
-    await recordAudit(tx, actor, 'import.queue', 'import', row!.id, { planId, kind: upload.kind, file: upload.fileName, sizeBytes: upload.bytes.length });
-    await queue.enqueueImport(row!.id, queueSqlOf(tx));
+      .values({ planId, kind: upload.kind, fileName: upload.fileName, sizeBytes: 0, createdBy: actor.userId })
+      .returning({ id: imports.id });
+    const importId = created!.id;
+    let sizeBytes = 0;
+    let seq = 0;
+    // One piece is stored while the next arrives: the request ends about one piece's insert after its last byte.
+    let storing: Promise<unknown> = Promise.resolve();
+    for await (const piece of upload.pieces) {
+      await storing;
+      storing = tx.insert(importChunks).values({ importId, seq: seq++, bytes: Buffer.from(piece.buffer, piece.byteOffset, piece.byteLength) }).execute();
+      // Awaited at the next piece or after the last; a failure before then is not unhandled.
+      storing.catch(() => undefined);
+      sizeBytes += piece.byteLength;
+    }
+    await storing;
+    const details = await upload.details();
+    const [row] = await tx
+      .update(imports)
+      .set({ sizeBytes, layerName: details.layerName ?? null, options: details.options ?? null })
+      .where(eq(imports.id, importId))
+      .returning();
+    await recordAudit(tx, actor, 'import.queue', 'import', importId, { planId, kind: upload.kind, file: upload.fileName, sizeBytes });
+    await queue.enqueueImport(importId, queueSqlOf(tx));
     return toImport(row!);
   });
 }
 
+/** The stored upload, whole, for the worker that reads it; null once the import has ended. */
+export async function importBytes(db: Database, importId: string): Promise<Uint8Array | null> {
+  const rows = await db.select({ bytes: importChunks.bytes }).from(importChunks).where(eq(importChunks.importId, importId)).orderBy(importChunks.seq);
+  if (rows.length === 0) return null;
+  const whole = Buffer.concat(rows.map((r) => r.bytes));
+  return new Uint8Array(whole.buffer, whole.byteOffset, whole.byteLength);
+}
+
+/** Frees an ended import's bytes. */
+export async function dropImportBytes(db: Pick<Database, 'delete'>, importId: string): Promise<void> {
+  await db.delete(importChunks).where(eq(importChunks.importId, importId));
+}
+
 export async function getImport(db: Database, organizationId: string, planId: string, importId: string): Promise<Import> {
   await assertPlanInOrganization(db, organizationId, planId);
-  const [row] = await db.select(columnsWithoutBytes).from(imports).where(and(eq(imports.id, importId), eq(imports.planId, planId)));
+  const [row] = await db.select().from(imports).where(and(eq(imports.id, importId), eq(imports.planId, planId)));
   if (!row) throw new NotFoundError('import');
   return toImport(row);
 }
@@ -70,14 +104,15 @@ export async function cancelImport(db: Database, actor: Actor, planId: string, i
   return db.transaction(async (tx) => {
     const [row] = await tx
       .update(imports)
-      .set({ status: 'cancelled', phase: 'cancelled', finishedAt: new Date(), bytes: null })
+      .set({ status: 'cancelled', phase: 'cancelled', finishedAt: new Date() })
       .where(and(eq(imports.id, importId), eq(imports.planId, planId), inArray(imports.status, ['queued', 'running'])))
-      .returning(columnsWithoutBytes);
+      .returning();
     if (!row) {
       const [existing] = await tx.select({ status: imports.status }).from(imports).where(and(eq(imports.id, importId), eq(imports.planId, planId)));
       if (!existing) throw new NotFoundError('import');
       throw new ConflictError(`The import has already ${existing.status === 'cancelled' ? 'been cancelled' : existing.status}.`);
     }
+    await dropImportBytes(tx, importId);
     await recordAudit(tx, actor, 'import.cancel', 'import', importId, { planId });
     return toImport(row);
   });

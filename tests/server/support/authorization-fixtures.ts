@@ -173,7 +173,9 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
   // An import waiting for a worker that never takes it (it is not on the queue), so cancelling is always possible.
   const queuedImport = async () => {
     const { rows } = await ctx.pool.query<{ id: string }>(
-      `INSERT INTO imports (plan_id, kind, file_name, size_bytes, bytes) VALUES ($1, 'shelters', 'waiting.geojson', 2, '{}'::bytea) RETURNING id`,
+      `WITH i AS (INSERT INTO imports (plan_id, kind, file_name, size_bytes) VALUES ($1, 'shelters', 'waiting.geojson', 2) RETURNING id),
+       c AS (INSERT INTO import_chunks (import_id, seq, bytes) SELECT id, 0, '{}'::bytea FROM i)
+       SELECT id FROM i`,
       [planId],
     );
     remember(rows[0]!.id);
