@@ -55,13 +55,15 @@ const configSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // Per-run budget: a larger problem is refused before it starts; a longer or hungrier solve is stopped.
   // What one run's time-expanded network may take, in arcs and in bytes (estimated at
-  // shared/model/run-budget.ts's measured bytes per arc and node). The defaults hold on a 2-core,
-  // 24 GB machine shared with other work: 4 GB, about 70 million arcs. A larger run is refused
-  // with the shortest coarser step that fits.
-  RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(70_000_000),
-  RUN_MAX_EXPANDED_MEGABYTES: z.coerce.number().int().min(16).default(4096),
+  // shared/model/run-budget.ts's measured bytes per arc and node). The defaults are what one
+  // worker (WORKER_CONCURRENCY 1) on a 2-core, 24 GB machine holds beside the API and PostgreSQL:
+  // 9 GB and 200 million arcs, which takes the generated county (180,000 segments) at a 1-minute
+  // step over 6 hours (measured peak 7.6 GB). A larger run is refused with the shortest coarser
+  // step that fits. RUN_MEMORY_BUDGET_MEGABYTES below must stay above it.
+  RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(200_000_000),
+  RUN_MAX_EXPANDED_MEGABYTES: z.coerce.number().int().min(16).default(9216),
   RUN_TIME_BUDGET_SECONDS: z.coerce.number().positive().default(900),
-  RUN_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(6144),
+  RUN_MEMORY_BUDGET_MEGABYTES: z.coerce.number().int().min(64).default(10240),
   // How often the queue looks for jobs of dead workers to retry.
   QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(30),
   // A job still active this long after its time budget belongs to a dead worker and is retried.

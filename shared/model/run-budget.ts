@@ -5,13 +5,15 @@
 // the cost of a coarser step is resolution, not a drift that grows with the route's length.
 
 /**
- * Bytes per time-expanded arc for the whole solve: the network (28: head, mate and capacity of
- * both residual arcs, the arc's residual index), what each arc stands for (5), the flow state (8),
- * the curve's undo-log flags (2), plus the read-out's per-arc arrays and allocation slack,
- * measured: the 5.09 M-arc bench network peaks at 354 MB for the whole analysis
- * (tests/bench/flow/README.md), about 56 bytes per arc after Node's own 60–80 MB.
+ * Bytes per time-expanded arc for the whole solve, per arc of the formula below (every copy,
+ * before the engine leaves out the copies no zone reaches in time or that reach no shelter): the
+ * network (28: head, mate and capacity of both residual arcs, the arc's residual index), what each
+ * arc stands for (5), the flow state (8), the curve's undo-log bits, allocation slack, less what
+ * the pruning saves. Measured on the generated county at 60 s over 6 h (tests/bench/flow/README.md):
+ * 7,790 MiB peak RSS for 183.5 million arcs and 32.5 million nodes of the formula, which 40 per arc
+ * and 40 per node bound from above by 6 %.
  */
-export const BYTES_PER_EXPANDED_ARC = 56;
+export const BYTES_PER_EXPANDED_ARC = 40;
 /** Bytes per time-expanded node: CSR offsets (4) and the solver's per-node arrays (incremental BFS: 22, plus read-out). */
 export const BYTES_PER_EXPANDED_NODE = 40;
 
@@ -94,6 +96,7 @@ export function budgetRefusal(
   return (
     `${head} At a time step of ${step} it fits (at most ${millions(coarser.size.arcs)} arcs, ${gigabytes(coarser.size.bytes)}). ` +
     `What that changes: travel times are counted in whole ${steps}, so each zone's fastest trips stay within ${step} of free flow ` +
-    `(instead of ${formatStep(timeStepSeconds)}), and the curve, the clearance time and the 50/90/95 % times are read in ${steps}.${shorter}`
+    `(instead of ${formatStep(timeStepSeconds)}) on the way to the nearest shelter or exit (other trips can drift further, about in proportion to the step), ` +
+    `and the curve, the clearance time and the 50/90/95 % times are read in ${steps}.${shorter}`
   );
 }
