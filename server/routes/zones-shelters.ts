@@ -1,4 +1,4 @@
-// /api/plans/:planId/zones, /shelters and /capacity-table.
+// /api/plans/:planId/zones, /shelters and /capacity-table (with its change history).
 import { Router } from 'express';
 import { capacityTableSchema } from '../../shared/api/capacity-table';
 import { planParamsSchema } from '../../shared/api/plans';
@@ -19,7 +19,7 @@ import { ImportRefusedError } from '../errors';
 import { readInWorker } from '../import/gis/import-in-worker';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
-import { getCapacityTable, putCapacityTable } from '../services/capacity-table';
+import { capacityTableHistory, getCapacityTable, putCapacityTable } from '../services/capacity-table';
 import { assertPlanInOrganization } from '../services/plan-access';
 import { describeAttachments, loadPlanModel } from '../services/plan-model';
 import { listCaps } from '../../shared/api/pagination';
@@ -123,6 +123,12 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
   router.put('/capacity-table', requireMember('plans:write'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
     res.json(await putCapacityTable(db, actorOf(req), planId, capacityTableSchema.parse(req.body)));
+  });
+  // Who changed which value or source, when, from what to what: newest first.
+  router.get('/capacity-table/history', requireMember('plans:read'), async (req, res) => {
+    const { planId } = planParamsSchema.parse(req.params);
+    const page = pageOf(req, listCaps.capacityTableHistory);
+    sendPage(res, 'entries', await capacityTableHistory(db, actorOf(req).organizationId, planId, page), page);
   });
 
   return router;

@@ -36,6 +36,7 @@ export const listCaps = {
   briefings: 200,
   officials: 500,
   outbox: 200,
+  capacityTableHistory: 200,
 } as const;
 
 /** Services fetch one row past the page, so the route knows whether another page follows. */

@@ -3,12 +3,12 @@
 // so that the map reloads what it shows.
 import { defineStore } from 'pinia';
 import { ref } from 'vue';
-import type { CapacityTable } from '@shared/api/capacity-table';
+import type { CapacityTable, CapacityTableHistoryEntry } from '@shared/api/capacity-table';
 import type { ImportFailure, ImportOptionsInput } from '@shared/api/road-import';
 import type { SegmentAttributesPatch } from '@shared/api/road-attributes';
 import type { RoadLayer, Segment } from '@shared/api/road-layers';
 import * as roadApi from '@/api/road-layers';
-import { getCapacityTable } from '@/api/capacity-table';
+import { getCapacityTable, getCapacityTableHistory, putCapacityTable } from '@/api/capacity-table';
 import { ApiError } from '@/api/api-error';
 import { messageOf } from '../format/error-message';
 import { useRunsStore } from './runs';
@@ -30,6 +30,7 @@ export const useRoadLayerStore = defineStore('road-layer', () => {
   const uploadError = ref('');
   const refusal = ref<ImportFailure | null>(null);
   const capacityTable = ref<CapacityTable | null>(null);
+  const capacityTableHistory = ref<CapacityTableHistoryEntry[]>([]);
   const selectedSegment = ref<Segment | null>(null);
   const mapVersion = ref(0);
   let uploadAbort: AbortController | null = null;
@@ -123,9 +124,23 @@ export const useRoadLayerStore = defineStore('road-layer', () => {
     return updated;
   }
 
+  /** Planners: the whole table with one class changed (each changed value with its new source). */
+  async function saveCapacityTable(table: CapacityTable) {
+    capacityTable.value = await putCapacityTable(planId.value, table);
+    runs.markDataChanged();
+    await loadCapacityTableHistory();
+  }
+
+  async function loadCapacityTableHistory() {
+    capacityTableHistory.value = (await getCapacityTableHistory(planId.value)).entries;
+  }
+
   return {
     planId,
     layer,
+    capacityTableHistory,
+    saveCapacityTable,
+    loadCapacityTableHistory,
     loading,
     error,
     upload,

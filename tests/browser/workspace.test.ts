@@ -107,6 +107,18 @@ it('goes from the plans list to choke points on the map', async () => {
   await page.locator('[data-test="shelter-item"]', { hasText: 'Drawn shelter' }).getByText(/Reached from junction/).waitFor();
 
   await page.locator('[data-test="tab-assumptions-button"]').click();
+  // The class defaults with their sources; a changed value is refused until its source changes.
+  await page.locator('[data-test="capacity-row-residential"]').getByText('Capacity:').waitFor();
+  await page.locator('[data-test="capacity-edit-residential"]').click();
+  await page.locator('[data-test="capacity-capacity"] input').fill('650');
+  await page.locator('[data-test="capacity-save"]').click();
+  await page.getByText('The value changed: say where the new one comes from.').waitFor();
+  await page.locator('[data-test="capacity-capacity-source"] input').fill('Veltmoor street counts, 2026 (demo)');
+  await page.locator('[data-test="capacity-save"]').click();
+  await page.locator('[data-test="capacity-row-dialog"]').waitFor({ state: 'detached' });
+  await page.locator('[data-test="capacity-row-residential"]').getByText('Veltmoor street counts, 2026 (demo)').waitFor();
+  await page.locator('[data-test="capacity-history-toggle"]').click();
+  await page.locator('[data-test="capacity-history"]').getByText(/lane capacity 600 veh\/h\/lane → 650 veh\/h\/lane/).waitFor();
   await shoot(page, 'workspace-before-run');
 
   // Analyse, follow the progress, read the findings.

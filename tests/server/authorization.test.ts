@@ -188,6 +188,7 @@ const rows: Row[] = [
   { route: 'DELETE /api/plans/:planId/shelters/:shelterId', variant: throughOwnPlan, expect: otherOrganizationOnly(writers(204)), call: (f) => ({ params: { planId: f.far.planId, shelterId: f.drill.shelterId } }) },
   { route: 'GET /api/plans/:planId/attachments', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
   { route: 'GET /api/plans/:planId/capacity-table', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
+  { route: 'GET /api/plans/:planId/capacity-table/history', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
   {
     route: 'PUT /api/plans/:planId/capacity-table',
     expect: writers(200),
