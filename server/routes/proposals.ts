@@ -3,7 +3,8 @@
 import { Router } from 'express';
 import { runBudget } from '../run-execution/run-budget';
 import { planParamsSchema } from '../../shared/api/plans';
-import { proposalParamsSchema, proposalRequestSchema, saveProposalSchema } from '../../shared/api/proposals';
+import { proposalCaution, proposalParamsSchema, proposalRequestSchema, saveProposalSchema } from '../../shared/api/proposals';
+import { planExportIdentity } from '../services/export-identity';
 import { listCaps } from '../../shared/api/pagination';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
@@ -12,6 +13,8 @@ import { assertRunQuota } from '../services/run-quota';
 import { assertProposalQuota, cancelProposal, getProposalRow, listProposals, saveProposalAsScenario, startProposal, toProposal } from '../services/proposals';
 import type { ProposalEnqueuer } from '../queue/proposal-queue';
 import { pageOf, sendPage } from '../http/list-page';
+import { ConflictError } from '../errors';
+import { zoneRoutesCsv } from '../../shared/model/zone-routes-csv';
 
 export function proposalsRouter(db: Database, config: Config, queue: ProposalEnqueuer): Router {
   const router = Router({ mergeParams: true });
@@ -48,6 +51,24 @@ export function proposalsRouter(db: Database, config: Config, queue: ProposalEnq
     const { planId, proposalId } = proposalParamsSchema.parse(req.params);
     const body = saveProposalSchema.parse(req.body);
     res.status(201).json(await saveProposalAsScenario(db, actorOf(req), planId, proposalId, body));
+  });
+
+  router.get('/proposals/:proposalId/export/zone-routes.csv', requireMember('plans:read'), async (req, res) => {
+    const { planId, proposalId } = proposalParamsSchema.parse(req.params);
+    const row = await getProposalRow(db, actorOf(req).organizationId, planId, proposalId);
+    const answer = row.result?.answer;
+    if (row.kind !== 'zone-routes') throw new ConflictError('Only a “where each zone goes” search exports its routes.');
+    if (!row.result || answer?.kind !== 'zone-routes') throw new ConflictError(`The search has no answer (it is ${row.status}).`);
+    const request = row.input.request;
+    const identity = await planExportIdentity(db, actorOf(req).organizationId, planId, null, 'Search: where each zone goes', [
+      proposalCaution,
+      'One optimal plan of possibly many; per zone at most 200 roads, most vehicles first.',
+      `search ${row.id}, started ${row.createdAt.toISOString()}, finished ${row.finishedAt?.toISOString() ?? 'not finished'}${row.scenarioId ? `, under scenario ${row.scenarioId}` : ''}`,
+      `horizon ${request.parameters.horizonMinutes} min, time step ${request.parameters.timeStepSeconds} s, capacity factor ${request.parameters.capacityFactor}; engine ${row.result.engineVersion}; run input ${row.input.runInputHash ?? 'unknown'}`,
+      `clearance ${answer.clearanceMinutes === null ? 'not within the horizon' : `${answer.clearanceMinutes} min`}`,
+    ]);
+    const csv = zoneRoutesCsv(answer, identity);
+    res.attachment(`search-${row.id.slice(0, 8)}-zone-routes.csv`).type('text/csv').send(csv);
   });
 
   return router;

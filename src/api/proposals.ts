@@ -12,3 +12,4 @@ export const getProposal = (planId: string, id: string) => request('GET', `${bas
 export const cancelProposal = (planId: string, id: string) => request('POST', `${base(planId)}/${id}/cancel`, proposalSchema);
 export const saveProposal = (planId: string, id: string, name: string, segmentId?: number) =>
   request('POST', `${base(planId)}/${id}/scenario`, scenarioSchema, { name, segmentId });
+export const zoneRoutesCsvUrl = (planId: string, id: string) => `/api${base(planId)}/${id}/export/zone-routes.csv`;

@@ -5,6 +5,8 @@ import { computed, ref } from 'vue';
 import type { Proposal, ProposalRequest } from '@shared/api/proposals';
 import type { RunParameters } from '@shared/api/runs';
 import { scenarioOverlaySchema, type Scenario, type ScenarioOverlay } from '@shared/api/scenarios';
+import { releaseWindows, zoneRouteColour, zoneRouteLines, type ReleaseWindow, type ZoneRouteLine } from '@shared/format/search-answers';
+import { formatCount } from '@shared/format/numbers';
 import * as api from '@/api/proposals';
 import { useRunsStore } from '@/stores/runs';
 import { messageOf } from '@/format/error-message';
@@ -23,7 +25,7 @@ export const useProposalsStore = defineStore('proposals', () => {
   /**
    * The answer drawn on the workspace map, in the scenario editor's looks: the change it would
    * save (contraflow corridors, added lanes), or for a closure ranking the ten worst closures.
-   * Departure orders and zone routes change no road, so nothing is drawn for them.
+   * Departure orders and zone routes change no road: they are drawn by routeLines and windows below.
    */
   const mapOverlay = computed<ScenarioOverlay | null>(() => {
     const p = current.value;
@@ -36,6 +38,27 @@ export const useProposalsStore = defineStore('proposals', () => {
     if (answer.kind === 'release-order' || answer.kind === 'zone-routes') return null;
     return p.result.overlay;
   });
+
+  const answered = computed(() => (current.value?.status === 'succeeded' ? (current.value.result?.answer ?? null) : null));
+
+  /** Where each zone goes, on the map: each zone's corridors in its colour. */
+  const routeLines = computed<ZoneRouteLine[]>(() => (answered.value?.kind === 'zone-routes' ? zoneRouteLines(answered.value) : []));
+  const routeLabels = computed(() => {
+    const a = answered.value;
+    if (a?.kind !== 'zone-routes') return [];
+    return a.zones.map((z, i) => ({
+      zoneId: z.zoneId,
+      colour: zoneRouteColour(i),
+      // Short, on two lines, as zones lie side by side: the main destination and how many others (the table lists them all).
+      lines: z.shelters.length
+        ? [`→ ${z.shelters[0]!.name}`, `${formatCount(z.shelters[0]!.vehicles)} vehicles${z.shelters.length > 1 ? `, +${z.shelters.length - 1} more` : ''}`]
+        : ['no vehicles arrive'],
+    }));
+  });
+  /** The quickest departure order, on the map: each zone's release window. */
+  const windows = computed<ReleaseWindow[]>(() => (answered.value?.kind === 'release-order' ? releaseWindows(answered.value) : []));
+
+  const zoneRoutesCsvUrl = computed(() => (answered.value?.kind === 'zone-routes' && current.value ? api.zoneRoutesCsvUrl(planId.value, current.value.id) : null));
 
   function stop() {
     if (timer) clearTimeout(timer);
@@ -101,5 +124,5 @@ export const useProposalsStore = defineStore('proposals', () => {
     }
   }
 
-  return { planId, current, error, starting, saved, active, mapOverlay, open, start, cancel, saveAndRun, stop };
+  return { planId, current, error, starting, saved, active, mapOverlay, routeLines, routeLabels, windows, zoneRoutesCsvUrl, open, start, cancel, saveAndRun, stop };
 });

@@ -86,3 +86,53 @@ it('searches for the best contraflow, saves the answer as a scenario and compare
 
   expect(errors).toEqual([]);
 });
+
+async function searchFor(kind: string) {
+  await page.locator('[data-test="search-kind"]').click();
+  await page.locator('.v-overlay .v-list-item', { hasText: kind }).click();
+  await page.locator('[data-test="search-start"]').click();
+}
+
+it('draws where each zone goes and the quickest departure order on the map, and exports the routes', { timeout: 400_000 }, async () => {
+  // Back in the workspace, on the analysis the searches start from.
+  await page.goBack();
+  await page.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
+  await page.locator('[data-test="headline-throughput"]').waitFor({ timeout: 180_000 });
+  await page.locator('[data-test="findings-searches"]').scrollIntoViewIfNeeded();
+
+  await searchFor('Where each zone goes');
+  const table = page.locator('[data-test="search-answer"] [data-test="zone-routes"]');
+  await table.waitFor({ timeout: 180_000 });
+  const zones = await table.locator('tbody tr').count();
+  expect(zones).toBe(6);
+  // Each zone's corridors on the map in its colour, and a label at each zone naming where it goes.
+  await page.locator('path.cutline-zone-route').first().waitFor({ state: 'attached', timeout: 30_000 });
+  const drawn = await page.locator('path.cutline-zone-route').count();
+  expect(drawn).toBeGreaterThan(0);
+  expect(drawn).toBe(Number(await page.locator('[data-test="workspace-map"]').getAttribute('data-zone-routes')));
+  expect(await page.locator('.cutline-search-label').count()).toBe(zones);
+  expect(await page.locator('.cutline-search-label').first().innerText()).toContain('→');
+  // The export: the cautions above the header, one row per zone and road.
+  const href = await page.locator('[data-test="zone-routes-csv"]').getAttribute('href');
+  const csv = await (await page.request.get(`${server.url}${href}`)).text();
+  expect(csv).toContain('# caution: A planning aid, not an order.');
+  expect(csv).toContain('A mathematical optimum under the stated assumptions is not an operational plan');
+  expect(csv).toContain('zone_id,zone,zone_vehicles');
+  await page.locator('[data-test="zone-routes-csv"]').scrollIntoViewIfNeeded();
+  await shoot('findings-search-zone-routes');
+
+  await searchFor('Quickest departure order');
+  const order = page.locator('[data-test="search-answer"] [data-test="release-order"]');
+  await order.waitFor({ timeout: 180_000 });
+  expect(await page.locator('[data-test="search-answer"] [data-test="search-summary"]').innerText()).toMatch(
+    /^The roads could clear everyone in .+ if zones left in this order; with the expected departures .+\.$/,
+  );
+  // The zone routes are gone from the map; each zone now shows its release window.
+  await page.locator('.cutline-release-window').first().waitFor({ state: 'attached' });
+  expect(await page.locator('path.cutline-zone-route').count()).toBe(0);
+  expect(await page.locator('.cutline-release-window').count()).toBe(6);
+  expect(await page.locator('.cutline-release-window').first().innerText()).toMatch(/^leaves .+\nhalf by /);
+  await shoot('findings-search-release-order');
+
+  expect(errors).toEqual([]);
+});

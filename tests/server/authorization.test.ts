@@ -260,6 +260,17 @@ const rows: Row[] = [
     call: (f) => ({ params: { planId: f.far.planId, proposalId: f.plan.queuedProposalId } }),
   },
   {
+    route: 'GET /api/plans/:planId/proposals/:proposalId/export/zone-routes.csv',
+    expect: readers(200),
+    call: (f) => ({ params: { planId: f.plan.id, proposalId: f.plan.zoneRoutesProposalId } }),
+  },
+  {
+    route: 'GET /api/plans/:planId/proposals/:proposalId/export/zone-routes.csv',
+    variant: throughOwnPlan,
+    expect: otherOrganizationOnly(readers(200)),
+    call: (f) => ({ params: { planId: f.far.planId, proposalId: f.plan.zoneRoutesProposalId } }),
+  },
+  {
     route: 'POST /api/plans/:planId/proposals/:proposalId/scenario',
     expect: writers(201),
     call: (f, c) => ({ params: { planId: f.plan.id, proposalId: f.plan.proposalId }, body: { name: named(f, c, 'Quickest order') } }),

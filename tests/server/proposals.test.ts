@@ -4,7 +4,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
 import { defaultRunParameters, runWithResultSchema, type RunWithResult } from '../../shared/api/runs';
+import Papa from 'papaparse';
 import { proposalSchema, proposalCaution, type Proposal, type ProposalRequest } from '../../shared/api/proposals';
+import { CAUTION_LINE } from '../../shared/api/caution';
+import { zoneRoutesCsvHeader } from '../../shared/model/zone-routes-csv';
 
 let ctx: TestContext;
 let planner: SignedInAgent;
@@ -110,6 +113,28 @@ describe('searches on the demo town', () => {
     const byZone = new Map(base.result!.zones.map((z) => [z.zoneId, z.deliveredVehicles]));
     for (const z of a.zones) expect(z.deliveredVehicles).toBe(byZone.get(z.zoneId));
     expect(a.clearanceMinutes).toBe(base.result!.headline.clearanceMinutes);
+
+    // The export: the cautions and what the figures are of above the header, then one row per zone and road.
+    const csv = await planner.agent.get(`/api/plans/${planId}/proposals/${p.id}/export/zone-routes.csv`).expect(200);
+    expect(csv.headers['content-type']).toMatch(/text\/csv/);
+    expect(csv.headers['content-disposition']).toMatch(/zone-routes\.csv/);
+    const comments = csv.text.split('\r\n').filter((l: string) => l.startsWith('# '));
+    expect(comments[0]).toBe(`# caution: ${CAUTION_LINE}`);
+    expect(comments).toContain(`# plan_id: ${planId}`);
+    expect(comments.some((l: string) => l.includes(proposalCaution))).toBe(true);
+    expect(comments.some((l: string) => l.includes(`search ${p.id}`))).toBe(true);
+    expect(comments.some((l: string) => l.includes(`engine ${p.result!.engineVersion}`))).toBe(true);
+    const rows = Papa.parse<string[]>(csv.text, { skipEmptyLines: true, delimiter: ',', comments: '#' }).data;
+    expect(rows[0]).toEqual(zoneRoutesCsvHeader);
+    const body = rows.slice(1);
+    expect(body.length).toBe(a.zones.reduce((s, z) => s + Math.max(1, z.roads.length), 0));
+    for (const z of a.zones) {
+      const own = body.filter((r) => Number(r[0]) === z.zoneId);
+      expect(own.map((r) => Number(r[13]))).toEqual(z.roads.map((r) => r.vehicles));
+    }
+    // Only a zone-routes search has routes to export.
+    const other = await search({ kind: 'release-order' });
+    await planner.agent.get(`/api/plans/${planId}/proposals/${other.id}/export/zone-routes.csv`).expect(409);
   }, 120_000);
 
   it('an identical search reuses the stored answer; the list shows searches without their answers', async () => {

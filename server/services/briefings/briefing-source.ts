@@ -18,6 +18,7 @@ import { ConflictError, NotFoundError } from '../../errors';
 import { getCapacityTable } from '../capacity-table';
 import { toRun } from '../runs';
 import { searchesOfRun } from '../proposals';
+import { zoneRouteLines } from '../../../shared/format/search-answers';
 
 type RunRow = typeof runs.$inferSelect;
 import { departureCurvesDescription } from './departure-words';
@@ -141,9 +142,11 @@ export async function gatherBriefingInput(db: Database, organizationId: string, 
   const shelterRows = await db.select().from(shelters).where(eq(shelters.planId, run.planId)).orderBy(asc(shelters.id));
   const table = await getCapacityTable(db, organizationId, run.planId);
   const result = run.result!;
-  const { segments, leftOut } = await mapRoads(db, layer.id, [...result.bottlenecks, ...result.fixes].map((r) => r.segmentId));
-  const scenario = await scenarioOfRun(db, run);
   const searches = await searchesOfRun(db, run.planId, run.inputHash);
+  // Zone routes' corridors are drawn on their page whatever their class, so their geometry is kept.
+  const routeIds = searches.flatMap((r) => (r.answer.kind === 'zone-routes' ? zoneRouteLines(r.answer).map((l) => l.segmentId) : []));
+  const { segments, leftOut } = await mapRoads(db, layer.id, [...result.bottlenecks, ...result.fixes].map((r) => r.segmentId).concat(routeIds));
+  const scenario = await scenarioOfRun(db, run);
   // Two passes: the first only learns which roads the words name, so only their names are read.
   const named: number[] = [];
   if (scenario) scenarioChanges(scenario.overlay, { segment: (id) => (named.push(id), ''), zone: () => '', shelter: () => '' });

@@ -18,7 +18,7 @@ type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
 export type Fixtures = {
   organizationId: string;
   /** The seeded demo plan: roads, zones, shelters, a scenario, the finished run, the sweep, a finished search, the briefings. */
-  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; sweepId: string; queuedImportId: string; proposalId: string; queuedProposalId: string };
+  plan: { id: string; segmentId: number; bbox: string; scenarioId: string; runId: string; queuedRunId: string; sweepId: string; queuedImportId: string; proposalId: string; zoneRoutesProposalId: string; queuedProposalId: string };
   /** A demo plan whose roads, zones, shelters, scenario and capacity table take the edits that succeed. */
   drill: { id: string; segmentIds: number[]; zoneId: number; shelterId: number; scenarioId: string };
   /** A demo plan kept for the deletions that are refused. */
@@ -188,6 +188,11 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
   const proposal = await waitFor('the search', () => api(planner, 'get', `/api/plans/${planId}/proposals/${proposalStarted.id}`), (r) => !['queued', 'running'].includes(r.status));
   expect(proposal.status, proposal.failureReason ?? '').toBe('succeeded');
   remember(proposal.id);
+  // "Where each zone goes", for its CSV export.
+  const zoneRoutesStarted = await api(planner, 'post', `/api/plans/${planId}/proposals`, { kind: 'zone-routes', parameters: drillParameters });
+  const zoneRoutes = await waitFor('the zone routes', () => api(planner, 'get', `/api/plans/${planId}/proposals/${zoneRoutesStarted.id}`), (r) => !['queued', 'running'].includes(r.status));
+  expect(zoneRoutes.status, zoneRoutes.failureReason ?? '').toBe('succeeded');
+  remember(zoneRoutes.id);
   const queuedProposal = async () => {
     const { rows } = await ctx.pool.query<{ id: string }>(
       `INSERT INTO proposals (plan_id, kind, status, phase, input, input_hash)
@@ -262,7 +267,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
 
   return {
     organizationId: ctx.demoOrganizationId,
-    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), sweepId: sweep.id, queuedImportId: await queuedImport(), proposalId: proposal.id, queuedProposalId: await queuedProposal() },
+    plan: { id: planId, segmentId, bbox, scenarioId: scenario.id, runId: run.id, queuedRunId: await queuedRun(), sweepId: sweep.id, queuedImportId: await queuedImport(), proposalId: proposal.id, zoneRoutesProposalId: zoneRoutes.id, queuedProposalId: await queuedProposal() },
     drill,
     keptPlanId,
     briefings,

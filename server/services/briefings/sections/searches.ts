@@ -5,12 +5,15 @@ import { proposalCaution, proposalKindTitles, type ProposalResult } from '../../
 import type { BriefingInput } from '../briefing-input';
 import { formatCount, formatDuration } from '../../../../shared/format/numbers';
 import { dataTable, td, th } from './document-styles';
+import { CAUTION_LINE } from '../../../../shared/api/caution';
+import { releaseOrderSentence, releaseWindows, zoneRouteColour, zoneRouteLines } from '../../../../shared/format/search-answers';
+import { zoneRoutesSvg } from '../zone-routes-svg';
 
 const vph = (n: number) => `${formatCount(Math.round(n))} veh/h`;
 const when = (m: number | null) => (m === null ? 'not within the horizon' : formatDuration(m));
 const roadName = (name: string) => name || 'unnamed road';
 
-function one(result: ProposalResult): Content[] {
+function one(result: ProposalResult, input: BriefingInput, ownPage: boolean): Content[] {
   const a = result.answer;
   const out: Content[] = [{ text: proposalKindTitles[a.kind], style: 'h2' }];
   if (a.kind === 'contraflow') {
@@ -39,33 +42,57 @@ function one(result: ProposalResult): Content[] {
     const rows = a.steps.map((s, i) => [td(String(i + 1)), td(roadName(s.name)), td(vph(s.gainVehiclesPerHour), { right: true }), td(vph(s.throughputVehiclesPerHour), { right: true })]);
     if (rows.length) out.push(dataTable([30, '*', 80, 80], [th('Step'), th('Road'), th('Gain', 'right'), th('Then', 'right')], rows));
   } else if (a.kind === 'release-order') {
-    out.push({ text: `The roads could clear everyone in ${when(a.quickestClearanceMinutes)} if zones left in this order; with the expected departures it takes ${when(a.expectedClearanceMinutes)}.`, style: 'lead' });
-    const rows = a.zones.map((z) => [
+    out.push({ text: releaseOrderSentence(a), style: 'lead' });
+    const windows = releaseWindows(a);
+    const rows = a.zones.map((z, i) => [
       td(z.name),
       td(formatCount(z.vehicles), { right: true }),
       td(z.firstDepartureMinutes === null ? '—' : formatDuration(z.firstDepartureMinutes), { right: true }),
+      td(windows[i]!.halfGoneMinutes === null ? '—' : formatDuration(windows[i]!.halfGoneMinutes!), { right: true }),
       td(z.lastDepartureMinutes === null ? '—' : formatDuration(z.lastDepartureMinutes + a.stepMinutes), { right: true }),
     ]);
-    out.push(dataTable(['*', 70, 70, 70], [th('Zone'), th('Vehicles', 'right'), th('Leave from', 'right'), th('Until', 'right')], rows));
+    out.push(dataTable(['*', 70, 70, 70, 70], [th('Zone'), th('Vehicles', 'right'), th('Leave from', 'right'), th('Half by', 'right'), th('Until', 'right')], rows));
   } else {
-    out.push({ text: 'Where each zone’s vehicles go in the plan found (one optimal plan of possibly many).', style: 'lead' });
-    const rows = a.zones.map((z) => [
-      td(z.name),
-      td(z.shelters.map((s) => `${s.name} (${formatCount(s.vehicles)})`).join(', ')),
-      td([...new Set(z.mainRoads.map((r) => roadName(r.name)))].join(', ')),
-      td(z.departureWindowMinutes ? `${formatDuration(z.departureWindowMinutes[0])}–${formatDuration(z.departureWindowMinutes[1])}` : '—', { right: true }),
-    ]);
-    out.push(dataTable([80, '*', '*', 70], [th('Zone'), th('Goes to (vehicles)'), th('Main roads'), th('Leaves', 'right')], rows));
+    return zoneRoutesPage(a, input, ownPage);
   }
   return out;
 }
 
+type ZoneRoutesAnswer = Extract<ProposalResult['answer'], { kind: 'zone-routes' }>;
+const window = (w: [number, number] | null) => (w ? `${formatDuration(w[0])}–${formatDuration(w[1])}` : '—');
+
+/** "Where each zone goes" on a page of its own: the cautions, the corridors on a map, and the table. */
+export function zoneRoutesPage(a: ZoneRoutesAnswer, input: BriefingInput, ownPage = true): Content[] {
+  const zones = a.zones.map((z, i) => ({ zoneId: z.zoneId, name: z.name, colour: zoneRouteColour(i) }));
+  const rows: TableCell[][] = a.zones.map((z, i) => [
+    td(z.name, { bold: true, color: zoneRouteColour(i) }),
+    td(z.shelters.map((s) => `${s.name} (${formatCount(s.vehicles)})`).join(', ') || 'none'),
+    td(z.mainRoads.map((r) => `${roadName(r.name)} (${formatCount(r.vehicles)})`).join(', ') || '—'),
+    td(window(z.departureWindowMinutes), { right: true, noWrap: true }),
+    td(window(z.arrivalWindowMinutes), { right: true, noWrap: true }),
+  ]);
+  return [
+    { text: proposalKindTitles['zone-routes'], style: 'h2', ...(ownPage ? { pageBreak: 'before' as const } : {}) },
+    { text: `${CAUTION_LINE} ${proposalCaution}`, style: 'note', margin: [0, 0, 0, 6] },
+    {
+      text:
+        `Where each zone’s vehicles go in the plan found, which clears ${a.clearanceMinutes === null ? 'not within the horizon' : `in ${formatDuration(a.clearanceMinutes)}`}: ` +
+        'one optimal plan of possibly many, so other routes can carry as many. Lines show each zone’s corridors (roads carrying at least a tenth of its vehicles), wider for more vehicles.',
+      style: 'lead',
+    },
+    { svg: zoneRoutesSvg({ map: input.map, lines: zoneRouteLines(a), zones, width: 516, height: 320 }), width: 516 },
+    { text: 'Figure. Each zone’s corridors in the zone’s colour; shelters and exits as green squares; north is up.', style: 'caption' },
+    dataTable([72, '*', '*', 82, 82], [th('Zone'), th('Goes to (vehicles)'), th('Main corridors (vehicles)'), th('Leaves', 'right'), th('Arrives', 'right')], rows),
+  ];
+}
+
 export function searchesSection(input: BriefingInput): Content[] {
-  const searches = input.searches ?? [];
+  // Where each zone goes last, on a page of its own when other searches come before it.
+  const searches = [...(input.searches ?? [])].sort((a, b) => Number(a.answer.kind === 'zone-routes') - Number(b.answer.kind === 'zone-routes'));
   if (searches.length === 0) return [];
   return [
     { text: 'Searches for the best change', style: 'h1' },
     { text: proposalCaution, style: 'note', margin: [0, 0, 0, 6] },
-    ...searches.flatMap(one),
+    ...searches.flatMap((r, i) => one(r, input, i > 0)),
   ];
 }
