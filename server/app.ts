@@ -33,6 +33,7 @@ import { runsRouter } from './routes/runs';
 import type { RunEnqueuer } from './queue/run-enqueuer';
 import type { ImportEnqueuer } from './queue/run-queue';
 import { importsRouter } from './routes/imports';
+import { mappingPresetsRouter } from './routes/mapping-presets';
 import { healthRouter } from './routes/health';
 import { randomUUID } from 'node:crypto';
 import { pinoHttp } from 'pino-http';
@@ -154,6 +155,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api/settings', settingsRouter(settings, db, config.BRIEFING_TIME_ZONE));
+  app.use('/api/mapping-presets', mappingPresetsRouter(db));
   app.use('/api/briefings', briefingsRouter(db, config));
   app.use('/api', apiNotFound);
 

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { runParametersSchema } from '../../shared/api/runs';
 import { planParamsSchema } from '../../shared/api/plans';
 import { chokePointsCsv, curveCsv } from '../../shared/model/run-export-csv';
-import { csvComments } from '../../shared/format/csv';
+import { csvComments } from '../../shared/model/csv';
 import { identityLines, identityObject } from '../../shared/model/export-identity';
 import { runExportIdentity } from '../services/export-identity';
 import type { Config } from '../config';

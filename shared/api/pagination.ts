@@ -37,6 +37,7 @@ export const listCaps = {
   officials: 500,
   outbox: 200,
   capacityTableHistory: 200,
+  mappingPresets: 200,
 } as const;
 
 /** Services fetch one row past the page, so the route knows whether another page follows. */

@@ -1,7 +1,7 @@
 // CSV forms of a run's tables, shared so the server's downloads and any client preview agree.
-// Cells go through shared/format/csv.ts (formula guard, quoting).
+// Cells go through shared/model/csv.ts (formula guard, quoting).
 import type { RunResult } from '../api/runs';
-import { toCsv } from '../format/csv';
+import { toCsv } from './csv';
 
 export { toCsv };
 

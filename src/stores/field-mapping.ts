@@ -19,7 +19,9 @@ import {
 } from '@shared/api/road-import';
 import type { RoadClass } from '@shared/api/road-attributes';
 import { distinctValues, guessColumns, previewMapping, previewSummary, type PreviewKind } from '@shared/geo/preview-mapping';
+import { presetsForFile, type MappingPreset } from '@shared/api/mapping-presets';
 import { readFileSchema } from '@/api/file-schema';
+import * as presetsApi from '@/api/mapping-presets';
 import { ApiError } from '@/api/api-error';
 import { messageOf } from '../format/error-message';
 
@@ -62,6 +64,11 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
   const zones = reactive({ name: '', population: '', participationRate: '', personsPerVehicle: '' });
   const shelters = reactive({ name: '', capacityPersons: '' });
   let settle: ((answer: MappingAnswer | null) => void) | null = null;
+  // The organisation's presets; those that fit this file are offered, one made for exactly
+  // these columns is applied at once.
+  const presets = ref<MappingPreset[]>([]);
+  const appliedPreset = ref('');
+  const presetMessage = ref('');
 
   const sourceOptions = computed<SourceReadOptions>(() => ({
     layer: pick(source.layer),
@@ -106,6 +113,50 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
   /** A bad feature refuses the whole zone or shelter file: say so before the import. */
   const refuses = computed(() => summary.value.reasons.some((r) => r.refuses));
 
+  const offered = computed(() => presetsForFile(presets.value, kind.value, fieldNames.value));
+
+  function applyPreset(p: MappingPreset) {
+    const m = p.mapping;
+    if (p.kind === 'roads') {
+      const r = m.roads;
+      Object.assign(roads, emptyRoads());
+      if (r) {
+        Object.assign(roads, {
+          roadClass: r.roadClass, lanes: r.lanes ?? '', speed: r.speed ?? '', speedUnit: r.speedUnit, oneway: r.oneway ?? '', name: r.name ?? '',
+          bridge: r.bridge ?? '', tunnel: r.tunnel ?? '', layer: r.layer ?? '', classValues: { ...r.classValues }, onewayValues: { ...(r.onewayValues ?? {}) },
+        });
+      }
+    }
+    if (p.kind === 'zones') Object.assign(zones, { name: '', population: '', participationRate: '', personsPerVehicle: '', ...m.zones });
+    if (p.kind === 'shelters') Object.assign(shelters, { name: '', capacityPersons: '', ...m.shelters });
+    if (m.source?.xColumn) source.xColumn = m.source.xColumn;
+    if (m.source?.yColumn) source.yColumn = m.source.yColumn;
+    if (m.source?.crs && !source.crs) source.crs = m.source.crs;
+    appliedPreset.value = p.name;
+  }
+
+  async function savePreset(name: string) {
+    presetMessage.value = '';
+    try {
+      const saved = await presetsApi.saveMappingPreset({ name, kind: kind.value, fieldNames: fieldNames.value, mapping: mapping.value });
+      presets.value = [...presets.value.filter((p) => p.id !== saved.id), saved];
+      appliedPreset.value = saved.name;
+      presetMessage.value = `Saved as "${saved.name}".`;
+    } catch (e) {
+      presetMessage.value = messageOf(e);
+    }
+  }
+
+  async function removePreset(id: string) {
+    presetMessage.value = '';
+    try {
+      await presetsApi.deleteMappingPreset(id);
+      presets.value = presets.value.filter((p) => p.id !== id);
+    } catch (e) {
+      presetMessage.value = messageOf(e);
+    }
+  }
+
   function guess() {
     const fields = schema.value?.fields ?? [];
     const g = guessColumns(fields);
@@ -133,7 +184,13 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
       schema.value = await readFileSchema(planId.value, file.value, sourceOptions.value);
       if (schema.value.layer && !source.layer) source.layer = schema.value.layer;
       // Keep the planner's choices when only the layer or CRS changed the read, not the columns.
-      if (schema.value.fields.map((f) => f.name).join('\u0000') !== previous) guess();
+      if (schema.value.fields.map((f) => f.name).join('\u0000') !== previous) {
+        guess();
+        appliedPreset.value = '';
+        const best = offered.value[0];
+        const names = new Set(fieldNames.value);
+        if (best && best.fieldNames.length === names.size && best.fieldNames.every((n) => names.has(n))) applyPreset(best);
+      }
     } catch (e) {
       schema.value = null;
       error.value = e instanceof ApiError && e.importFailure ? e.importFailure.message : messageOf(e);
@@ -152,7 +209,14 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
     schema.value = null;
     Object.assign(source, { layer: '', crs: '', xColumn: '', yColumn: '' });
     open.value = true;
-    void readSchema();
+    appliedPreset.value = '';
+    presetMessage.value = '';
+    // Presets first, so that one made for these very columns applies when the schema arrives.
+    void presetsApi
+      .listMappingPresets()
+      .then((list) => (presets.value = list))
+      .catch(() => (presets.value = []))
+      .finally(() => void readSchema());
     return new Promise((resolve) => (settle = resolve));
   }
 
@@ -175,6 +239,7 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
   return {
     planId, kind, file, open, reading, error, schema, source, roads, zones, shelters,
     mapping, roadMapping, fieldNames, classCodes, onewayCodes, preview, summary, refuses,
-    ask, readSchema, confirm, cancel, guess,
+    presets, offered, appliedPreset, presetMessage,
+    ask, readSchema, confirm, cancel, guess, applyPreset, savePreset, removePreset,
   };
 });

@@ -7,7 +7,9 @@ import type { FileSchema } from '../../shared/api/road-import';
 import { ApiError } from '../../src/api/api-error';
 
 vi.mock('../../src/api/file-schema', () => ({ readFileSchema: vi.fn() }));
+vi.mock('../../src/api/mapping-presets', () => ({ listMappingPresets: vi.fn(), saveMappingPreset: vi.fn(), deleteMappingPreset: vi.fn() }));
 const schemaApi = await import('../../src/api/file-schema');
+const presetsApi = await import('../../src/api/mapping-presets');
 const { useFieldMappingStore } = await import('../../src/stores/field-mapping');
 const { useFileUpload } = await import('../../src/composables/use-file-upload');
 
@@ -35,6 +37,7 @@ const countySchema: FileSchema = {
 beforeEach(() => {
   vi.clearAllMocks();
   setActivePinia(createPinia());
+  vi.mocked(presetsApi.listMappingPresets).mockResolvedValue([]);
 });
 
 describe('field-mapping store', () => {
@@ -108,5 +111,36 @@ describe('field-mapping store', () => {
     await done;
     expect(send).not.toHaveBeenCalled();
     expect(upload.busy.value).toBe(false);
+  });
+
+  it('saves the choices as a preset, and applies it to the next file with the same columns', async () => {
+    vi.mocked(schemaApi.readFileSchema).mockResolvedValue(countySchema);
+    let m = useFieldMappingStore();
+    void m.ask(planId, 'roads', new File(['x'], 'centerlines.zip'));
+    await vi.waitFor(() => expect(m.schema).not.toBeNull());
+    m.roads.classValues['ART'] = 'primary';
+    m.roads.speedUnit = 'mph';
+    vi.mocked(presetsApi.saveMappingPreset).mockImplementation(async (input) => ({ ...input, id: '00000000-0000-4000-8000-000000000001', createdAt: '', updatedAt: '' }));
+    await m.savePreset('County centrelines');
+    const saved = vi.mocked(presetsApi.saveMappingPreset).mock.calls[0]![0];
+    expect(saved).toMatchObject({ name: 'County centrelines', kind: 'roads', fieldNames: ['RD_CLASS', 'NUM_LANES', 'ONE_WAY', 'FULLNAME'] });
+    expect(saved.mapping.roads).toMatchObject({ roadClass: 'RD_CLASS', classValues: { ART: 'primary' }, speedUnit: 'mph' });
+    m.cancel();
+
+    // Next time (a fresh page): the saved preset comes from the server and applies at once.
+    setActivePinia(createPinia());
+    vi.mocked(presetsApi.listMappingPresets).mockResolvedValue([{ ...saved, id: '00000000-0000-4000-8000-000000000001', createdAt: '', updatedAt: '' }]);
+    m = useFieldMappingStore();
+    void m.ask(planId, 'roads', new File(['x'], 'next-year.zip'));
+    await vi.waitFor(() => expect(m.schema).not.toBeNull());
+    expect(m.appliedPreset).toBe('County centrelines');
+    expect(m.roads.classValues).toEqual({ ART: 'primary' });
+    expect(m.roads.speedUnit).toBe('mph');
+    // A zone file is not offered a road preset.
+    m.cancel();
+    void m.ask(planId, 'zones', new File(['x'], 'zones.zip'));
+    await vi.waitFor(() => expect(m.schema).not.toBeNull());
+    expect(m.offered).toEqual([]);
+    expect(m.appliedPreset).toBe('');
   });
 });

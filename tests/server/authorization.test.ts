@@ -39,6 +39,7 @@ type Row = {
   mayShow?: (f: Fixtures) => string[];
 };
 
+const presetBody = (name: string) => ({ name, kind: 'roads', fieldNames: ['RD_CLASS', 'NUM_LANES'], mapping: { roads: { roadClass: 'RD_CLASS', lanes: 'NUM_LANES', classValues: { '1': 'primary' } } } });
 const viewerOnlySignedCopies = (expected: Expected): Expected => ({ ...expected, viewer: 403 });
 const pick = async <T,>(succeeds: boolean, fresh: () => Promise<T>, shared: T) => (succeeds ? fresh() : shared);
 const throughOwnPlan = 'the demo record through the caller’s own plan';
@@ -374,6 +375,14 @@ const rows: Row[] = [
   { route: 'GET /api/audit', expect: adminsOnly(200, 'own') },
   { route: 'GET /api/audit', variant: 'before an id past every entry', expect: adminsOnly(200, 'own'), call: () => ({ query: 'before=999999999' }) },
   { route: 'GET /api/settings/map', expect: readers(200, 'own') },
+  // Field-mapping presets: the organisation's own; readers list them, writers save and delete.
+  { route: 'GET /api/mapping-presets', expect: readers(200, 'own') },
+  { route: 'POST /api/mapping-presets', expect: writers(201, 'own'), call: (f, c) => ({ body: presetBody(named(f, c, 'County centrelines')) }) },
+  {
+    route: 'DELETE /api/mapping-presets/:presetId',
+    expect: writers(204),
+    call: async (f, _c, ok) => ({ params: { presetId: ok ? await demoPreset(named(f, 'planner', 'Spent preset')) : await demoPreset('Kept preset', f) } }),
+  },
   // The map settings are the installation's, not an organization's: any organization's administrator sets them for all.
   { route: 'PUT /api/settings/map', expect: adminsOnly(200, 'own'), call: (f) => ({ body: { tileUrl: '', attribution: `Drill tiles ${f.next()}` } }) },
   { route: 'GET /api/settings/organization', expect: readers(200, 'own') },
@@ -422,6 +431,19 @@ const rows: Row[] = [
   },
   { route: 'POST /api/briefings/:id/distribute', expect: writers(200), call: async (f) => ({ params: { id: await f.arrange.undelivered() } }) },
 ];
+
+/** A preset of the demo organisation, saved by its planner (the one named 'Kept preset' once). */
+const keptPresets = new Map<string, string>();
+async function demoPreset(name: string, f?: Fixtures): Promise<string> {
+  const kept = keptPresets.get(name);
+  if (kept) return kept;
+  f?.remember(name);
+  const planner = sessions.get('planner')!;
+  const res = await planner.agent.post('/api/mapping-presets').set('x-csrf-token', planner.csrf).send(presetBody(name));
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  if (f) keptPresets.set(name, res.body.id);
+  return res.body.id as string;
+}
 
 const titleOf = (r: Row) => (r.variant ? `${r.route} (${r.variant})` : r.route);
 

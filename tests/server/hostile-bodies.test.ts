@@ -26,6 +26,7 @@ import { segmentBulkUpdateSchema } from '../../shared/api/road-layers';
 import { defaultRunParameters, runParametersSchema } from '../../shared/api/runs';
 import { scenarioCreateSchema, scenarioUpdateSchema } from '../../shared/api/scenarios';
 import { mapSettingsSchema, organizationSettingsInputSchema } from '../../shared/api/settings';
+import { mappingPresetCreateSchema } from '../../shared/api/mapping-presets';
 import { memberCreateSchema, memberPasswordSchema, memberUpdateSchema } from '../../shared/api/users';
 import { shelterCreateSchema, shelterUpdateSchema, zoneCreateSchema, zoneUpdateSchema } from '../../shared/api/zones-shelters';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';
@@ -191,6 +192,14 @@ const rows: Record<string, Row> = {
     body: { json: () => ({ password: 'long-enough-pass-1' }), refuses: refusedBy(memberPasswordSchema) },
   },
   'POST /api/members/:userId/unlock': { who: 'admin', path: (f) => `/api/members/${f.viewerId}/unlock`, body: 'none' },
+  'POST /api/mapping-presets': {
+    who: 'planner',
+    path: () => '/api/mapping-presets',
+    body: {
+      json: () => ({ name: 'County centrelines', kind: 'roads', fieldNames: ['RD_CLASS', 'SPD'], mapping: { roads: { roadClass: 'RD_CLASS', speed: 'SPD', speedUnit: 'mph', classValues: { A: 'primary' }, onewayValues: { F: 'forward' } }, source: { crs: 'EPSG:2227' } } }),
+      refuses: refusedBy(mappingPresetCreateSchema),
+    },
+  },
   'PUT /api/settings/map': {
     who: 'admin',
     path: () => '/api/settings/map',

@@ -3,7 +3,7 @@
 // the caution and the run's identity lead the file as comment lines.
 import { describe, expect, it } from 'vitest';
 import { CAUTION_LINE } from '../../shared/api/caution';
-import { csvCell, csvComments, toCsv } from '../../shared/format/csv';
+import { csvCell, csvComments, toCsv } from '../../shared/model/csv';
 import { identityLines } from '../../shared/model/export-identity';
 
 describe('csvCell', () => {

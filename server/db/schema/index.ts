@@ -9,3 +9,4 @@ export * from './briefings';
 export * from './scenarios';
 export * from './imports';
 export * from './proposals';
+export * from './mapping-presets';
