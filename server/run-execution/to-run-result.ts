@@ -144,6 +144,7 @@ function routeTimingOf(input: RunInput, r: Solved): NonNullable<RunResult['route
             modelledSeconds: worst.modelledSeconds,
           },
     suggestedStepSeconds: suggestedTimeStepSeconds(timing, r.timeStepSeconds),
+    plannedRoutes: r.plannedRoutes,
   };
 }
 

@@ -183,6 +183,12 @@ export const routeTimingSchema = z.object({
   // Past one step: the longest step that should bring the difference within one present step
   // (null when none of the offered steps does, or none is needed).
   suggestedStepSeconds: z.number().nullable(),
+  // The routes the plan's vehicles drive (its flow decomposed into trips), each route's modelled
+  // driving time against its own free-flow time: largest, vehicle-weighted median, and the share
+  // of vehicles within one step. Absent from results stored before engine version cutline-flow 1.4.
+  plannedRoutes: z
+    .object({ vehicles: z.number().int(), largestSeconds: z.number(), typicalSeconds: z.number(), withinOneStepShare: z.number() })
+    .optional(),
 });
 export type RouteTiming = z.infer<typeof routeTimingSchema>;
 

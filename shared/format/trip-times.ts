@@ -3,7 +3,7 @@
 // concrete step to try when the difference passes one time step (the bound the rounding keeps
 // on routes over the fastest roads), and the time model for the briefing's Method section.
 import type { RouteTiming } from '../api/runs';
-import { formatStep } from './numbers';
+import { formatCount, formatStep } from './numbers';
 
 /** Seconds of a trip or a difference: 45 → "45 s", 228 → "3.8 min", 4500 → "1 h 15 min". */
 export function formatTripSeconds(seconds: number): string {
@@ -26,9 +26,14 @@ export function tripTimesSummary(t: RouteTiming): string {
   if (t.pairs === 0 || t.worst === null) return 'No zone reaches a shelter or exit at free flow, so there are no trip times to compare.';
   const step = formatStep(t.timeStepSeconds);
   const within = tripTimesPastBound(t) ? 'more than one time step' : 'within one time step';
-  return (
+  const fastest =
     `Fastest trips from each zone to each shelter or exit (${t.pairs} pairs) take up to ${formatTripSeconds(t.largestSeconds)} ` +
-    `longer or shorter in the model than at free flow, typically ${formatTripSeconds(t.typicalSeconds)}: ${within} (${step}).`
+    `longer or shorter in the model than at free flow, typically ${formatTripSeconds(t.typicalSeconds)}: ${within} (${step}).`;
+  const planned = t.plannedRoutes;
+  if (!planned || planned.vehicles === 0) return fastest;
+  return (
+    `${fastest} The routes the plan's ${formatCount(planned.vehicles)} vehicles drive are modelled up to ${formatTripSeconds(planned.largestSeconds)} ` +
+    `off their own free-flow times, typically ${formatTripSeconds(planned.typicalSeconds)}; ${Math.round(100 * planned.withinOneStepShare)} % of those vehicles are within one time step.`
   );
 }
 

@@ -54,6 +54,11 @@ describe('the trip-time error in the stored result', () => {
     expect(t.worst!.freeFlowSeconds).toBeCloseTo(20 * 7.2, 9);
     expect(t.largestSeconds).toBeLessThanOrEqual(60);
     expect(t.suggestedStepSeconds).toBeNull();
+    // The plan's own routes (cutline-flow 1.4): its 5 vehicles drive the 20 roads, 2 steps (120 s)
+    // against 144 s by the rounding against potentials, so 24 s off, all within one step.
+    expect(t.plannedRoutes!.vehicles).toBe(5);
+    expect(t.plannedRoutes!.largestSeconds).toBeCloseTo(24, 9);
+    expect(t.plannedRoutes!.withinOneStepShare).toBe(1);
   });
 
   it('two zones between two exits: past one step, and the suggested step brings it within one present step', () => {

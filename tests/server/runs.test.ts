@@ -104,7 +104,7 @@ describe('a run of the demo plan', () => {
     expect(limits.parts.departures).toBe(limits.vehicles);
   });
 
-  it('stores how far trip times lie from free flow, with zone and shelter names (engine cutline-flow 1.3)', () => {
+  it('stores how far trip times lie from free flow, with zone and shelter names (engine cutline-flow 1.3), and the plan\'s own routes (1.4)', () => {
     const { routeTiming: t, zones, shelters } = run.result!;
     expect(t).toBeDefined();
     expect(t!.timeStepSeconds).toBe(60);
@@ -113,6 +113,8 @@ describe('a run of the demo plan', () => {
     expect(t!.typicalSeconds).toBeLessThanOrEqual(t!.largestSeconds);
     expect(zones.map((z) => z.name)).toContain(t!.worst!.zoneName);
     expect(shelters.map((s) => s.name)).toContain(t!.worst!.shelterName);
+    expect(t!.plannedRoutes!.vehicles).toBe(run.result!.headline.deliveredVehicles);
+    expect(t!.plannedRoutes!.typicalSeconds).toBeLessThanOrEqual(t!.plannedRoutes!.largestSeconds);
     // The suggestion appears exactly when the difference passes one step.
     expect(t!.suggestedStepSeconds === null).toBe(t!.largestSeconds <= 60);
   });

@@ -35,6 +35,13 @@ describe('trip-time words', () => {
     );
   });
 
+  it('adds the routes the plan drives when the result carries them (engine cutline-flow 1.4)', () => {
+    const withPlan: RouteTiming = { ...within, plannedRoutes: { vehicles: 10525, largestSeconds: 1877, typicalSeconds: 245, withinOneStepShare: 0.1456 } };
+    expect(tripTimesSummary(withPlan)).toBe(
+      `${tripTimesSummary(within)} The routes the plan's 10,525 vehicles drive are modelled up to 31.3 min off their own free-flow times, typically 4.1 min; 15 % of those vehicles are within one time step.`,
+    );
+  });
+
   it('past one step: the warning names the worst pair and the step to try', () => {
     expect(tripTimesPastBound(past)).toBe(true);
     const w = tripTimesWarning(past)!;
