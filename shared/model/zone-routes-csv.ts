@@ -2,10 +2,10 @@
 // shelters and time windows repeated on each row so any row can be read alone. Leading comment
 // lines carry what every export carries (shared/model/export-identity: the caution first, the
 // plan) and the search's own identity and the sentence that an optimum is not a plan; cells are
-// written by shared/format/csv (formula guard).
+// written by shared/model/csv (formula guard).
 import type { z } from 'zod';
 import type { zoneRoutesAnswerSchema } from '../api/proposals';
-import { csvComments, toCsv, type CsvValue } from '../format/csv';
+import { csvComments, toCsv, type CsvValue } from './csv';
 import { identityLines, type ExportIdentity } from './export-identity';
 
 type ZoneRoutesAnswer = z.infer<typeof zoneRoutesAnswerSchema>;
