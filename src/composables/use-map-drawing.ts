@@ -13,7 +13,7 @@ export type MapDrawingOptions = {
   onCancelled: () => void;
 };
 
-const drawColor = '#e8743b';
+const drawColor = '#b5521f';
 
 export function useMapDrawing(handle: ShallowRef<WorkspaceMap | null>, options: MapDrawingOptions) {
   watch(

@@ -32,7 +32,7 @@ export type RoadSegmentsLayerOptions = {
   onSelect: (segmentId: number) => void;
 };
 
-const selectedStyle = { color: '#e8743b', weight: 7, opacity: 1, lineCap: 'round' as const };
+const selectedStyle = { color: '#b5521f', weight: 7, opacity: 1, lineCap: 'round' as const };
 /** Pixels around the pointer within which a click picks a road. */
 const pickRadius = 7;
 // Tiles are asked for up to this zoom (the layer draws 512-pixel tiles one zoom below the map's,

@@ -23,7 +23,7 @@ export type ZonesSheltersLayerOptions = {
 };
 
 const zoneColor = '#2e7d4f';
-const selectedColor = '#e8743b';
+const selectedColor = '#b5521f';
 
 
 function shelterIcon(shelter: Pick<Shelter, 'capacityPersons'>, selected: boolean, draft = false) {

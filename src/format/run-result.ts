@@ -3,7 +3,7 @@
 // and the popup of a choke point. Pure: no Vue, no Leaflet.
 import { cutShare } from '@shared/model/cut-share';
 import type { ArcFlow, ChokePoint, RoadResult, RunResult, RunStatus } from '@shared/api/runs';
-import { formatPerHour, formatShare, formatWindows } from '@shared/format/numbers';
+import { formatHours, formatPerHour, formatShare, formatWindows } from '@shared/format/numbers';
 import { headlineFigures, NINETY_PERCENT_NOTE, type HeadlineFigure } from '@shared/format/headline';
 
 export const runStatusLabels: Record<RunStatus, string> = {
@@ -111,4 +111,10 @@ export function chokePointPopupHtml(b: ChokePoint, heading: string | null, conte
     ...rows.map(([k, v]) => `<tr><th>${escapeHtml(k)}</th><td>${escapeHtml(v)}</td></tr>`),
     '</table></div>',
   ].join('');
+}
+
+/** A curve point's tooltip title: decimal hours on the chart's x axis as a duration,
+ *  1.5833 → "1 h 35 min after the order" (never "1.5833 h"). */
+export function curveTooltipTitle(hours: number): string {
+  return `${formatHours(hours)} after the order`;
 }

@@ -1,6 +1,7 @@
-// How a road looks before any analysis: a cool ramp from dark (motorways) to pale (service
+// How a road looks before any analysis: a cool ramp from dark (motorways) to lighter (service
 // roads) so that the warm utilisation colours of a result stand apart, and a width that grows
-// with the lanes. Closed roads are dashed red. Pure: no Leaflet here, only path options.
+// with the lanes. Even the lightest class keeps 3:1 against a light basemap (WCAG 2.1 SC 1.4.11,
+// non-text contrast), so narrow streets stay visible. Closed roads are dashed red. Pure: no Leaflet here, only path options.
 import type { RoadClass } from '@shared/api/road-attributes';
 
 export type LineStyle = { color: string; weight: number; opacity: number; dashArray?: string; lineCap?: 'round' | 'butt' };
@@ -15,14 +16,14 @@ export const roadClassLooks: Record<RoadClass, ClassLook> = {
   trunk_link: { label: 'Trunk ramp', color: '#27506e', baseWeight: 1.8, defaultLanes: 1 },
   primary: { label: 'Primary road', color: '#2f6f96', baseWeight: 2.6, defaultLanes: 2 },
   primary_link: { label: 'Primary link', color: '#2f6f96', baseWeight: 1.6, defaultLanes: 1 },
-  secondary: { label: 'Secondary road', color: '#4b8db2', baseWeight: 2.2, defaultLanes: 1 },
-  secondary_link: { label: 'Secondary link', color: '#4b8db2', baseWeight: 1.5, defaultLanes: 1 },
-  tertiary: { label: 'Tertiary road', color: '#6aa6c4', baseWeight: 1.9, defaultLanes: 1 },
-  tertiary_link: { label: 'Tertiary link', color: '#6aa6c4', baseWeight: 1.4, defaultLanes: 1 },
-  unclassified: { label: 'Minor road', color: '#8a9aa8', baseWeight: 1.4, defaultLanes: 1 },
-  residential: { label: 'Residential street', color: '#8a9aa8', baseWeight: 1.4, defaultLanes: 1 },
-  living_street: { label: 'Living street', color: '#aab6c0', baseWeight: 1, defaultLanes: 1 },
-  service: { label: 'Service road', color: '#aab6c0', baseWeight: 1, defaultLanes: 1 },
+  secondary: { label: 'Secondary road', color: '#3f7fa6', baseWeight: 2.2, defaultLanes: 1 },
+  secondary_link: { label: 'Secondary link', color: '#3f7fa6', baseWeight: 1.5, defaultLanes: 1 },
+  tertiary: { label: 'Tertiary road', color: '#5b86a3', baseWeight: 1.9, defaultLanes: 1 },
+  tertiary_link: { label: 'Tertiary link', color: '#5b86a3', baseWeight: 1.4, defaultLanes: 1 },
+  unclassified: { label: 'Minor road', color: '#66798a', baseWeight: 1.4, defaultLanes: 1 },
+  residential: { label: 'Residential street', color: '#66798a', baseWeight: 1.4, defaultLanes: 1 },
+  living_street: { label: 'Living street', color: '#7b8791', baseWeight: 1, defaultLanes: 1 },
+  service: { label: 'Service road', color: '#7b8791', baseWeight: 1, defaultLanes: 1 },
 };
 
 export const closedRoadColor = '#b3261e';

@@ -23,7 +23,7 @@ export const scenarioChangeLooks: Record<SegmentChange, { label: string; line: L
 };
 
 export const scenarioCasing: LineStyle = { color: '#ffffff', weight: 11, opacity: 0.9, lineCap: 'round' };
-export const pickedRoadRing: LineStyle = { color: '#e8743b', weight: 3, opacity: 1, lineCap: 'round' };
+export const pickedRoadRing: LineStyle = { color: '#b5521f', weight: 3, opacity: 1, lineCap: 'round' };
 
 /** A closure wins over the other marks: a closed road carries nothing whatever its lanes. */
 export function dominantChange(changes: readonly SegmentChange[]): SegmentChange | null {

@@ -36,4 +36,4 @@ export const chokePointColor = CHOKE_POINT_COLOUR;
 export const chokePointCasing: LineStyle = { color: '#ffffff', weight: 13, opacity: 0.95, lineCap: 'round' };
 export const chokePointLine: LineStyle = { color: chokePointColor, weight: 7, opacity: 1, lineCap: 'round' };
 /** The one picked in the table: thicker and with a bright edge. */
-export const chokePointSelected: LineStyle = { color: '#e8743b', weight: 9, opacity: 1, lineCap: 'round' };
+export const chokePointSelected: LineStyle = { color: '#b5521f', weight: 9, opacity: 1, lineCap: 'round' };

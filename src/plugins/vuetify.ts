@@ -2,6 +2,7 @@
 import 'vuetify/styles';
 import { createVuetify } from 'vuetify';
 import { aliases, mdi } from 'vuetify/iconsets/mdi-svg';
+import { vuetifyThemeColours } from './theme-colours';
 
 export const vuetify = createVuetify({
   icons: { defaultSet: 'mdi', aliases, sets: { mdi } },
@@ -10,16 +11,7 @@ export const vuetify = createVuetify({
     themes: {
       cutline: {
         dark: false,
-        colors: {
-          primary: '#1d3b53',
-          secondary: '#4f6d7a',
-          accent: '#e8743b',
-          error: '#b3261e',
-          warning: '#b26a00',
-          success: '#2e7d4f',
-          background: '#f4f6f8',
-          surface: '#ffffff',
-        },
+        colors: vuetifyThemeColours,
       },
     },
   },

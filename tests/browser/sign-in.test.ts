@@ -25,6 +25,11 @@ it('signs in as the demo planner and shows the plans page', async () => {
   // Signed out, the app sends us to sign-in first.
   await page.waitForURL(/\/sign-in/);
   await page.screenshot({ path: path.join(screenshotDir, 'sign-in.png') });
+  // The card sits in the middle of the window, across and down.
+  const card = (await page.locator('[data-test="sign-in-card"]').boundingBox())!;
+  const viewport = page.viewportSize()!;
+  expect(Math.abs(card.x + card.width / 2 - viewport.width / 2)).toBeLessThan(2);
+  expect(Math.abs(card.y + card.height / 2 - viewport.height / 2)).toBeLessThan(20);
 
   await signInThroughForm(page, 'planner@cutline.example', 'wrong-password');
   await page.locator('[data-test="sign-in-error"]').waitFor();

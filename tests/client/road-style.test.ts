@@ -49,3 +49,42 @@ describe('road style', () => {
     expect(rows.at(-1)).toMatchObject({ label: 'Closed', dashed: true });
   });
 });
+
+// WCAG 2.1 relative luminance and contrast ratio (W3C, "Web Content Accessibility Guidelines
+// 2.1", definitions of relative luminance and contrast ratio).
+function luminance(hex: string): number {
+  const [r, g, b] = [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16) / 255).map((v) => (v <= 0.03928 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4));
+  return 0.2126 * r! + 0.7152 * g! + 0.0722 * b!;
+}
+function contrast(a: string, b: string): number {
+  const [hi, lo] = [luminance(a), luminance(b)].sort((x, y) => y - x);
+  return (hi! + 0.05) / (lo! + 0.05);
+}
+
+describe('contrast', () => {
+  it('checks the formula on the WCAG end points: black on white is 21:1', () => {
+    expect(contrast('#000000', '#ffffff')).toBeCloseTo(21, 5);
+    expect(contrast('#ffffff', '#ffffff')).toBe(1);
+  });
+
+  it('keeps every road class at 3:1 or more on a light basemap (WCAG 2.1 SC 1.4.11)', () => {
+    // White and a typical light cream basemap tone (common practice for light basemaps).
+    for (const background of ['#ffffff', '#f2efe9']) {
+      for (const c of drivableRoadClasses) expect(contrast(roadClassLooks[c].color, background), `${c} on ${background}`).toBeGreaterThanOrEqual(3);
+    }
+  });
+
+  it('keeps the legend true: each row is drawn in the colour of its class', () => {
+    for (const row of roadLegend().filter((r) => !r.dashed)) {
+      const look = Object.values(roadClassLooks).find((l) => l.label === row.label);
+      expect(look?.color, row.label).toBe(row.color);
+    }
+  });
+
+  it('gives white text 4.5:1 on the accent, and warning text 4.5:1 on white (WCAG 2.1 SC 1.4.3)', async () => {
+    const { vuetifyThemeColours } = await import('../../src/plugins/theme-colours');
+    expect(contrast(vuetifyThemeColours.accent, '#ffffff')).toBeGreaterThanOrEqual(4.5);
+    expect(contrast(vuetifyThemeColours.warning, '#ffffff')).toBeGreaterThanOrEqual(4.5);
+    expect(contrast(vuetifyThemeColours.primary, '#ffffff')).toBeGreaterThanOrEqual(4.5);
+  });
+});

@@ -135,3 +135,13 @@ describe('run result wording', () => {
     expect(html).toContain('nothing (another road limits next)');
   });
 });
+
+describe('the curve tooltip', () => {
+  it('says the time as a duration, never raw decimal hours', async () => {
+    const { curveTooltipTitle } = await import('../../src/format/run-result');
+    expect(curveTooltipTitle(1.5833333333)).toBe('1 h 35 min after the order');
+    expect(curveTooltipTitle(0.25)).toBe('15 min after the order');
+    expect(curveTooltipTitle(3)).toBe('3 h after the order');
+    expect(curveTooltipTitle(2.0833333)).not.toMatch(/\d\.\d/);
+  });
+});
