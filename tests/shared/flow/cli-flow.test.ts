@@ -67,6 +67,21 @@ describe('flow command', { timeout: 120_000 }, () => {
     });
   }, 180_000);
 
+  it('finishes when one node has more parallel arcs to a child than the graph has nodes', () => {
+    // The review's own case: 7 nodes, s → v of capacity 1, then 20 parallel v → A listed before
+    // v → B, both paths on to t. Maximum flow 1 (one unit leaves s), also by Edmonds–Karp.
+    const lines = ['p max 7 26', 'n 1 s', 'n 7 t', 'a 1 2 1'];
+    for (let i = 0; i < 20; i++) lines.push('a 2 3 1');
+    lines.push('a 2 4 1', 'a 3 5 1', 'a 4 6 1', 'a 5 7 1', 'a 6 7 1');
+    withDimacs(lines.join('\n') + '\n', (file) => {
+      for (const algorithm of ['incremental-bfs', 'boykov-kolmogorov', 'edmonds-karp']) {
+        const { status, stdout } = run(file, '--algorithm', algorithm, '--verify');
+        expect(status).toBe(0);
+        expect(JSON.parse(stdout)).toMatchObject({ value: 1, verified: true, algorithm });
+      }
+    });
+  }, 180_000);
+
   it('refuses a capacity above 2^31 - 1 with its line, and says so in its help', () => {
     withDimacs('p max 2 1\nn 1 s\nn 2 t\na 1 2 2147483648\n', (file) => {
       const { status, stderr } = run(file);
