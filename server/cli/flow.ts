@@ -7,6 +7,8 @@ import { parseArgs } from 'node:util';
 import {
   DimacsParseError,
   FlowInputError,
+  AUTO_HANDOVER_AUGMENTATIONS_PER_ARC,
+  AUTO_THRESHOLD_ARCS,
   MAX_FLOW_ALGORITHMS,
   UNBOUNDED_CAPACITY,
   buildNetworkFromArrays,
@@ -22,6 +24,8 @@ const USAGE = [
   'FILE: a DIMACS max-flow instance ("p max", "n … s|t", "a FROM TO CAPACITY").',
   `Capacities are integers from 0 to ${UNBOUNDED_CAPACITY} (2^31 - 1, which stands for "no limit");`,
   'a larger capacity is refused with its line number (vehicle counts never come near it).',
+  `auto: Edmonds-Karp up to ${AUTO_THRESHOLD_ARCS} arcs; above, incremental BFS, handed over to push-relabel after`,
+  `${AUTO_HANDOVER_AUGMENTATIONS_PER_ARC} augmentations per arc (layered graphs whose paths each carry little); "algorithm" says which finished.`,
 ].join('\n');
 
 async function main(): Promise<number> {

@@ -31,9 +31,15 @@ export interface IncrementalSolver {
   /**
    * Augments until no augmenting path remains among nodes below the current node limit and
    * returns the flow added (robust even where raiseCapacity() made a residual exceed the
-   * network's recorded capacity).
+   * network's recorded capacity). With `augmentationLimit`, it stops early once
+   * stats.augmentations reaches it (see stoppedAtLimit); a later call carries on.
    */
-  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): number;
+  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean, augmentationLimit?: number): number;
+  /**
+   * True when the last maximise() stopped because stats.augmentations reached its
+   * augmentationLimit with work left: the flow is feasible but may not be maximum yet.
+   */
+  readonly stoppedAtLimit: boolean;
   /** Lets nodes up to newLimit − 1 take part; their arcs to older nodes wake those nodes. */
   extendNodeLimit(newLimit: number): void;
   /** Adds `amount` to the residual capacity of residual arc r (an arc whose capacity grew). */
@@ -89,6 +95,9 @@ class IncrementalBfs extends SearchTrees implements IncrementalSolver {
   private activeCountS = 0;
   private activeCountT = 0;
   private orphanCount = 0;
+  /** maximise()'s stopping point in stats.augmentations, and whether it was reached. */
+  private augmentationLimit = Infinity;
+  stoppedAtLimit = false;
   /** Scratch for repair(): the orphan's children, each listed once. */
   private readonly children: Int32Array;
 
@@ -287,10 +296,16 @@ class IncrementalBfs extends SearchTrees implements IncrementalSolver {
     }
   }
 
-  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean): number {
+  maximise(stats: MaxFlowStats, shouldAbort?: () => boolean, augmentationLimit = Infinity): number {
     stats.phases++;
     const progress: GrowthProgress = { added: 0, sinceCheck: 0 };
+    this.augmentationLimit = augmentationLimit;
+    this.stoppedAtLimit = false;
     while (this.activeCountS + this.activeCountT > 0) {
+      if (stats.augmentations >= augmentationLimit) {
+        this.stoppedAtLimit = true;
+        break;
+      }
       const growSource = this.activeCountT === 0 || (this.activeCountS > 0 && this.lowestActiveS <= this.lowestActiveT);
       const p = this.popActive(growSource);
       if (this.tree[p] === FREE) continue;
@@ -328,7 +343,9 @@ class IncrementalBfs extends SearchTrees implements IncrementalSolver {
         if (shouldAbort?.()) throw new FlowAbortedError('incremental BFS aborted by the caller');
       }
       if (tree[p] !== side) break;
-      if (label[p] !== d) {
+      if (label[p] !== d || stats.augmentations >= this.augmentationLimit) {
+        // Relabelled: p is queued again at its new label. At the limit: queued so that a later
+        // maximise() resumes its scan.
         this.activate(p);
         break;
       }

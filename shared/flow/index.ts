@@ -21,3 +21,4 @@ export * from './expanded-usage';
 export * from './bottlenecks';
 export * from './fixes';
 export * from './solve-evacuation';
+export { AUTO_HANDOVER_AUGMENTATIONS_PER_ARC, autoAugmentationLimit, incrementalBfsThenPushRelabel } from './handover';

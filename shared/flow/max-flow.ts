@@ -7,6 +7,7 @@ import { dinic } from './dinic';
 import { edmondsKarp } from './edmonds-karp';
 import { incrementalBfs } from './incremental-bfs';
 import { FlowInputError, FlowOverflowError } from './errors';
+import { autoAugmentationLimit, incrementalBfsThenPushRelabel } from './handover';
 import { arcFlows, createFlowState, netOutflow, type FlowState } from './flow-state';
 import { minimumCut, type MinimumCut } from './min-cut';
 import type { FlowNetwork } from './flow-network';
@@ -19,7 +20,8 @@ export const MAX_FLOW_ALGORITHMS: readonly MaxFlowAlgorithm[] = ['edmonds-karp',
 
 /**
  * 'auto' runs Edmonds–Karp up to this many arcs (it is the reference method and is fast enough
- * there) and AUTO_FAST_ALGORITHM above it.
+ * there) and AUTO_FAST_ALGORITHM above it, which hands over to push-relabel when it makes more
+ * than AUTO_HANDOVER_AUGMENTATIONS_PER_ARC augmentations per arc (handover.ts).
  */
 export const AUTO_THRESHOLD_ARCS = 5_000;
 export const AUTO_FAST_ALGORITHM: MaxFlowAlgorithm = 'incremental-bfs';
@@ -34,7 +36,7 @@ const RUNNERS: Record<MaxFlowAlgorithm, (ctx: SolveContext) => void> = {
 
 /** Options of maxFlow; every field is optional. */
 export interface MaxFlowOptions {
-  /** Which algorithm; 'auto' (default) chooses by size, see AUTO_THRESHOLD_ARCS. */
+  /** Which algorithm; 'auto' (default) chooses by size and shape, see AUTO_THRESHOLD_ARCS. */
   algorithm?: MaxFlowAlgorithmChoice;
   /** Continue from this flow instead of the empty one (warm start). It is updated in place. */
   state?: FlowState;
@@ -57,13 +59,14 @@ export interface MaxFlowResult {
   readonly minCut: MinimumCut;
   /** True when the minimum cut contains an arc of UNBOUNDED_CAPACITY: no finite bottleneck. */
   readonly unbounded: boolean;
+  /** The algorithm that finished (under 'auto', push-relabel when incremental BFS handed over). */
   readonly algorithm: MaxFlowAlgorithm;
   readonly stats: MaxFlowStats;
   /** The final residual capacities, for warm starts and what-if runs. */
   readonly state: FlowState;
 }
 
-/** The algorithm 'auto' would run on this network. */
+/** The algorithm 'auto' starts with on this network (above the threshold it may hand over to push-relabel). */
 export function chooseAlgorithm(network: FlowNetwork, nodeLimit = network.nodeCount): MaxFlowAlgorithm {
   const arcs = network.firstOut[nodeLimit]! / 2;
   return arcs <= AUTO_THRESHOLD_ARCS ? 'edmonds-karp' : AUTO_FAST_ALGORITHM;
@@ -99,9 +102,7 @@ export function maxFlow(
   checkSourceCapacity(network, source, nodeLimit);
 
   const choice = options.algorithm ?? 'auto';
-  const algorithm = choice === 'auto' ? chooseAlgorithm(network, nodeLimit) : choice;
-  const run = RUNNERS[algorithm];
-  if (!run) throw new FlowInputError(`unknown algorithm ${String(choice)}`);
+  if (choice !== 'auto' && !RUNNERS[choice]) throw new FlowInputError(`unknown algorithm ${String(choice)}`);
   const state = options.state ?? createFlowState(network);
   if (state.residual.length !== network.capacity.length) {
     throw new FlowInputError('flow state belongs to another network');
@@ -109,7 +110,7 @@ export function maxFlow(
 
   const stats = emptyStats();
   const started = options.now?.();
-  run({ network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort });
+  const algorithm = runChoice(choice, { network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort });
   if (started !== undefined && options.now) stats.elapsedMs = options.now() - started;
   const minCut = minimumCut(network, state.residual, source, nodeLimit);
 
@@ -144,11 +145,23 @@ export function maximiseInPlace(
   options: Pick<MaxFlowOptions, 'algorithm' | 'nodeLimit' | 'shouldAbort'> = {},
 ): { algorithm: MaxFlowAlgorithm; stats: MaxFlowStats } {
   const nodeLimit = options.nodeLimit ?? network.nodeCount;
-  const choice = options.algorithm ?? 'auto';
-  const algorithm = choice === 'auto' ? chooseAlgorithm(network, nodeLimit) : choice;
   const stats = emptyStats();
-  RUNNERS[algorithm]({ network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort });
-  return { algorithm, stats };
+  const ctx = { network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort };
+  return { algorithm: runChoice(options.algorithm ?? 'auto', ctx), stats };
+}
+
+/** Runs the chosen algorithm, or 'auto' with its handover, and returns the one that finished. */
+function runChoice(choice: MaxFlowAlgorithmChoice, ctx: SolveContext): MaxFlowAlgorithm {
+  if (choice !== 'auto') {
+    RUNNERS[choice](ctx);
+    return choice;
+  }
+  const algorithm = chooseAlgorithm(ctx.network, ctx.nodeLimit);
+  if (algorithm !== 'incremental-bfs') {
+    RUNNERS[algorithm](ctx);
+    return algorithm;
+  }
+  return incrementalBfsThenPushRelabel(ctx, autoAugmentationLimit(ctx.network.firstOut[ctx.nodeLimit]! / 2));
 }
 
 function checkSourceCapacity(network: FlowNetwork, source: number, nodeLimit: number): void {

@@ -3,7 +3,7 @@
 // tests/shared/format/engine-words.test.ts fails until every engine key has words here.
 
 export const ALGORITHM_WORDS: Readonly<Record<string, string>> = {
-  auto: 'chosen by network size',
+  auto: 'chosen by network size and shape',
   'edmonds-karp': 'Edmonds–Karp (shortest augmenting paths)',
   dinic: 'Dinic (blocking flows)',
   'push-relabel': 'Goldberg–Tarjan push-relabel',

@@ -91,6 +91,7 @@ describe('flow command', { timeout: 120_000 }, () => {
     const help = run('--help');
     expect(help.status).toBe(0);
     expect(help.stderr).toMatch(/Capacities are integers from 0 to 2147483647/);
+    expect(help.stderr).toMatch(/auto: Edmonds-Karp up to 5000 arcs; above, incremental BFS, handed over to push-relabel after\n0.01 augmentations per arc/);
   }, 120_000);
 
   it('exits with 2 on an unknown algorithm', () => {
