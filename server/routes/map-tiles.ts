@@ -7,7 +7,7 @@ import { runTileParamsSchema, segmentGeometryQuerySchema, tileParamsSchema } fro
 import { planParamsSchema } from '../../shared/api/plans';
 import type { Database } from '../db/client';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { roadTile, runMapVersion, segmentGeometry } from '../services/map-tiles';
+import { roadTile, runMapVersion, runTile, segmentGeometry } from '../services/map-tiles';
 import { activeLayerVersion } from '../services/road-layers';
 import { getRunRow } from '../services/runs';
 import { roadResultOf } from '../services/road-results';
@@ -36,7 +36,7 @@ export function mapTilesRouter(db: Database, answers: AnswerCache): Router {
       return;
     }
     const key = `tile run ${tile.runId} ${layerId} ${dataVersion} ${tile.z}/${tile.x}/${tile.y}`;
-    await answers.sendBytes(req, res, key, mvt, () => roadTile(db, layerId, tile, tile.runId));
+    await answers.sendBytes(req, res, key, mvt, () => runTile(db, tile.runId, layerId, dataVersion, tile));
   });
 
   router.get('/runs/:runId/roads/:segmentId', requireMember('plans:read'), async (req, res) => {

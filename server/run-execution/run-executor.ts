@@ -14,6 +14,7 @@ import { prepareRuns } from './prepare-runs';
 import { solveInWorker, SolveFailure } from './solve-in-worker';
 import { toRunResult } from './to-run-result';
 import { saveRoadResults, toRoadResults } from './road-results';
+import { drawRunOverviewTiles } from '../services/map-tiles';
 
 const cancelPollMs = 1000;
 
@@ -84,14 +85,18 @@ export function createRunExecutor(
       const result = toRunResult(row.input, done);
       const roads = toRoadResults(row.input, done);
       // The result and its roads' figures together, and only while the run is still wanted.
-      await db.transaction(async (tx) => {
-        const stored = await tx
+      const stored = await db.transaction(async (tx) => {
+        const rows = await tx
           .update(runs)
           .set({ status: 'succeeded', phase: 'done', progress: 1, result, finishedAt: new Date() })
           .where(and(eq(runs.id, runId), inArray(runs.status, ['queued', 'running'])))
           .returning({ id: runs.id });
-        if (stored.length > 0) await saveRoadResults(tx, runId, roads);
+        if (rows.length > 0) await saveRoadResults(tx, runId, roads);
+        return rows.length > 0;
       });
+      // The map's whole-plan tiles, drawn here once rather than by the first person to open the
+      // run (seconds each on a county). The run is already finished: a failure here costs only speed.
+      if (stored) await drawRunOverviewTiles(db, runId).catch(log);
     } catch (e) {
       if (e instanceof SolveFailure && e.kind === 'cancelled') return;
       if (e instanceof SolveFailure && e.kind === 'interrupted') {

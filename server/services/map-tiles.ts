@@ -4,7 +4,7 @@
 // a road class shows, that class is left out (shared/api/map-tiles.ts).
 import { and, eq, sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
-import { plans, runs } from '../db/schema';
+import { plans, roadSegments, runs, runTiles } from '../db/schema';
 import { NotFoundError } from '../errors';
 import { assertPlanInOrganization } from './plan-access';
 import { loadedRoadsMinZoom, roadClassMinZoom, roadTileLayer, tileExtent, type TileAddress } from '../../shared/api/map-tiles';
@@ -47,6 +47,83 @@ export async function roadTile(db: Database, layerId: number, tile: Pick<TileAdd
       WHERE s.layer_id = ${layerId} AND s.geom && b.lonlat AND ${shown}
     ) t WHERE t.geom IS NOT NULL`);
   return rows[0]?.tile ?? Buffer.alloc(0);
+}
+
+/**
+ * The zooms whose run tiles are kept in PostgreSQL (run_tiles): those at which a map shows a whole
+ * plan. Such a tile holds every road of the shown classes over kilometres and takes seconds to
+ * build; there are few of them (about 20 for a 30 km county at zooms 0–11). Deeper tiles are
+ * small and quick, and kept only in each process's answer cache.
+ */
+export const storedRunTileMaxZoom = 12;
+
+/** A run's tile: read from run_tiles when kept there, else built (and kept, at the stored zooms). */
+export async function runTile(db: Database, runId: string, layerId: number, dataVersion: number, tile: Pick<TileAddress, 'z' | 'x' | 'y'>): Promise<Buffer> {
+  if (tile.z > storedRunTileMaxZoom) return roadTile(db, layerId, tile, runId);
+  const key = and(
+    eq(runTiles.runId, runId),
+    eq(runTiles.dataVersion, dataVersion),
+    eq(runTiles.layerId, layerId),
+    eq(runTiles.z, tile.z),
+    eq(runTiles.x, tile.x),
+    eq(runTiles.y, tile.y),
+  );
+  const [kept] = await db.select({ tile: runTiles.tile }).from(runTiles).where(key);
+  if (kept) return kept.tile;
+  const built = await roadTile(db, layerId, tile, runId);
+  await db.insert(runTiles).values({ runId, dataVersion, layerId, z: tile.z, x: tile.x, y: tile.y, tile: built }).onConflictDoNothing();
+  return built;
+}
+
+// Web-map tile of a point (the XYZ scheme of web maps on spherical Mercator; common practice).
+function tileOf(lon: number, lat: number, z: number): [number, number] {
+  const n = 2 ** z;
+  const clampedLat = Math.max(-85.0511, Math.min(85.0511, lat));
+  const r = (clampedLat * Math.PI) / 180;
+  const x = Math.floor(((lon + 180) / 360) * n);
+  const y = Math.floor(((1 - Math.log(Math.tan(r) + 1 / Math.cos(r)) / Math.PI) / 2) * n);
+  return [Math.min(n - 1, Math.max(0, x)), Math.min(n - 1, Math.max(0, y))];
+}
+
+/** The tiles at zoom z that cover a lon/lat box. */
+export function tilesCovering(box: { west: number; south: number; east: number; north: number }, z: number): { z: number; x: number; y: number }[] {
+  const [x0, y0] = tileOf(box.west, box.north, z);
+  const [x1, y1] = tileOf(box.east, box.south, z);
+  const tiles: { z: number; x: number; y: number }[] = [];
+  for (let x = x0; x <= x1; x++) for (let y = y0; y <= y1; y++) tiles.push({ z, x, y });
+  return tiles;
+}
+
+/**
+ * Draws a finished run's tiles at the zooms that show its whole layer, from zoom 0 up to
+ * storedRunTileMaxZoom while the layer spans at most `maxTilesPerZoom` tiles, and keeps them in
+ * run_tiles: the map's first view of a county then reads stored bytes. Run by the worker after
+ * the run's result is stored; returns how many tiles it covered (those already kept are read, not drawn again).
+ */
+export async function drawRunOverviewTiles(db: Database, runId: string, maxTilesPerZoom = 64): Promise<number> {
+  const [run] = await db
+    .select({ layerId: runs.roadLayerId, dataVersion: plans.dataVersion, status: runs.status })
+    .from(runs)
+    .innerJoin(plans, eq(plans.id, runs.planId))
+    .where(eq(runs.id, runId));
+  if (!run || run.layerId === null || run.status !== 'succeeded') return 0;
+  const layerId = run.layerId;
+  const { rows } = await db.execute<{ west: number | null; south: number | null; east: number | null; north: number | null }>(
+    sql`SELECT ST_XMin(e) AS west, ST_YMin(e) AS south, ST_XMax(e) AS east, ST_YMax(e) AS north FROM (SELECT ST_Extent(${roadSegments.geom}) AS e FROM ${roadSegments} WHERE ${roadSegments.layerId} = ${layerId}) x`,
+  );
+  const box = rows[0];
+  if (!box || box.west === null || box.south === null || box.east === null || box.north === null) return 0;
+  const extent = { west: Number(box.west), south: Number(box.south), east: Number(box.east), north: Number(box.north) };
+  let drawn = 0;
+  for (let z = 0; z <= storedRunTileMaxZoom; z++) {
+    const tiles = tilesCovering(extent, z);
+    if (tiles.length > maxTilesPerZoom) break;
+    for (const tile of tiles) {
+      await runTile(db, runId, layerId, run.dataVersion, tile);
+      drawn += 1;
+    }
+  }
+  return drawn;
 }
 
 /** What names a run's tiles: its layer, and the plan's data version (closures edited since show). */

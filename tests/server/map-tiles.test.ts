@@ -84,6 +84,49 @@ afterAll(async () => {
   await ctx.drop();
 });
 
+describe('a run’s whole-plan tiles', () => {
+  it('at the zooms that show the whole plan, are drawn by the worker when the run finishes and kept in PostgreSQL for every process', async () => {
+    const stored = async () =>
+      (await ctx.pool.query('SELECT z, x, y, data_version, tile FROM run_tiles WHERE run_id = $1 ORDER BY z, x, y', [run.id])).rows as { z: number; x: number; y: number; data_version: number; tile: Buffer }[];
+    // Drawn just after the run is marked finished: wait for all of them.
+    const expected = Array.from({ length: 13 }, (_, z) => tilesCovering(bbox, z).length).reduce((a, b) => a + b, 0);
+    for (let i = 0; i < 600 && (await stored()).length < expected; i++) await new Promise((r) => setTimeout(r, 100));
+    const kept = await stored();
+    // Every zoom from 0 to 12 covers the small demo town in a few tiles: each is drawn once.
+    expect(new Set(kept.map((t) => t.z))).toEqual(new Set(Array.from({ length: 13 }, (_, z) => z)));
+    expect(kept.length).toBe(expected);
+    for (const z of [0, 8, 12]) expect(kept.filter((t) => t.z === z).map(({ x, y }) => ({ z, x, y }))).toEqual(tilesCovering(bbox, z));
+    // What the route answers (another process would too) is the stored tile, byte for byte.
+    const t8 = tilesCovering(bbox, 8)[0]!;
+    const { res } = await getTile(runTilePath(t8));
+    expect(Buffer.compare(res.body as Buffer, kept.find((t) => t.z === 8 && t.x === t8.x && t.y === t8.y)!.tile)).toBe(0);
+    // A stored tile is read, not drawn again: a marked copy in the table is what a fresh process serves.
+    await ctx.pool.query('UPDATE run_tiles SET tile = $2 WHERE run_id = $1 AND z = 9', [run.id, Buffer.from([0x1a, 0x00])]);
+    const t9 = tilesCovering(bbox, 9)[0]!;
+    // (Not asked of this process before, so its answer cache does not hold it.)
+    const marked = await viewer.agent.get(runTilePath(t9)).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect([...(marked.body as Buffer)]).toEqual([0x1a, 0x00]);
+    // Deeper tiles are not kept in the table.
+    await getTile(runTilePath(tileOf(bbox[0], bbox[1], 15)));
+    expect((await stored()).some((t) => t.z > 12)).toBe(false);
+  });
+
+  it('kept per data version: after an edit a new tile is drawn and kept beside the old one', async () => {
+    const before = (await ctx.pool.query('SELECT count(*)::int AS n FROM run_tiles WHERE run_id = $1 AND z = 10', [run.id])).rows[0].n as number;
+    const [segment] = await allSegments();
+    await planner.agent.patch(`/api/plans/${planId}/segments/${segment!.id}`).set('x-csrf-token', planner.csrf).send({ name: 'Renamed Lane' }).expect(200);
+    const t10 = tilesCovering(bbox, 10)[0]!;
+    await getTile(runTilePath(t10));
+    const versions = (await ctx.pool.query('SELECT DISTINCT data_version FROM run_tiles WHERE run_id = $1 AND z = 10', [run.id])).rows;
+    expect(versions.length).toBe(2);
+    expect((await ctx.pool.query('SELECT count(*)::int AS n FROM run_tiles WHERE run_id = $1 AND z = 10', [run.id])).rows[0].n).toBe(before + 1);
+  });
+});
+
 describe('road tiles', () => {
   it('hold every road of the layer once zoomed in, each where it lies', async () => {
     const segments = await allSegments();

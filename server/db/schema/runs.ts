@@ -1,5 +1,5 @@
 // Runs: one analysis each, with the exact inputs it used and its full result.
-import { bigint, boolean, index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigint, boolean, customType, index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import type { RunParameters, RunResult } from '../../../shared/api/runs';
 import type { RunInput } from '../../../shared/model/run-input';
 import type { SweepParameter } from '../../../shared/api/sweeps';
@@ -85,3 +85,26 @@ export const sweeps = pgTable('batches', {
   createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
   createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
 });
+
+// A run's map tiles at the zooms that show a whole plan (few tiles, each costly to build: every
+// road of the shown classes in it), kept in PostgreSQL so that every API process and machine
+// shares them: the worker draws them when the run finishes, and an API process stores one it had
+// to build. Keyed by the plan's data version as well (a closure edited after the run shows on
+// the run's map), and dropped with the run.
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+
+export const runTiles = pgTable(
+  'run_tiles',
+  {
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id, { onDelete: 'cascade' }),
+    dataVersion: integer().notNull(),
+    layerId: integer().notNull(),
+    z: integer().notNull(),
+    x: integer().notNull(),
+    y: integer().notNull(),
+    tile: bytea().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.runId, t.dataVersion, t.layerId, t.z, t.x, t.y] })],
+);
