@@ -1,7 +1,7 @@
 // The field-mapping step's map: the first features of the file as the import would take them.
 // Kept roads in their class's colour, left-out roads dashed grey, features that would refuse the
 // file in red; zones as outlines, shelters as dots. Each has its outcome as a tooltip.
-import { watch, type Ref } from 'vue';
+import { ref, watch, type Ref } from 'vue';
 import type { GeoJsonObject } from 'geojson';
 import type { PreviewOutcome } from '@shared/geo/preview-mapping';
 import { L } from '@/map/leaflet';
@@ -20,12 +20,15 @@ export function styleOfOutcome(o: PreviewOutcome): L.PathOptions {
 
 export function useMappingPreviewLayer(map: Ref<L.Map | null>, outcomes: Ref<readonly PreviewOutcome[]>, extent: Ref<[number, number, number, number] | null>) {
   let group: L.LayerGroup | null = null;
+  // Features on the map (drawn on the map's canvas, so the page cannot count them otherwise).
+  const drawn = ref(0);
 
   function draw() {
     const m = map.value;
     if (!m) return;
     group?.remove();
     group = L.layerGroup().addTo(m);
+    let count = 0;
     for (const o of outcomes.value) {
       if (!o.geometry) continue;
       const style = styleOfOutcome(o);
@@ -35,13 +38,17 @@ export function useMappingPreviewLayer(map: Ref<L.Map | null>, outcomes: Ref<rea
       });
       layer.bindTooltip(`Feature ${o.index + 1}: ${o.label}`, { sticky: true });
       layer.addTo(group);
+      count += 1;
     }
+    drawn.value = count;
   }
 
   function fit() {
     const m = map.value;
     const e = extent.value;
     if (!m || !e) return;
+    // The map opens inside a dialog that is still growing: measure again before fitting.
+    m.invalidateSize();
     m.fitBounds([[e[1], e[0]], [e[3], e[2]]], { padding: [16, 16], maxZoom: 17 });
   }
 
@@ -51,4 +58,5 @@ export function useMappingPreviewLayer(map: Ref<L.Map | null>, outcomes: Ref<rea
   });
   watch(outcomes, draw);
   watch(extent, fit);
+  return { drawn };
 }
