@@ -44,10 +44,10 @@ export const INSTANCES: BenchInstance[] = [
     description: 'city of 80 × 80 intersections (250 m blocks), Δ = 30 s, T = 165 steps',
     spec: city(80, { blockMeters: 250, vehiclesPerNode: 12, horizonSteps: 165 }),
   },
-  { name: 'genrmf-long', kind: 'family', description: 'GENRMF-like, 64 frames of 16 × 16', spec: city(2), family: () => genrmf(16, 64, 11) },
-  { name: 'genrmf-wide', kind: 'family', description: 'GENRMF-like, 16 frames of 48 × 48', spec: city(2), family: () => genrmf(48, 16, 12) },
-  { name: 'rlg-long', kind: 'family', description: 'random level graph, 1,024 levels of 64 nodes', spec: city(2), family: () => randomLevelGraph(64, 1024, 13) },
-  { name: 'rlg-wide', kind: 'family', description: 'random level graph, 64 levels of 1,024 nodes', spec: city(2), family: () => randomLevelGraph(1024, 64, 14) },
+  { name: 'genrmf-long', kind: 'family', description: 'GENRMF-like, 48 frames of 12 × 12', spec: city(2), family: () => genrmf(12, 48, 11) },
+  { name: 'genrmf-wide', kind: 'family', description: 'GENRMF-like, 10 frames of 32 × 32', spec: city(2), family: () => genrmf(32, 10, 12) },
+  { name: 'rlg-long', kind: 'family', description: 'random level graph, 512 levels of 64 nodes', spec: city(2), family: () => randomLevelGraph(64, 512, 13) },
+  { name: 'rlg-wide', kind: 'family', description: 'random level graph, 32 levels of 512 nodes', spec: city(2), family: () => randomLevelGraph(512, 32, 14) },
 ];
 
 export function findInstance(name: string): BenchInstance {
