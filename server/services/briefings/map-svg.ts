@@ -183,7 +183,8 @@ function drawLegend(x: number, y: number, width: number, scale: number, system: 
   out.push(shelterMarker(c3 + 11, row2), t(c3 + 28, row2 + 2.6, 'Shelter or exit'));
 
   // Scale bar, right-aligned: two alternating halves so the midpoint can be read off.
-  const bar = scaleBarStep(scale, Math.min(120, width * 0.22), system);
+  // At most 100 pt, so a bar of round miles (longer than one of round km) stays clear of the legend's zone label.
+  const bar = scaleBarStep(scale, Math.min(100, width * 0.2), system);
   const barW = bar.meters * scale;
   // Room on the right for the end label, centred on the bar's end ("10 km" is about 20 pt wide).
   const bx = x + width - barW - 16;
