@@ -95,8 +95,9 @@ export function createRunExecutor(
         return rows.length > 0;
       });
       // The map's whole-plan tiles, drawn here once rather than by the first person to open the
-      // run (seconds each on a county). The run is already finished: a failure here costs only speed.
-      if (stored) await drawRunOverviewTiles(db, runId).catch(log);
+      // run (seconds each on a county). The run is already finished, so the job ends now (its
+      // worker reports it finished) and the drawing goes on beside it: a failure costs only speed.
+      if (stored) void drawRunOverviewTiles(db, runId).catch(log);
     } catch (e) {
       if (e instanceof SolveFailure && e.kind === 'cancelled') return;
       if (e instanceof SolveFailure && e.kind === 'interrupted') {
