@@ -112,6 +112,8 @@ it('draws where each zone goes and the quickest departure order on the map, and 
   expect(drawn).toBe(Number(await page.locator('[data-test="workspace-map"]').getAttribute('data-zone-routes')));
   expect(await page.locator('.cutline-search-label').count()).toBe(zones);
   expect(await page.locator('.cutline-search-label').first().innerText()).toContain('→');
+  // The key says what is drawn over the utilisation colours.
+  expect(await page.locator('[data-test="map-legend-search"]').innerText()).toContain('corridors in the zone’s colour');
   // The export: the cautions above the header, one row per zone and road.
   const href = await page.locator('[data-test="zone-routes-csv"]').getAttribute('href');
   const csv = await (await page.request.get(`${server.url}${href}`)).text();
@@ -132,6 +134,7 @@ it('draws where each zone goes and the quickest departure order on the map, and 
   expect(await page.locator('path.cutline-zone-route').count()).toBe(0);
   expect(await page.locator('.cutline-release-window').count()).toBe(6);
   expect(await page.locator('.cutline-release-window').first().innerText()).toMatch(/^leaves .+\nhalf by /);
+  expect(await page.locator('[data-test="map-legend-search"]').innerText()).toContain('release window');
   await shoot('findings-search-release-order');
 
   expect(errors).toEqual([]);
