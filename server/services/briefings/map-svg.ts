@@ -2,6 +2,7 @@
 // shelters and exits, the choke points with their rank, a legend and a scale bar.
 // Drawn from the stored geometries on the server (no tiles, no screenshot), north up, with the
 // equirectangular projection of map-projection.ts.
+import { labelBox, placeLabels } from './label-placement';
 import type { UnitSystem } from '../../../shared/api/units';
 import { METERS_PER_FOOT, METERS_PER_MILE } from '../../../shared/format/units';
 import type { BriefingMapInput, LonLat, MapSegment } from './briefing-input';
@@ -147,6 +148,8 @@ function badge(x: number, y: number, rank: number): string {
   );
 }
 
+const SHELTER_LABEL_SIZE = 7.5;
+
 function shelterMarker(x: number, y: number): string {
   return `<rect x="${n(x - 4.5)}" y="${n(y - 4.5)}" width="9" height="9" fill="${MAP_COLOURS.shelter}" stroke="#ffffff" stroke-width="1.2"/>`;
 }
@@ -270,15 +273,21 @@ export function mapSvg(input: MapSvgInput): string {
   const badges = chokes.map(({ pts, rank }) => badge(...midpointAlong(pts), rank)).join('');
 
   const zoneLabels = zones.map((z) => svgText(z.label[0], z.label[1] + 3, z.name, { size: 8, fill: MAP_COLOURS.zoneText, anchor: 'middle', weight: 'bold', halo: true })).join('');
-  const shelters = input.shelters
-    .map((s) => {
-      const [x, y] = page(s.location);
-      // Labels go to the right unless that would run off the frame.
-      // Above the marker, off the road that leads in; to the left near the right edge.
-      const right = x < width - 110;
-      return shelterMarker(x, y) + svgText(right ? x + 3 : x - 3, y - 8, s.name, { size: 7.5, fill: '#1e5c2b', anchor: right ? 'start' : 'end', weight: 'bold', halo: true });
-    })
-    .join('');
+  // Shelter names keep clear of the zone names and of each other (label-placement.ts).
+  const zoneBoxes = zones.map((z) => labelBox(z.label[0], z.label[1] + 3, z.name, 8, 'middle'));
+  const markers = input.shelters.map((s) => {
+    const [x, y] = page(s.location);
+    return { x, y, text: s.name };
+  });
+  const placed = placeLabels(markers, SHELTER_LABEL_SIZE, { width, height: height - legendHeight }, zoneBoxes);
+  const shelters =
+    markers.map((m) => shelterMarker(m.x, m.y)).join('') +
+    markers
+      .map((m, i) => {
+        const at = placed[i]!;
+        return svgText(at.x, at.y, m.text, { size: SHELTER_LABEL_SIZE, fill: '#1e5c2b', anchor: at.anchor, weight: 'bold', halo: true });
+      })
+      .join('');
 
   return [
     head,
