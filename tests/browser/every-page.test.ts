@@ -1,7 +1,7 @@
 // Every page of the app, at 1366×768: an axe-core check on each (no serious or critical
 // violation; tests/browser/support/accessibility.ts) and a screenshot in both unit systems under
 // tests/output/screenshots/pages/ for a look by eye.
-// One analysis of the demo plan gives the Findings tab, the comparison, a briefing and its
+// One analysis of the demo plan and a sweep of two gives the Findings tab, the comparison, the sweep page, a briefing and its
 // review page something to show.
 import path from 'node:path';
 import fs from 'node:fs';
@@ -51,8 +51,7 @@ const findings: string[] = [];
 async function look(page: Page, name: string, units: string) {
   await settle(page);
   await page.screenshot({ path: path.join(pagesDir, `${name}-${units}-1366x768.png`) });
-  // The units change figures, not structure: axe runs on the signed-out and metric pages.
-  if (units === 'us-customary') return;
+  // Units change labels and figures, which axe reads too (names, contrast of new text): every page in both.
   for (const v of await seriousAccessibilityViolations(page)) {
     findings.push(`${name} (${units}): ${v}`);
     fs.appendFileSync(path.join(pagesDir, 'axe-findings.txt'), `${name} (${units}): ${v}\n`);
@@ -81,6 +80,18 @@ it('checks and photographs every page in metric and US customary units', async (
     await page.waitForTimeout(1000);
   }
   const scenario = await api<{ id: string }>(page, 'POST', `/api/plans/${planId}/scenarios`, { name: 'Mill bridge closed (drill)' });
+  // A sweep of two capacity factors, finished, for the sweep page.
+  const sweep = await api<{ id: string }>(page, 'POST', `/api/plans/${planId}/sweeps`, {
+    name: 'Wet roads (drill)',
+    parameters,
+    sweep: { parameter: 'capacityFactor', values: [0.8, 1] },
+  });
+  for (let i = 0; i < 240; i++) {
+    const state = await api<{ runs: { status: string }[] }>(page, 'GET', `/api/plans/${planId}/sweeps/${sweep.id}`);
+    if (state.runs.length === 2 && state.runs.every((r) => r.status === 'succeeded')) break;
+    if (state.runs.some((r) => r.status === 'failed' || r.status === 'cancelled')) throw new Error('a sweep run did not finish');
+    await page.waitForTimeout(1000);
+  }
   const briefing = await api<{ briefing: { id: string } }>(page, 'POST', '/api/briefings', { runId, title: 'Veltmoor evening order (drill)' });
 
   for (const units of ['metric', 'us-customary'] as const) {
@@ -97,6 +108,8 @@ it('checks and photographs every page in metric and US customary units', async (
     await look(page, 'scenarios', units);
     await page.goto(`${server.url}/plans/${planId}/scenarios/${scenario.id}`);
     await look(page, 'scenario-editor', units);
+    await page.goto(`${server.url}/plans/${planId}/sweeps/${sweep.id}`);
+    await look(page, 'sweep', units);
     await page.goto(`${server.url}/plans/${planId}/compare?runs=${runId}`);
     await look(page, 'compare', units);
     await page.goto(`${server.url}/briefings`);
