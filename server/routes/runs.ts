@@ -64,10 +64,10 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, ans
     return { row, result: row.result, identity };
   }
 
-  router.get('/runs/:runId/export/bottlenecks.csv', requireMember('plans:read'), async (req, res) => {
+  router.get('/runs/:runId/export/choke-points.csv', requireMember('plans:read'), async (req, res) => {
     const { row, result, identity } = await finishedResult(req);
     const head = csvComments(identityLines(await identity('Run results: choke points')));
-    res.attachment(`run-${row.id.slice(0, 8)}-bottlenecks.csv`).type('text/csv').send(head + chokePointsCsv(result));
+    res.attachment(`run-${row.id.slice(0, 8)}-choke-points.csv`).type('text/csv').send(head + chokePointsCsv(result));
   });
 
   router.get('/runs/:runId/export/curve.csv', requireMember('plans:read'), async (req, res) => {

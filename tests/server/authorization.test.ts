@@ -296,7 +296,7 @@ const rows: Row[] = [
     expect: otherOrganizationOnly(writers(200)),
     call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.queuedRunId } }),
   },
-  ...(['bottlenecks.csv', 'curve.csv', 'arcs.geojson'] as const).flatMap((file): Row[] => [
+  ...(['choke-points.csv', 'curve.csv', 'arcs.geojson'] as const).flatMap((file): Row[] => [
     { route: `GET /api/plans/:planId/runs/:runId/export/${file}`, expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId } }) },
     {
       route: `GET /api/plans/:planId/runs/:runId/export/${file}`,

@@ -123,7 +123,7 @@ describe('a run of the demo plan', () => {
     const list = (await viewer.agent.get(`/api/plans/${planId}/runs`).expect(200)).body.runs;
     expect(list[0].id).toBe(run.id);
     expect(list[0].result).toBeUndefined();
-    const csv = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/bottlenecks.csv`).expect(200);
+    const csv = await viewer.agent.get(`/api/plans/${planId}/runs/${run.id}/export/choke-points.csv`).expect(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     // The caution and the run's identity lead as comment lines, then the table.
     const table = (text: string) => text.trim().split('\r\n').filter((l) => !l.startsWith('# '));
