@@ -110,7 +110,9 @@ it('draws where each zone goes and the quickest departure order on the map, and 
   const drawn = await page.locator('path.cutline-zone-route').count();
   expect(drawn).toBeGreaterThan(0);
   expect(drawn).toBe(Number(await page.locator('[data-test="workspace-map"]').getAttribute('data-zone-routes')));
-  expect(await page.locator('.cutline-search-label').count()).toBe(zones);
+  // A redraw (roads' geometry arriving) leaves the old labels in the page for Leaflet's 200 ms
+  // fade, so the count is read once it settles.
+  await expect.poll(() => page.locator('.cutline-search-label').count(), { timeout: 10_000 }).toBe(zones);
   expect(await page.locator('.cutline-search-label').first().innerText()).toContain('→');
   // The key says what is drawn over the utilisation colours.
   expect(await page.locator('[data-test="map-legend-search"]').innerText()).toContain('corridors in the zone’s colour');
@@ -132,7 +134,7 @@ it('draws where each zone goes and the quickest departure order on the map, and 
   // The zone routes are gone from the map; each zone now shows its release window.
   await page.locator('.cutline-release-window').first().waitFor({ state: 'attached' });
   expect(await page.locator('path.cutline-zone-route').count()).toBe(0);
-  expect(await page.locator('.cutline-release-window').count()).toBe(6);
+  await expect.poll(() => page.locator('.cutline-release-window').count(), { timeout: 10_000 }).toBe(6);
   expect(await page.locator('.cutline-release-window').first().innerText()).toMatch(/^leaves .+\nhalf by /);
   expect(await page.locator('[data-test="map-legend-search"]').innerText()).toContain('release window');
   await shoot('findings-search-release-order');
