@@ -4,7 +4,7 @@ import type { z } from 'zod';
 
 export type FieldErrors = Record<string, string>;
 
-type ParseResult<T> = { ok: true; value: T } | { ok: false; errors: FieldErrors };
+export type ParseResult<T> = { ok: true; value: T } | { ok: false; errors: FieldErrors };
 
 export function fieldErrors(error: z.ZodError): FieldErrors {
   const errors: FieldErrors = {};
