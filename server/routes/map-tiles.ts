@@ -29,14 +29,16 @@ export function mapTilesRouter(db: Database, answers: AnswerCache): Router {
 
   router.get('/runs/:runId/tiles/:z/:x/:y', requireMember('plans:read'), async (req, res) => {
     const tile = runTileParamsSchema.parse(req.params);
-    const { layerId, dataVersion } = await runMapVersion(db, actorOf(req).organizationId, tile.planId, tile.runId);
-    // A run with no layer left (deleted) or no figures yet has an empty tile.
+    const { layerId, dataVersion, status } = await runMapVersion(db, actorOf(req).organizationId, tile.planId, tile.runId);
+    // A run with no layer left (deleted) has an empty tile.
     if (layerId === null) {
       res.type(mvt).send(Buffer.alloc(0));
       return;
     }
-    const key = `tile run ${tile.runId} ${layerId} ${dataVersion} ${tile.z}/${tile.x}/${tile.y}`;
-    await answers.sendBytes(req, res, key, mvt, () => runTile(db, tile.runId, layerId, dataVersion, tile));
+    // The status is in the key: a tile asked for before the run finished has no figures.
+    const finished = status === 'succeeded';
+    const key = `tile run ${tile.runId} ${status} ${layerId} ${dataVersion} ${tile.z}/${tile.x}/${tile.y}`;
+    await answers.sendBytes(req, res, key, mvt, () => runTile(db, tile.runId, layerId, dataVersion, tile, finished));
   });
 
   router.get('/runs/:runId/roads/:segmentId', requireMember('plans:read'), async (req, res) => {

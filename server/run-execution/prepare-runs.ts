@@ -11,6 +11,7 @@ import { HttpError } from '../errors';
 import { loadPlanModel, type PlanModel } from '../services/plan-model';
 import { buildRunInput } from './build-run-input';
 import { copyRoadResults } from './road-results';
+import { drawRunOverviewTiles } from '../services/map-tiles';
 
 type RunRow = typeof runs.$inferSelect;
 const inFlight = inArray(runs.status, ['queued', 'running']);
@@ -104,13 +105,15 @@ async function prepareOne(db: Database, r: RunRow, model: PlanModel, scenario: S
       .limit(1);
     const identity = { inputHash: built.inputHash, dataVersion: built.dataVersion, roadLayerId: built.layerId };
     if (same?.result) {
+      // The roads' figures come along with the result, and the whole-plan map tiles, kept before
+      // the run is marked finished (map-tiles.ts).
+      await copyRoadResults(tx, same.id, r.id);
+      await drawRunOverviewTiles(tx, r.id, { layerId: built.layerId, dataVersion: built.dataVersion }, undefined, same.id);
       const now = new Date();
       await tx
         .update(runs)
         .set({ ...identity, status: 'succeeded', phase: `reused the result of run ${same.id}`, progress: 1, result: same.result, startedAt: r.startedAt ?? now, finishedAt: now })
         .where(eq(runs.id, r.id));
-      // The roads' figures come along with the result.
-      await copyRoadResults(tx, same.id, r.id);
       return false;
     }
     await tx.insert(runInputs).values({ runId: r.id, input: built.input });

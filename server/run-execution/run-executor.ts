@@ -7,7 +7,7 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { runBudget } from './run-budget';
 import type { Database } from '../db/client';
-import { runInputs, runs } from '../db/schema';
+import { plans, runInputs, runs } from '../db/schema';
 import type { Config } from '../config';
 import { queueSqlOf, type RunEnqueuer, type RunJob } from '../queue/run-enqueuer';
 import { prepareRuns } from './prepare-runs';
@@ -74,30 +74,52 @@ export function createRunExecutor(
     );
     active.set(runId, job);
     // A planner's cancel may reach another process: notice it in the database.
+    let cancelled = false;
     const watch = setInterval(() => {
       db.select({ status: runs.status })
         .from(runs)
         .where(eq(runs.id, runId))
-        .then(([r]) => r?.status === 'cancelled' && job.cancel(), log);
+        .then(([r]) => {
+          if (r?.status !== 'cancelled') return;
+          cancelled = true;
+          job.cancel();
+        }, log);
     }, cancelPollMs);
     try {
       const done = await job.done;
       const result = toRunResult(row.input, done);
       const roads = toRoadResults(row.input, done);
-      // The result and its roads' figures together, and only while the run is still wanted.
-      const stored = await db.transaction(async (tx) => {
+      if (!(await setState(runId, { phase: 'saving', progress: 0 }))) return;
+      // The roads' figures, the map's whole-plan tiles drawn from them (seconds on a county, so
+      // drawn here once rather than by the first person to open the run), then the result: one
+      // transaction, and only while the run is still wanted. The run is marked finished last, so
+      // whoever sees it finished reads stored tiles; a cancel or a crash meanwhile writes nothing.
+      await db.transaction(async (tx) => {
+        await saveRoadResults(tx, runId, roads);
+        const [where] = await tx
+          .select({ layerId: runs.roadLayerId, dataVersion: plans.dataVersion })
+          .from(runs)
+          .innerJoin(plans, eq(plans.id, runs.planId))
+          .where(eq(runs.id, runId));
+        if (where?.layerId != null) {
+          let lastTileWrite = 0;
+          await drawRunOverviewTiles(tx, runId, { layerId: where.layerId, dataVersion: where.dataVersion }, async (drawn, total) => {
+            if (cancelled) throw new SolveFailure('Cancelled.', 'cancelled');
+            const now = Date.now();
+            if (now - lastTileWrite < 250 && drawn < total) return;
+            lastTileWrite = now;
+            // Outside the transaction, so the progress shows while it draws.
+            if (!(await setState(runId, { phase: 'tiles', progress: drawn / total }))) throw new SolveFailure('Cancelled.', 'cancelled');
+          });
+        }
         const rows = await tx
           .update(runs)
           .set({ status: 'succeeded', phase: 'done', progress: 1, result, finishedAt: new Date() })
           .where(and(eq(runs.id, runId), inArray(runs.status, ['queued', 'running'])))
           .returning({ id: runs.id });
-        if (rows.length > 0) await saveRoadResults(tx, runId, roads);
-        return rows.length > 0;
+        // Cancelled (or finished elsewhere) meanwhile: roll back, nothing written.
+        if (rows.length === 0) throw new SolveFailure('The run is no longer wanted.', 'cancelled');
       });
-      // The map's whole-plan tiles, drawn here once rather than by the first person to open the
-      // run (seconds each on a county). The run is already finished, so the job ends now (its
-      // worker reports it finished) and the drawing goes on beside it: a failure costs only speed.
-      if (stored) void drawRunOverviewTiles(db, runId).catch(log);
     } catch (e) {
       if (e instanceof SolveFailure && e.kind === 'cancelled') return;
       if (e instanceof SolveFailure && e.kind === 'interrupted') {

@@ -3,7 +3,7 @@
 // is on screen, a tile at a time, and never holds a list of every road. Below the zoom at which
 // a road class shows, that class is left out (shared/api/map-tiles.ts).
 import { and, eq, sql } from 'drizzle-orm';
-import type { Database } from '../db/client';
+import type { Database, Tx } from '../db/client';
 import { plans, roadSegments, runs, runTiles } from '../db/schema';
 import { NotFoundError } from '../errors';
 import { assertPlanInOrganization } from './plan-access';
@@ -21,7 +21,7 @@ const classMinZoom = sql.raw(
 );
 
 /** The tile's bytes (possibly empty): the layer's roads, with the run's figures when `runId` is given. */
-export async function roadTile(db: Database, layerId: number, tile: Pick<TileAddress, 'z' | 'x' | 'y'>, runId: string | null = null): Promise<Buffer> {
+export async function roadTile(db: Database | Tx, layerId: number, tile: Pick<TileAddress, 'z' | 'x' | 'y'>, runId: string | null = null): Promise<Buffer> {
   const { z, x, y } = tile;
   // Half a tile unit: what simplification removes cannot be seen at this zoom.
   const tolerance = unitMeters(z) / 2;
@@ -57,9 +57,13 @@ export async function roadTile(db: Database, layerId: number, tile: Pick<TileAdd
  */
 export const storedRunTileMaxZoom = 12;
 
-/** A run's tile: read from run_tiles when kept there, else built (and kept, at the stored zooms). */
-export async function runTile(db: Database, runId: string, layerId: number, dataVersion: number, tile: Pick<TileAddress, 'z' | 'x' | 'y'>): Promise<Buffer> {
-  if (tile.z > storedRunTileMaxZoom) return roadTile(db, layerId, tile, runId);
+/**
+ * A run's tile: read from run_tiles when kept there, else built. A finished run's tile at the
+ * stored zooms is kept once built (the worker draws them before it marks the run finished, so
+ * this is only for one it left out); an unfinished run's tile has no figures yet and is never kept.
+ */
+export async function runTile(db: Database, runId: string, layerId: number, dataVersion: number, tile: Pick<TileAddress, 'z' | 'x' | 'y'>, finished = true): Promise<Buffer> {
+  if (tile.z > storedRunTileMaxZoom || !finished) return roadTile(db, layerId, tile, runId);
   const key = and(
     eq(runTiles.runId, runId),
     eq(runTiles.dataVersion, dataVersion),
@@ -95,33 +99,62 @@ export function tilesCovering(box: { west: number; south: number; east: number; 
 }
 
 /**
- * Draws a finished run's tiles at the zooms that show its whole layer, from zoom 0 up to
- * storedRunTileMaxZoom while the layer spans at most `maxTilesPerZoom` tiles, and keeps them in
- * run_tiles: the map's first view of a county then reads stored bytes. Run by the worker after
- * the run's result is stored; returns how many tiles it covered (those already kept are read, not drawn again).
+ * The tiles that show a run's whole layer: from zoom 0 up to storedRunTileMaxZoom while the layer
+ * spans at most `maxTilesPerZoom` tiles (about 20 for a 30 km county).
  */
-export async function drawRunOverviewTiles(db: Database, runId: string, maxTilesPerZoom = 64): Promise<number> {
-  const [run] = await db
-    .select({ layerId: runs.roadLayerId, dataVersion: plans.dataVersion, status: runs.status })
-    .from(runs)
-    .innerJoin(plans, eq(plans.id, runs.planId))
-    .where(eq(runs.id, runId));
-  if (!run || run.layerId === null || run.status !== 'succeeded') return 0;
-  const layerId = run.layerId;
+export async function overviewTiles(db: Database | Tx, layerId: number, maxTilesPerZoom = 64): Promise<{ z: number; x: number; y: number }[]> {
   const { rows } = await db.execute<{ west: number | null; south: number | null; east: number | null; north: number | null }>(
     sql`SELECT ST_XMin(e) AS west, ST_YMin(e) AS south, ST_XMax(e) AS east, ST_YMax(e) AS north FROM (SELECT ST_Extent(${roadSegments.geom}) AS e FROM ${roadSegments} WHERE ${roadSegments.layerId} = ${layerId}) x`,
   );
   const box = rows[0];
-  if (!box || box.west === null || box.south === null || box.east === null || box.north === null) return 0;
+  if (!box || box.west === null || box.south === null || box.east === null || box.north === null) return [];
   const extent = { west: Number(box.west), south: Number(box.south), east: Number(box.east), north: Number(box.north) };
-  let drawn = 0;
+  const all: { z: number; x: number; y: number }[] = [];
   for (let z = 0; z <= storedRunTileMaxZoom; z++) {
     const tiles = tilesCovering(extent, z);
     if (tiles.length > maxTilesPerZoom) break;
-    for (const tile of tiles) {
-      await runTile(db, runId, layerId, run.dataVersion, tile);
-      drawn += 1;
-    }
+    all.push(...tiles);
+  }
+  return all;
+}
+
+/**
+ * Draws a run's whole-layer tiles (overviewTiles) and keeps them in run_tiles, so the map's first
+ * view of a county reads stored bytes. The worker calls it as the run's last phase, inside the
+ * transaction that stores the run's road figures and then marks it finished: no one sees the run
+ * finished before its tiles are kept, and a cancel or a crash meanwhile leaves none behind.
+ * `progress` hears each tile drawn (done, total) and may throw to stop. Returns the number drawn
+ * (copied ones not counted).
+ */
+export async function drawRunOverviewTiles(
+  tx: Database | Tx,
+  runId: string,
+  where: { layerId: number; dataVersion: number },
+  progress: (done: number, total: number) => void | Promise<void> = () => undefined,
+  // A run that reuses another's result takes that run's tiles of the same layer and data version
+  // (the same figures on the same roads) and draws only what they lack.
+  copyFrom: string | null = null,
+): Promise<number> {
+  const tiles = await overviewTiles(tx, where.layerId);
+  const kept = new Set<string>();
+  if (copyFrom !== null) {
+    const { rows } = await tx.execute<{ z: number; x: number; y: number }>(sql`
+      INSERT INTO run_tiles (run_id, data_version, layer_id, z, x, y, tile)
+      SELECT ${runId}::uuid, data_version, layer_id, z, x, y, tile FROM run_tiles
+      WHERE run_id = ${copyFrom}::uuid AND layer_id = ${where.layerId} AND data_version = ${where.dataVersion}
+      ON CONFLICT DO NOTHING RETURNING z, x, y`);
+    for (const t of rows) kept.add(`${t.z}/${t.x}/${t.y}`);
+  }
+  let drawn = 0;
+  for (const tile of tiles) {
+    if (kept.has(`${tile.z}/${tile.x}/${tile.y}`)) continue;
+    const built = await roadTile(tx, where.layerId, tile, runId);
+    await tx
+      .insert(runTiles)
+      .values({ runId, dataVersion: where.dataVersion, layerId: where.layerId, ...tile, tile: built })
+      .onConflictDoUpdate({ target: [runTiles.runId, runTiles.dataVersion, runTiles.layerId, runTiles.z, runTiles.x, runTiles.y], set: { tile: built } });
+    drawn += 1;
+    await progress(drawn, tiles.length);
   }
   return drawn;
 }

@@ -25,6 +25,8 @@ export const PHASE_WORDS: Readonly<Record<string, string>> = {
   bottlenecks: 'finding the choke points',
   fixes: 'testing one more lane per choke point',
   verify: 'checking the result',
+  saving: 'saving the figures',
+  tiles: 'drawing the whole-plan map',
   done: 'done',
   failed: 'failed',
 };

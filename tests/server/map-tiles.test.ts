@@ -67,30 +67,83 @@ beforeAll(async () => {
   viewer = await signInAs(ctx.app, 'viewer');
   planId = (await viewer.agent.get('/api/plans').expect(200)).body.plans[0].id;
   bbox = (await viewer.agent.get(`/api/plans/${planId}/road-layer`).expect(200)).body.layer.bbox;
-  const started = await planner.agent
-    .post(`/api/plans/${planId}/runs`)
-    .set('x-csrf-token', planner.csrf)
-    .send({ parameters: { ...defaultRunParameters, horizonMinutes: 120, timeStepSeconds: 120 } })
-    .expect(202);
-  for (;;) {
-    run = runWithResultSchema.parse((await viewer.agent.get(`/api/plans/${planId}/runs/${started.body.id}`).expect(200)).body);
-    if (!['queued', 'running'].includes(run.status)) break;
-    await new Promise((r) => setTimeout(r, 200));
-  }
-  expect(run.status, run.failureReason ?? '').toBe('succeeded');
+  // Every change of a run's row, with the run_tiles it has at that moment as its own writer sees
+  // them (a trigger runs inside the writing transaction): what anyone reading the row then would find.
+  await ctx.pool.query(`
+    CREATE TABLE run_row_log (seq serial, run_id uuid, status text, phase text, progress real, tiles int);
+    CREATE FUNCTION log_run_row() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN
+      INSERT INTO run_row_log (run_id, status, phase, progress, tiles)
+      VALUES (NEW.id, NEW.status, NEW.phase, NEW.progress, (SELECT count(*) FROM run_tiles WHERE run_id = NEW.id));
+      RETURN NEW;
+    END $$;
+    CREATE TRIGGER log_run_row AFTER UPDATE ON runs FOR EACH ROW EXECUTE FUNCTION log_run_row();`);
+  run = await finishedRun();
 });
 afterAll(async () => {
   expect(ctx.errors).toEqual([]);
   await ctx.drop();
 });
 
+async function finishedRun(): Promise<RunWithResult> {
+  const started = await planner.agent
+    .post(`/api/plans/${planId}/runs`)
+    .set('x-csrf-token', planner.csrf)
+    .send({ parameters: { ...defaultRunParameters, horizonMinutes: 120, timeStepSeconds: 120 } })
+    .expect(202);
+  for (;;) {
+    const read = runWithResultSchema.parse((await viewer.agent.get(`/api/plans/${planId}/runs/${started.body.id}`).expect(200)).body);
+    if (!['queued', 'running'].includes(read.status)) {
+      expect(read.status, read.failureReason ?? '').toBe('succeeded');
+      return read;
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+const rowLog = async (runId: string) =>
+  (await ctx.pool.query('SELECT status, phase, progress, tiles FROM run_row_log WHERE run_id = $1 ORDER BY seq', [runId])).rows as {
+    status: string;
+    phase: string;
+    progress: number;
+    tiles: number;
+  }[];
+
+const overviewTileCount = () => Array.from({ length: 13 }, (_, z) => tilesCovering(bbox, z).length).reduce((a, b) => a + b, 0);
+
+describe('a run’s whole-plan tiles are its last phase', () => {
+  it('are all kept before the run is marked finished, drawn in a phase of their own with its progress', async () => {
+    const log = await rowLog(run.id);
+    const finished = log.findIndex((r) => r.status === 'succeeded');
+    expect(finished).toBeGreaterThan(0);
+    // The moment the run became finished, every whole-plan tile was already kept with it.
+    expect(log[finished]!.tiles).toBe(overviewTileCount());
+    // Before that, the drawing showed as the run's phase, its progress rising to 1, after the solve.
+    const drawing = log.slice(0, finished).filter((r) => r.phase === 'tiles');
+    expect(drawing.length).toBeGreaterThan(0);
+    expect(drawing.at(-1)!.progress).toBe(1);
+    for (let i = 1; i < drawing.length; i++) expect(drawing[i]!.progress).toBeGreaterThanOrEqual(drawing[i - 1]!.progress);
+    expect(log.slice(0, finished).every((r) => r.status !== 'succeeded')).toBe(true);
+    const phases = log.slice(0, finished).map((r) => r.phase);
+    expect(phases.indexOf('saving')).toBeGreaterThan(phases.indexOf('starting'));
+    expect(phases.indexOf('tiles')).toBeGreaterThan(phases.indexOf('saving'));
+  });
+
+  it('a run that reuses an identical result is finished with its tiles too', async () => {
+    const again = await finishedRun();
+    expect(again.phase).toMatch(/^reused the result of run /);
+    const log = await rowLog(again.id);
+    const finished = log.find((r) => r.status === 'succeeded')!;
+    expect(finished.tiles).toBe(overviewTileCount());
+    const copied = (await ctx.pool.query('SELECT z, x, y, tile FROM run_tiles WHERE run_id = $1 ORDER BY z, x, y', [again.id])).rows;
+    const original = (await ctx.pool.query('SELECT z, x, y, tile FROM run_tiles WHERE run_id = $1 ORDER BY z, x, y', [run.id])).rows;
+    expect(copied).toEqual(original);
+  });
+});
 describe('a run’s whole-plan tiles', () => {
-  it('at the zooms that show the whole plan, are drawn by the worker when the run finishes and kept in PostgreSQL for every process', async () => {
+  it('at the zooms that show the whole plan, are drawn by the worker before the run finishes and kept in PostgreSQL for every process', async () => {
     const stored = async () =>
       (await ctx.pool.query('SELECT z, x, y, data_version, tile FROM run_tiles WHERE run_id = $1 ORDER BY z, x, y', [run.id])).rows as { z: number; x: number; y: number; data_version: number; tile: Buffer }[];
-    // Drawn just after the run is marked finished: wait for all of them.
-    const expected = Array.from({ length: 13 }, (_, z) => tilesCovering(bbox, z).length).reduce((a, b) => a + b, 0);
-    for (let i = 0; i < 600 && (await stored()).length < expected; i++) await new Promise((r) => setTimeout(r, 100));
+    const expected = overviewTileCount();
     const kept = await stored();
     // Every zoom from 0 to 12 covers the small demo town in a few tiles: each is drawn once.
     expect(new Set(kept.map((t) => t.z))).toEqual(new Set(Array.from({ length: 13 }, (_, z) => z)));

@@ -7,7 +7,7 @@ import { ALGORITHM_WORDS, PHASE_WORDS, algorithmWords, phaseWords } from '../../
 
 // The phases solveEvacuation reports (EvacuationPhase in shared/flow/solve-evacuation.ts) and
 // the ones the run executor writes (server/run-execution/run-executor.ts).
-const ENGINE_PHASES = ['steady-state', 'expand', 'curve', 'bottlenecks', 'fixes', 'verify', 'preparing', 'prepared', 'starting', 'done', 'failed'];
+const ENGINE_PHASES = ['steady-state', 'expand', 'curve', 'bottlenecks', 'fixes', 'verify', 'preparing', 'prepared', 'starting', 'saving', 'tiles', 'done', 'failed'];
 
 describe('engine keys in words', () => {
   it('names every maximum-flow method and every choice the picker offers', () => {
