@@ -9,10 +9,7 @@
 // latency of a paced client (/healthz every 100 ms, the road-layer summary every 500 ms) per
 // phase. A benchmark, run by hand once: never part of `npm test`. --readme writes the report
 // into tests/bench/county/README.md; the JSON goes to tests/output/county-bench/results.json.
-import { execFileSync } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import { basename } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -21,8 +18,7 @@ import { importSchema, type Import } from '../../../shared/api/imports';
 import { planSchema } from '../../../shared/api/plans';
 import { runSchema, runWithResultSchema, segmentGeometrySchema, roadResultAnswerSchema, type RunResult, type RunWithResult } from '../../../shared/api/runs';
 import { demoAccounts } from '../../../server/seed/demo-accounts';
-import { createBenchDatabase, ensurePostgres, type BenchDatabase } from '../http/bench-database';
-import { startProcess, waitForReady, type BenchProcess } from '../http/server-processes';
+import { commitDescription, startBenchStack, type BenchStack } from '../http/bench-stack';
 import { signIn, type BenchSession } from '../http/sign-in';
 import { countyLayout, FULL_COUNTY } from './county';
 import { DEFAULT_COUNTY_DIR, writeCountyFiles } from './generate';
@@ -48,26 +44,6 @@ const COARSER_STEPS = [60, 120, 180, 300, 360, 600, 900].filter((s) => s > first
 mkdirSync(out, { recursive: true });
 const say = (s: string) => process.stderr.write(`[bench:county] ${new Date().toISOString().slice(11, 19)} ${s}\n`);
 const loadAverage = () => os.loadavg().map((x) => x.toFixed(2)).join(' ');
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-    server.on('error', reject);
-  });
-}
-
-function commitDescription(): string {
-  try {
-    const sha = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: root, encoding: 'utf8' }).trim();
-    const status = execFileSync('git', ['status', '--porcelain', '--untracked-files=no', '--', '.', ':!tests/bench/county/README.md'], { cwd: root, encoding: 'utf8' });
-    return status.trim() ? `${sha} (with uncommitted changes in the tree)` : sha;
-  } catch {
-    return 'unknown';
-  }
-}
 
 /** Peak resident memory of a process so far (VmHWM, which covers all its threads), MiB. */
 function peakRssMiB(pid: number): number | null {
@@ -105,48 +81,18 @@ function zoomToFit([w, s, e, n]: number[], width: number, height: number): numbe
 type Phase = { name: string; seconds: number; note?: string };
 type Fetched = { what: string; requests: number; bytes: number; seconds: number; slowestMs: number };
 
-let database: BenchDatabase | null = null;
-const processes: BenchProcess[] = [];
-let cleaning: Promise<void> | null = null;
-function cleanUp(): Promise<void> {
-  cleaning ??= (async () => {
-    await Promise.all(processes.map((p) => p.stop().catch(() => undefined)));
-    if (database) await database.drop().catch((e: unknown) => say(`could not drop ${database!.name}: ${String(e)}`));
-  })();
-  return cleaning;
-}
-for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.on(signal, () => {
-    say(`${signal}: stopping the processes and dropping the bench database`);
-    void cleanUp().finally(() => process.exit(130));
-  });
-}
+let stack: BenchStack | null = null;
+// A function, so that the finally below reads the stack main() started.
+const stopStack = async () => stack?.stop();
 
 async function main(): Promise<void> {
   const loadBefore = loadAverage();
   say(`load average before: ${loadBefore}`);
   const files = writeCountyFiles(spec, spec.size === FULL_COUNTY.size ? DEFAULT_COUNTY_DIR : `${out}county-${spec.size}/`);
   say(`county written: ${files.features.roads} road features, ${files.bytes.roads} bytes`);
-  ensurePostgres(root);
-  database = await createBenchDatabase();
-  const port = await freePort();
-  const baseUrl = `http://127.0.0.1:${port}`;
-  const env = {
-    NODE_ENV: 'production',
-    HOST: '127.0.0.1',
-    PORT: String(port),
-    DATABASE_URL: database.url,
-    LOG_LEVEL: 'warn',
-    SESSION_SECRET: randomBytes(24).toString('hex'),
-    SIGNING_KEY_PASSPHRASE: randomBytes(24).toString('hex'),
-    COOKIE_SECURE: 'false',
-    WORKER_CONCURRENCY: '1',
-    WORKER_SHUTDOWN_GRACE_SECONDS: '5',
-  };
-  processes.push(startProcess('api', root, 'server/index.ts', env, `${out}api.log`));
-  processes.push(startProcess('worker', root, 'server/worker.ts', env, `${out}worker.log`));
-  const [api, worker] = processes as [BenchProcess, BenchProcess];
-  await waitForReady(`${baseUrl}/readyz`, api, 60_000);
+  stack = await startBenchStack({ root, out, worker: true, say });
+  const { baseUrl, api } = stack;
+  const worker = stack.worker!;
 
   const phases: Phase[] = [];
   const fetched: Fetched[] = [];
@@ -329,7 +275,7 @@ async function main(): Promise<void> {
   const report = formatReport({
     header:
       `Measured ${new Date().toISOString()} on ${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}, ` +
-      `commit ${commitDescription()}; one API process, one worker (WORKER_CONCURRENCY 1, niceness 10), production settings; load average (1, 5, 15 min) ${loadBefore} before, ${loadAverage()} after ` +
+      `commit ${commitDescription(root, 'tests/bench/county/README.md')}; one API process, one worker (WORKER_CONCURRENCY 1, niceness 10), production settings; load average (1, 5, 15 min) ${loadBefore} before, ${loadAverage()} after ` +
       `(the machine was shared with other work).`,
     county: `${files.features.roads} road features (${(files.bytes.roads / 1e6).toFixed(1)} MB): ${JSON.stringify(imports.roads.job.outcome)}; grid ${layout.n} × ${layout.n}, ${layout.bridgeRows.length} bridges`,
     phases,
@@ -424,5 +370,5 @@ try {
   process.exitCode = 2;
   say(e instanceof Error ? (e.stack ?? e.message) : String(e));
 } finally {
-  await cleanUp();
+  await stopStack();
 }

@@ -3,16 +3,13 @@
 // to answer 202 for the generated county's roads as written (7.9 MB) and written with indentation
 // (about four times larger), and the latency of a paced /healthz client meanwhile. A benchmark, run
 // by hand; the whole path is `npm run bench:county`.
-import { randomBytes } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { planSchema } from '../../../shared/api/plans';
 import { demoAccounts } from '../../../server/seed/demo-accounts';
-import { createBenchDatabase, ensurePostgres, type BenchDatabase } from '../http/bench-database';
-import { startProcess, waitForReady, type BenchProcess } from '../http/server-processes';
+import { startBenchStack, type BenchStack } from '../http/bench-stack';
 import { signIn } from '../http/sign-in';
 import { FULL_COUNTY } from './county';
 import { DEFAULT_COUNTY_DIR, writeCountyFiles } from './generate';
@@ -26,46 +23,15 @@ const times = Number(values.times);
 mkdirSync(out, { recursive: true });
 const say = (s: string) => process.stderr.write(`[bench:upload] ${s}\n`);
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-    server.on('error', reject);
-  });
-}
-
-let database: BenchDatabase | null = null;
-let api: BenchProcess | null = null;
+let stack: BenchStack | null = null;
 
 async function main(): Promise<void> {
   say(`load average before: ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`);
   const compact = readFileSync(writeCountyFiles(FULL_COUNTY, DEFAULT_COUNTY_DIR).roads);
   const indented = Buffer.from(JSON.stringify(JSON.parse(compact.toString('utf8')), null, 2));
   writeFileSync(`${out}roads-indented.geojson`, indented);
-  ensurePostgres(root);
-  database = await createBenchDatabase();
-  const port = await freePort();
-  const baseUrl = `http://127.0.0.1:${port}`;
-  api = startProcess(
-    'api',
-    root,
-    'server/index.ts',
-    {
-      NODE_ENV: 'production',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      DATABASE_URL: database.url,
-      LOG_LEVEL: 'warn',
-      SESSION_SECRET: randomBytes(24).toString('hex'),
-      SIGNING_KEY_PASSPHRASE: randomBytes(24).toString('hex'),
-      COOKIE_SECURE: 'false',
-      UPLOAD_MAX_MEGABYTES: '64',
-    },
-    `${out}upload-api.log`,
-  );
-  await waitForReady(`${baseUrl}/readyz`, api, 60_000);
+  stack = await startBenchStack({ root, out, logPrefix: 'upload-', worker: false, env: { UPLOAD_MAX_MEGABYTES: '64' }, say });
+  const { baseUrl } = stack;
   const planner = demoAccounts.find((a) => a.role === 'planner')!;
   const session = await signIn(baseUrl, planner.email, planner.password);
   const writeHeaders = { cookie: session.cookie, 'x-csrf-token': session.csrfToken };
@@ -111,6 +77,5 @@ main()
     process.exitCode = 1;
   })
   .finally(async () => {
-    await api?.stop();
-    await database?.drop();
+    await stack?.stop();
   });

@@ -6,21 +6,17 @@
 // worker. Prints one table; --readme writes it into tests/bench/http/README.md (one block per
 // load shape). Processes and the database are removed at the end, also on failure or Ctrl+C.
 // Results also go to tests/output/http-bench/results.json.
-import { execFileSync } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { demoAccounts } from '../../../server/seed/demo-accounts';
-import { createBenchDatabase, ensurePostgres, type BenchDatabase } from './bench-database';
+import { commitDescription, startBenchStack, type BenchStack } from './bench-stack';
 import { prepareFixture } from './bench-fixture';
 import { runLoadGroup } from './load-group';
 import { readRequests, writeRequests } from './load-mix';
 import { formatReport } from './report';
 import { startRunStarter } from './run-starter';
-import { startProcess, waitForReady, type BenchProcess } from './server-processes';
 import { signIn, signInAll } from './sign-in';
 import { workerRunsBetween } from './worker-runs';
 import { databaseCpuSince, databaseCpuSnapshot } from './database-cpu';
@@ -69,28 +65,6 @@ mkdirSync(out, { recursive: true });
 const say = (s: string) => process.stderr.write(`[bench:http] ${s}\n`);
 const loadAverage = () => os.loadavg().map((x) => x.toFixed(2)).join(' ');
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-    server.on('error', reject);
-  });
-}
-
-function commitDescription(): string {
-  try {
-    const sha = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: root, encoding: 'utf8' }).trim();
-    // The README is this bench's own output (--readme), not a change to what is measured.
-    const status = execFileSync('git', ['status', '--porcelain', '--untracked-files=no', '--', '.', ':!tests/bench/http/README.md'], { cwd: root, encoding: 'utf8' });
-    const dirty = status.trim() !== '';
-    return dirty ? `${sha} (with uncommitted changes in the tree)` : sha;
-  } catch {
-    return 'unknown';
-  }
-}
-
 const machine = () => `${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}`;
 const processesDescription = () =>
   `${apiProcesses} API process${apiProcesses === 1 ? '' : 'es'} (API_PROCESSES), the worker at niceness ${workerNiceness} (WORKER_NICENESS)`;
@@ -105,51 +79,22 @@ function writeReadmeBlock(id: string, text: string): void {
   writeFileSync(readme, current.includes(start) ? current.replace(new RegExp(`${start}[\\s\\S]*${end}`), block) : `${current.trimEnd()}\n\n${block}\n`);
 }
 
-let database: BenchDatabase | null = null;
-const processes: BenchProcess[] = [];
-let cleaning: Promise<void> | null = null;
-function cleanUp(): Promise<void> {
-  cleaning ??= (async () => {
-    await Promise.all(processes.map((p) => p.stop().catch(() => undefined)));
-    if (database) await database.drop().catch((e: unknown) => say(`could not drop ${database!.name}: ${String(e)}`));
-  })();
-  return cleaning;
-}
-for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-  process.on(signal, () => {
-    say(`${signal}: stopping the processes and dropping the bench database`);
-    void cleanUp().finally(() => process.exit(130));
-  });
-}
+let stack: BenchStack | null = null;
+// A function, so that the finally below reads the stack main() started.
+const stopStack = async () => stack?.stop();
 
 async function main(): Promise<void> {
   say(`load average before: ${loadAverage()}`);
-  ensurePostgres(root);
-  say('creating, migrating and seeding the bench database');
-  database = await createBenchDatabase();
-  const port = await freePort();
-  const baseUrl = `http://127.0.0.1:${port}`;
-  const env = {
-    NODE_ENV: 'production',
-    HOST: '127.0.0.1',
-    PORT: String(port),
-    DATABASE_URL: database.url,
-    LOG_LEVEL: 'warn',
-    // Production refuses the published development secrets; these live as long as the bench.
-    SESSION_SECRET: randomBytes(24).toString('hex'),
-    SIGNING_KEY_PASSPHRASE: randomBytes(24).toString('hex'),
-    // Plain HTTP on loopback, with no TLS proxy in front: production's Secure cookies would never be sent back.
-    COOKIE_SECURE: 'false',
-    WORKER_CONCURRENCY: '1',
-    API_PROCESSES: String(apiProcesses),
-    WORKER_NICENESS: String(workerNiceness),
-    // At the end a run in hand goes back to the queue soon; the database is dropped anyway.
-    WORKER_SHUTDOWN_GRACE_SECONDS: '5',
-  };
-  processes.push(startProcess('api', root, 'server/index.ts', env, `${out}api.log`, values.profile ? ['--cpu-prof', `--cpu-prof-dir=${out}`] : []));
-  processes.push(startProcess('worker', root, 'server/worker.ts', env, `${out}worker.log`));
-  const [api, worker] = processes as [BenchProcess, BenchProcess];
-  await waitForReady(`${baseUrl}/readyz`, api, 60_000);
+  stack = await startBenchStack({
+    root,
+    out,
+    worker: true,
+    env: { API_PROCESSES: String(apiProcesses), WORKER_NICENESS: String(workerNiceness) },
+    apiNodeArgs: values.profile ? ['--cpu-prof', `--cpu-prof-dir=${out}`] : [],
+    say,
+  });
+  const { baseUrl, api, databaseUrl } = stack;
+  const worker = stack.worker!;
 
   say('signing in');
   const readSessions = await signInAll(baseUrl, demoAccounts, 8);
@@ -165,9 +110,9 @@ async function main(): Promise<void> {
   if (values['each-route']) {
     say(`each read route alone for ${seconds} s with ${eachRouteConnections} connections`);
     const loadAverageBefore = loadAverage();
-    const costs = await measureEachRoute(baseUrl, readRequests(fixture), readSessions, eachRouteConnections, seconds, api, database.url);
+    const costs = await measureEachRoute(baseUrl, readRequests(fixture), readSessions, eachRouteConnections, seconds, api, databaseUrl);
     const text = formatRouteCosts(
-      `Measured ${new Date().toISOString()} on ${machine()}, commit ${commitDescription()}; ${processesDescription()}; ` +
+      `Measured ${new Date().toISOString()} on ${machine()}, commit ${commitDescription(root, 'tests/bench/http/README.md')}; ${processesDescription()}; ` +
         `each read route alone for ${seconds} s (after 1 s not measured) with ${eachRouteConnections} connections, no writes, no runs started; ` +
         `load average (1, 5, 15 min) ${loadAverageBefore} before, ${loadAverage()} after. CPU per request: the API ${apiProcesses === 1 ? 'process' : 'processes'} and this database's PostgreSQL backends.`,
       costs,
@@ -187,7 +132,7 @@ async function main(): Promise<void> {
 
   say(`measuring for ${seconds} s: ${readConnections} read and ${writeConnections} write connections${rate ? `, ${rate} requests/s each` : ''}, runs kept queued`);
   const loadAverageBefore = loadAverage();
-  const cpuBefore = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(), database: await databaseCpuSnapshot(database.url) };
+  const cpuBefore = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(), database: await databaseCpuSnapshot(databaseUrl) };
   const from = new Date();
   // Two runs waiting or running keeps the worker busy without a backlog; one start every 3 s at
   // most is 20 a minute, inside the default RUN_STARTS_PER_MINUTE of 30.
@@ -198,14 +143,14 @@ async function main(): Promise<void> {
   ]);
   const runStarts = await starter.stop();
   const to = new Date();
-  const cpuAfter = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(cpuBefore.bench), database: await databaseCpuSince(database.url, cpuBefore.database) };
+  const cpuAfter = { api: api.cpuSeconds(), worker: worker.cpuSeconds(), bench: process.cpuUsage(cpuBefore.bench), database: await databaseCpuSince(databaseUrl, cpuBefore.database) };
   const loadAverageAfter = loadAverage();
-  const workerRuns = await workerRunsBetween(database.url, from, to);
+  const workerRuns = await workerRunsBetween(databaseUrl, from, to);
   const spent = (a: number | null, b: number | null) => (a === null || b === null ? null : b - a);
 
   const header =
     `Measured ${from.toISOString()} on ${machine()}, ` +
-    `commit ${commitDescription()}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
+    `commit ${commitDescription(root, 'tests/bench/http/README.md')}; ${seconds} s after a ${warmupSeconds} s warm-up; ` +
     `${processesDescription()}; ` +
     `load average (1, 5, 15 min) ${loadAverageBefore} before the load.` +
     (rate
@@ -250,5 +195,5 @@ try {
   process.exitCode = 2;
   say(e instanceof Error ? (e.stack ?? e.message) : String(e));
 } finally {
-  await cleanUp();
+  await stopStack();
 }
