@@ -206,7 +206,7 @@ function routeErrorOfWalk(expanded: TimeExpandedNetwork, roads: TripRoads): (pat
   };
 }
 
-function plannedRouteTiming(routes: { error: number; vehicles: number }[], dt: number): PlannedRouteTiming {
+export function plannedRouteTiming(routes: { error: number; vehicles: number }[], dt: number): PlannedRouteTiming {
   const vehicles = routes.reduce((sum, r) => sum + r.vehicles, 0);
   routes.sort((a, b) => a.error - b.error);
   let seen = 0;

@@ -3,19 +3,24 @@
 // evacuation curve (incremental over horizons), plan read-out (road use, trips, bottlenecks),
 // fix ranking, and on request the independent verification of every flow returned.
 
-import { timeExpandedBottlenecks, type TimeExpandedBottlenecks } from './bottlenecks';
+import type { TimeExpandedBottlenecks } from './bottlenecks';
 import { computeEvacuationCurve, type CurveComputation, type CurveMarks } from './evacuation-curve';
 import { validateEvacuationProblem, type EvacuationProblem } from './evacuation-problem';
-import { arrivalsByStep, decomposeTrips, roadUsage, type PlannedRouteTiming, type RoadUsage, type TripSummary } from './expanded-usage';
+import type { PlannedRouteTiming, RoadUsage, TripSummary } from './expanded-usage';
 import { rankFixes, type RoadFix } from './fixes';
-import { arcFlows, createFlowState, type FlowState } from './flow-state';
+import { createFlowState } from './flow-state';
+import { computeImplicitCurve } from './implicit-curve';
+import { ImplicitExpandedNetwork } from './implicit-expanded';
+import { implicitArrivalsByStep, implicitBottlenecks, implicitDecomposeTrips, implicitRoadUsage, verifyImplicit } from './implicit-readout';
 import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice, type MaxFlowResult } from './max-flow';
-import { minimumCut } from './min-cut';
 import { perStepCapacity } from './road-timing';
 import { suggestedTimeStepSeconds, type RouteTimingError } from './route-timing';
 import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateNetwork, type SteadyStateSummary } from './steady-state';
-import { expandOverTime, nodeLimitAtHorizon, type TimeExpandedNetwork } from './time-expanded';
+import { expandOverTime } from './time-expanded';
 import { verify } from './verify';
+
+/** The time-expanded network every read-out works on (implicit-expanded.ts). */
+type TimeExpandedNetwork = ImplicitExpandedNetwork;
 
 export type EvacuationPhase = 'steady-state' | 'expand' | 'curve' | 'bottlenecks' | 'fixes' | 'verify';
 
@@ -236,7 +241,7 @@ function steadyStatePhase(run: SolveRun): SteadyPhase {
 /** The time-expanded network, and the warning when its route times drift past one step. */
 function expansionPhase(run: SolveRun): TimeExpandedNetwork {
   run.progress('expand', 0);
-  const expanded = expandOverTime(run.problem);
+  const expanded = new ImplicitExpandedNetwork(run.problem);
   const routeWarning = routeTimingWarning(expanded.routeTiming, run.problem);
   if (routeWarning) run.warnings.push(routeWarning);
   run.lap('expand');
@@ -244,43 +249,58 @@ function expansionPhase(run: SolveRun): TimeExpandedNetwork {
   return expanded;
 }
 
-type CurvePhase = { curve: CurveComputation; state: FlowState; algorithm: MaxFlowAlgorithm };
+/**
+ * The curve's outcome: `residual` holds the final horizon's maximum flow in the implicit layout;
+ * `takeCut()` the cut horizon's (after which `residual` may hold that one instead).
+ */
+type CurvePhase = { curve: CurveComputation; residual: Int32Array; takeCut: () => Int32Array; algorithm: MaxFlowAlgorithm };
 
-/** The evacuation curve: the maximum flow at every horizon, ending with the final horizon's flow in `state`. */
+/**
+ * The evacuation curve: the maximum flow at every horizon. Incremental BFS (the default) runs on
+ * the implicit network itself; the other algorithms run on the explicit layout (time-expanded.ts),
+ * whose residual is then carried over into the implicit layout for the read-outs.
+ */
 function curvePhase(run: SolveRun, expanded: TimeExpandedNetwork): CurvePhase {
   const { options, choice } = run;
   const T = run.problem.horizonSteps;
   const algorithm: MaxFlowAlgorithm = choice === 'auto' ? 'incremental-bfs' : choice;
   run.progress('curve', 0);
-  const state = createFlowState(expanded.network);
-  const curve = computeEvacuationCurve(expanded, run.demand, state, {
-    algorithm,
-    cutHorizon: options.bottleneckStep === undefined ? undefined : Math.max(0, Math.min(T, options.bottleneckStep)),
-    onHorizon: (t) => run.progress('curve', T === 0 ? 1 : t / T),
-    shouldAbort: options.shouldAbort,
-  });
+  const cutHorizon = options.bottleneckStep === undefined ? undefined : Math.max(0, Math.min(T, options.bottleneckStep));
+  const onHorizon = (t: number): void => run.progress('curve', T === 0 ? 1 : t / T);
+  let phase: CurvePhase;
+  if (algorithm === 'incremental-bfs') {
+    const residual = expanded.createResidual();
+    const curve = computeImplicitCurve(expanded, run.demand, residual, { cutHorizon, onHorizon, shouldAbort: options.shouldAbort });
+    phase = { curve, residual, takeCut: curve.takeCutResidual, algorithm };
+  } else {
+    const explicit = expandOverTime(run.problem);
+    const state = createFlowState(explicit.network);
+    const curve = computeEvacuationCurve(explicit, run.demand, state, { algorithm, cutHorizon, onHorizon, shouldAbort: options.shouldAbort });
+    const residual = expanded.residualFromExplicit(explicit, state.residual);
+    phase = { curve, residual, takeCut: () => expanded.residualFromExplicit(explicit, curve.takeCutResidual()), algorithm };
+  }
   run.lap('curve');
   run.progress('curve', 1);
-  return { curve, state, algorithm };
+  return phase;
 }
 
 type PlanReadOut = { usage: RoadUsage; trips: TripSummary; byStep: number[]; delivered: number };
 
 /** Road use, trips and arrivals of the final plan, checked by verify() on request. */
-function planReadOut(run: SolveRun, expanded: TimeExpandedNetwork, { curve, state }: CurvePhase): PlanReadOut {
+function planReadOut(run: SolveRun, expanded: TimeExpandedNetwork, { curve, residual }: CurvePhase): PlanReadOut {
   const { problem } = run;
   run.progress('bottlenecks', 0);
-  const usage = roadUsage(expanded, state, problem.roads.length);
-  const trips = decomposeTrips(expanded, state, problem.zones.length, problem.shelters.length, {
+  const usage = implicitRoadUsage(expanded, residual, problem.roads.length);
+  const trips = implicitDecomposeTrips(expanded, residual, problem.zones.length, problem.shelters.length, {
     from: problem.roads.map((road) => road.from),
     to: problem.roads.map((road) => road.to),
     travelTimeSeconds: problem.roads.map((road) => road.travelTimeSeconds),
   });
-  const byStep = arrivalsByStep(expanded, state);
+  const byStep = implicitArrivalsByStep(expanded, residual);
   const delivered = curve.deliveredByStep[curve.finalHorizon]!;
   run.lap('bottlenecks');
   if (run.options.verify) {
-    verifyExpandedFlow(run, expanded, state.residual, curve.finalHorizon, delivered, 'time-expanded flow');
+    verifyExpandedFlow(run, expanded, residual, curve.finalHorizon, delivered, 'time-expanded flow');
     if (trips.zoneDelivered.reduce((a, b) => a + b, 0) !== delivered) run.problems.push('trips do not add up to the delivered total');
     run.lap('verify');
   }
@@ -288,9 +308,9 @@ function planReadOut(run: SolveRun, expanded: TimeExpandedNetwork, { curve, stat
 }
 
 /** The minimum cut at the cut horizon: what holds the arrivals down. */
-function cutPhase(run: SolveRun, expanded: TimeExpandedNetwork, { curve }: CurvePhase): TimeExpandedBottlenecks {
-  const cutResidual = curve.takeCutResidual();
-  const bottlenecks = timeExpandedBottlenecks(expanded, cutResidual, curve.cutHorizon);
+function cutPhase(run: SolveRun, expanded: TimeExpandedNetwork, { curve, takeCut }: CurvePhase): TimeExpandedBottlenecks {
+  const cutResidual = takeCut();
+  const bottlenecks = implicitBottlenecks(expanded, cutResidual, curve.cutHorizon);
   run.lap('bottlenecks');
   if (run.options.verify) {
     const value = curve.deliveredByStep[curve.cutHorizon]!;
@@ -303,16 +323,7 @@ function cutPhase(run: SolveRun, expanded: TimeExpandedNetwork, { curve }: Curve
 
 /** verify() on the flow held in `residual` at a horizon, its value and its cut. */
 function verifyExpandedFlow(run: SolveRun, expanded: TimeExpandedNetwork, residual: Int32Array, horizon: number, value: number, what: string): void {
-  const { network, source, sink } = expanded;
-  const nodeLimit = nodeLimitAtHorizon(expanded, horizon);
-  collect(run.problems, what, verify(network, {
-    source,
-    sink,
-    nodeLimit,
-    value,
-    flow: arcFlows(network, { residual }),
-    minCut: minimumCut(network, residual, source, nodeLimit),
-  }).problems);
+  collect(run.problems, what, verifyImplicit(expanded, residual, horizon, value).problems);
 }
 
 type FixesPhase = { fixes: RoadFix[]; truncated: boolean };
@@ -369,7 +380,7 @@ function assembleResult(run: SolveRun, { steady, expanded, curve: { curve, algor
     stats: {
       algorithm: { steadyState: steady.result.algorithm, curve: algorithm },
       steadyStateNetwork: { nodes: steady.steady.network.nodeCount, arcs: steady.steady.network.arcCount },
-      timeExpandedNetwork: { nodes: expanded.network.nodeCount, arcs: expanded.network.arcCount },
+      timeExpandedNetwork: { nodes: expanded.nodeCount, arcs: expanded.arcCount },
       augmentations: steady.result.stats.augmentations + curve.stats.augmentations,
       ...(options.now ? { timingsMs: run.timings } : {}),
     },

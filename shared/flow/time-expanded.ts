@@ -110,49 +110,10 @@ type AddArc = (tail: number, head: number, cap: number, kind: ExpandedArcKind, r
  * so no list of arcs is held beside the network (12 bytes per arc less at the peak).
  */
 export function expandOverTime(problem: EvacuationProblem, options: ExpandOptions = {}): TimeExpandedNetwork {
-  const { nodeCount: N, roads, zones, shelters, timeStepSeconds: dt, horizonSteps: T } = problem;
-  const R = roads.length;
-  const Z = zones.length;
-  const S = shelters.length;
-  const source = 0;
-  const sink = 1;
-  const layerBase = 2 + S;
-  const gateOf = new Int32Array(Z).fill(-1);
-  let gates = 0;
-  zones.forEach((zone, z) => {
-    if (zone.releaseVehPerHour !== undefined) gateOf[z] = gates++;
-  });
-  const layerSize = N + Z + gates;
-  const nodeTotal = layerBase + (T + 1) * layerSize;
-  if (nodeTotal > 0x7fffffff) throw new RangeError(`time-expanded network too large: ${nodeTotal} nodes`);
-
-  const { steps: roadTravelSteps, timing: routeTiming } = routeTravelSteps(problem);
-  const roadStepCapacity = new Int32Array(R);
-  roads.forEach((road, e) => {
-    roadStepCapacity[e] = perStepCapacity(road.capacityVehPerHour, dt);
-  });
-  const holdoverCapacity = nodeStorage(problem);
-  const releases = zones.map((zone) => releaseSchedule(zone, T));
-  const entries = zones.map((zone) => [...new Set(zone.entryNodes)]);
-  const intake = shelters.map((s) =>
-    s.intakeVehPerHour === undefined ? UNBOUNDED_CAPACITY : perStepCapacity(s.intakeVehPerHour, dt),
-  );
-  const window = options.prune === false
-    ? null
-    : stepWindow({
-        nodeCount: N,
-        horizonSteps: T,
-        roadFrom: roads.map((road) => road.from),
-        roadTo: roads.map((road) => road.to),
-        travelSteps: roadTravelSteps,
-        stepCapacity: roadStepCapacity,
-        zoneEntries: entries,
-        zoneFirstRelease: releases.map((counts) => counts.findIndex((c) => c > 0)),
-        shelterNodes: shelters.map((s) => s.node),
-      });
-  const earliest = window?.earliest ?? new Int32Array(N);
-  const latest = window?.latest ?? new Int32Array(N).fill(T);
-  const closed = closedSteps(problem);
+  const basics = expansionBasics(problem, options);
+  const { roads, zones, shelters, timeStepSeconds: dt, horizonSteps: T } = problem;
+  const { N, R, Z, source, sink, layerBase, gateOf, layerSize, nodeTotal, roadTravelSteps, routeTiming, roadStepCapacity } = basics;
+  const { holdoverCapacity, releases, entries, intake, earliest, latest, closed } = basics;
 
   const layerArcStart = new Int32Array(T + 2);
   const emit = (add: AddArc, count: { m: number }): void => {
@@ -252,6 +213,83 @@ export function expandOverTime(problem: EvacuationProblem, options: ExpandOption
     roadStepCapacity,
     releases,
     holdoverCapacity,
+  };
+}
+
+/** What both layouts of the time-expanded network (this one and implicit-expanded.ts) derive from the problem. */
+export interface ExpansionBasics {
+  readonly N: number;
+  readonly R: number;
+  readonly Z: number;
+  readonly S: number;
+  readonly source: number;
+  readonly sink: number;
+  readonly layerBase: number;
+  /** Per zone, the index of its release-rate gate among the gates, or −1. */
+  readonly gateOf: Int32Array;
+  readonly layerSize: number;
+  readonly nodeTotal: number;
+  readonly roadTravelSteps: Int32Array;
+  readonly routeTiming: RouteTimingError;
+  readonly roadStepCapacity: Int32Array;
+  readonly holdoverCapacity: Int32Array;
+  readonly releases: Int32Array[];
+  /** Each zone's entry nodes, each once. */
+  readonly entries: number[][];
+  /** Per shelter, its intake per step (UNBOUNDED_CAPACITY when none is given). */
+  readonly intake: number[];
+  /** The step window (step-window.ts), or every step when not pruned. */
+  readonly earliest: Int32Array;
+  readonly latest: Int32Array;
+  readonly closed: (Uint8Array | undefined)[] | null;
+}
+
+/** Sizes, per-step capacities, road steps, releases and the step window of a validated problem. */
+export function expansionBasics(problem: EvacuationProblem, options: ExpandOptions = {}): ExpansionBasics {
+  const { nodeCount: N, roads, zones, shelters, timeStepSeconds: dt, horizonSteps: T } = problem;
+  const R = roads.length;
+  const Z = zones.length;
+  const S = shelters.length;
+  const layerBase = 2 + S;
+  const gateOf = new Int32Array(Z).fill(-1);
+  let gates = 0;
+  zones.forEach((zone, z) => {
+    if (zone.releaseVehPerHour !== undefined) gateOf[z] = gates++;
+  });
+  const layerSize = N + Z + gates;
+  const nodeTotal = layerBase + (T + 1) * layerSize;
+  if (nodeTotal > 0x7fffffff) throw new RangeError(`time-expanded network too large: ${nodeTotal} nodes`);
+
+  const { steps: roadTravelSteps, timing: routeTiming } = routeTravelSteps(problem);
+  const roadStepCapacity = new Int32Array(R);
+  roads.forEach((road, e) => {
+    roadStepCapacity[e] = perStepCapacity(road.capacityVehPerHour, dt);
+  });
+  const holdoverCapacity = nodeStorage(problem);
+  const releases = zones.map((zone) => releaseSchedule(zone, T));
+  const entries = zones.map((zone) => [...new Set(zone.entryNodes)]);
+  const intake = shelters.map((s) =>
+    s.intakeVehPerHour === undefined ? UNBOUNDED_CAPACITY : perStepCapacity(s.intakeVehPerHour, dt),
+  );
+  const window = options.prune === false
+    ? null
+    : stepWindow({
+        nodeCount: N,
+        horizonSteps: T,
+        roadFrom: roads.map((road) => road.from),
+        roadTo: roads.map((road) => road.to),
+        travelSteps: roadTravelSteps,
+        stepCapacity: roadStepCapacity,
+        zoneEntries: entries,
+        zoneFirstRelease: releases.map((counts) => counts.findIndex((c) => c > 0)),
+        shelterNodes: shelters.map((s) => s.node),
+      });
+  const earliest = window?.earliest ?? new Int32Array(N);
+  const latest = window?.latest ?? new Int32Array(N).fill(T);
+  const closed = closedSteps(problem);
+  return {
+    N, R, Z, S, source: 0, sink: 1, layerBase, gateOf, layerSize, nodeTotal, roadTravelSteps, routeTiming, roadStepCapacity,
+    holdoverCapacity, releases, entries, intake, earliest, latest, closed,
   };
 }
 
