@@ -20,6 +20,7 @@ import { refuseNulText } from './middleware/refuse-nul-text';
 import { apiNotFound } from './middleware/not-found';
 import { uploadLimits } from './middleware/upload-slots';
 import { createAnswerCache } from './http/answer-cache';
+import { planExportsRouter } from './routes/plan-exports';
 import { mapTilesRouter } from './routes/map-tiles';
 import { authRouter, sessionCookieName } from './routes/auth';
 import { plansRouter } from './routes/plans';
@@ -152,6 +153,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', proposalsRouter(db, config, proposalQueue));
   app.use('/api/plans/:planId', sweepsRouter(db, config, runQueue));
   app.use('/api/plans/:planId', mapTilesRouter(db, answers));
+  app.use('/api/plans/:planId', planExportsRouter(db, config));
   app.use('/api/members', membersRouter(db, config));
   app.use('/api/audit', auditRouter(db));
   app.use('/api/settings', settingsRouter(settings, db, config.BRIEFING_TIME_ZONE));

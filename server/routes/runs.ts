@@ -12,6 +12,9 @@ import type { Database } from '../db/client';
 import { ConflictError } from '../errors';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { arcsGeoJson } from '../services/run-exports';
+import { runResultsBundle } from '../services/run-results-export';
+import { exportContentTypes } from '../export/write-export';
+import { writeExportFile } from '../export/write-export-in-worker';
 import { getRunHead, getRunRow, isFinishedRun, listRuns, markCancelled, runWithResultJson } from '../services/runs';
 import { startRuns } from '../services/start-runs';
 import type { RunEnqueuer } from '../queue/run-enqueuer';
@@ -83,6 +86,17 @@ export function runsRouter(db: Database, config: Config, queue: RunEnqueuer, ans
     const body = { type: collection.type, cutline: identityObject(await identity('Run results: roads (each direction)')), features: collection.features };
     res.attachment(`run-${row.id.slice(0, 8)}-arcs.geojson`).type('application/geo+json').send(JSON.stringify(body));
   });
+
+  // The results as one file of every table (roads, zones, shelters, curve).
+  for (const [file, format] of [['results.gpkg', 'gpkg'], ['results.kml', 'kml']] as const) {
+    router.get(`/runs/:runId/export/${file}`, requireMember('plans:read'), async (req, res) => {
+      const { row, result } = await finishedResult(req);
+      const { planId } = runParamsSchema.parse(req.params);
+      const bundle = await runResultsBundle(db, actorOf(req).organizationId, planId, row, result, config.BRIEFING_TIME_ZONE);
+      const bytes = await writeExportFile({ format, bundle });
+      res.attachment(`run-${row.id.slice(0, 8)}-${file}`).type(exportContentTypes[format]).send(Buffer.from(bytes));
+    });
+  }
 
   return router;
 }

@@ -33,6 +33,10 @@ export const propertyMappingSchema = z.object({
   /** Layer or level: roads that cross on different layers are not joined. */
   layer: z.string().min(1).optional(),
   id: z.string().min(1).optional(),
+  /** Closed to traffic (a planner's closure, e.g. in a file Cutline wrote): flag values as for bridge. */
+  closed: z.string().min(1).optional(),
+  /** Capacity per lane that replaces the class value, veh/h per lane (empty: the class value). */
+  capacityPerLane: z.string().min(1).optional(),
 });
 export type PropertyMapping = z.infer<typeof propertyMappingSchema>;
 

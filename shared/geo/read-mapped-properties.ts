@@ -3,7 +3,7 @@ import { drivableRoadClasses } from '../api/road-attributes';
 import { type PropertyMapping } from '../api/road-import';
 import type { RoadReading, Tags } from './read-road-tags';
 import { readRoadTags } from './read-road-tags';
-import { parseText } from './parse-tag-values';
+import { parseFlag, parseText } from './parse-tag-values';
 
 const drivable = new Set<string>(drivableRoadClasses);
 
@@ -46,7 +46,21 @@ export function readMappedProperties(properties: Tags, mapping: PropertyMapping)
     tags[tag] = value;
     labels[tag] = property;
   }
-  return readRoadTags(tags, (key) => labels[key] ?? key);
+  const reading = readRoadTags(tags, (key) => labels[key] ?? key);
+  if (reading.kind === 'keep') readEdits(properties, mapping, reading);
+  return reading;
+}
+
+/** A closure and a per-lane capacity override, as a file Cutline wrote carries them (no OSM tag
+ *  holds either). A capacity that is not a number in the schema's range is listed as unread. */
+function readEdits(properties: Tags, mapping: PropertyMapping, reading: Extract<RoadReading, { kind: 'keep' }>): void {
+  if (mapping.closed !== undefined) reading.attributes.closed = parseFlag(properties[mapping.closed]) ?? false;
+  if (mapping.capacityPerLane === undefined) return;
+  const raw = parseText(properties[mapping.capacityPerLane]);
+  if (raw === undefined) return;
+  const n = Number(raw);
+  if (Number.isFinite(n) && n > 0 && n <= 5000) reading.attributes.capacityOverrideVehPerHourPerLane = n;
+  else reading.unread.push({ key: mapping.capacityPerLane, value: raw });
 }
 
 /** Properties read as OSM tags: osmtogeojson nests them under `tags`, other tools flatten them. */

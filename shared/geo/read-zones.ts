@@ -43,6 +43,15 @@ function curveFrom(p: Record<string, unknown>): unknown {
   }
   if (present(curve)) return curve;
   const kind = p['departure'];
+  // A file Cutline wrote holds the whole curve as JSON text in `departure` (a Shapefile's .dbf
+  // allows no longer column name).
+  if (typeof kind === 'string' && kind.trimStart().startsWith('{')) {
+    try {
+      return JSON.parse(kind);
+    } catch {
+      return kind;
+    }
+  }
   if (!present(kind)) return undefined;
   return {
     kind,
@@ -110,7 +119,7 @@ function readZone(f: RawFeature): ZoneFeature | string {
 /**
  * Zones from GeoJSON. Properties: name, population (required), participationRate (0–1),
  * personsPerVehicle, and the departure curve either as `departureCurve` (an object or its
- * JSON text, see departureCurveSchema) or flat: `departure` = allAtOnce | uniform | logistic
+ * JSON text, see departureCurveSchema; or as that JSON text in `departure`) or flat: `departure` = allAtOnce | uniform | logistic
  * | rayleigh with durationHours / responseRatePerHour + halfLoadingHours / sigmaHours.
  * @throws RoadImportError `unreadableFile` | `wrongCrs` | `badFeatures`
  */

@@ -296,7 +296,7 @@ const rows: Row[] = [
     expect: otherOrganizationOnly(writers(200)),
     call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.queuedRunId } }),
   },
-  ...(['choke-points.csv', 'curve.csv', 'arcs.geojson'] as const).flatMap((file): Row[] => [
+  ...(['choke-points.csv', 'curve.csv', 'arcs.geojson', 'results.gpkg', 'results.kml'] as const).flatMap((file): Row[] => [
     { route: `GET /api/plans/:planId/runs/:runId/export/${file}`, expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId } }) },
     {
       route: `GET /api/plans/:planId/runs/:runId/export/${file}`,
@@ -305,6 +305,10 @@ const rows: Row[] = [
       call: (f) => ({ params: { planId: f.far.planId, runId: f.plan.runId } }),
     },
   ]),
+  // The plan's inputs as files (server/routes/plan-exports.ts).
+  ...(['plan-inputs.gpkg', 'plan-inputs.zip', 'roads.geojson', 'zones.geojson', 'shelters.geojson'] as const).map(
+    (file): Row => ({ route: `GET /api/plans/:planId/export/${file}`, expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) }),
+  ),
   // The map's tiles and per-road reads (server/routes/map-tiles.ts).
   { route: 'GET /api/plans/:planId/tiles/roads/:z/:x/:y', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, z: 12, x: 2048, y: 2047 } }) },
   { route: 'GET /api/plans/:planId/runs/:runId/tiles/:z/:x/:y', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, runId: f.plan.runId, z: 12, x: 2048, y: 2047 } }) },
