@@ -15,6 +15,6 @@ export const getRun = (planId: string, runId: string, signal?: AbortSignal) =>
   request('GET', `${base(planId)}/${runId}`, runWithResultSchema, undefined, { signal });
 export const cancelRun = (planId: string, runId: string) => request('POST', `${base(planId)}/${runId}/cancel`, runSchema);
 
-export type RunExport = 'arcs.geojson' | 'choke-points.csv' | 'curve.csv';
+export type RunExport = 'arcs.geojson' | 'choke-points.csv' | 'curve.csv' | 'results.gpkg' | 'results.kml';
 /** A plain link: the browser downloads it with the session cookie. */
 export const runExportUrl = (planId: string, runId: string, file: RunExport) => `/api${base(planId)}/${runId}/export/${file}`;

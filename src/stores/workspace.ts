@@ -5,7 +5,7 @@ import { defineStore } from 'pinia';
 import { computed, ref } from 'vue';
 import type { Plan } from '@shared/api/plans';
 import type { ZoneGeometry } from '@shared/api/zones-shelters';
-import { getPlan } from '@/api/plans';
+import { getPlan, planInputsUrl, type PlanInputsFile } from '@/api/plans';
 import { ApiError } from '@/api/api-error';
 import type { Bbox } from '@/map/viewport';
 import { messageOf } from '../format/error-message';
@@ -113,9 +113,13 @@ export const useWorkspaceStore = defineStore('workspace', () => {
     drawMode.value = null;
   }
 
+  /** A link to one of the plan's input files (as they stand after edits and closures). */
+  const inputsFileUrl = (file: PlanInputsFile) => (planId.value ? planInputsUrl(planId.value, file) : '');
+
   return {
     planId,
     plan,
+    inputsFileUrl,
     error,
     tab,
     selection,

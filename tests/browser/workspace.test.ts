@@ -143,9 +143,17 @@ it('goes from the plans list to choke points on the map', async () => {
   expect(await limits.locator('[data-test^="arrival-limit-"]').count()).toBeGreaterThan(0);
   await page.screenshot({ path: path.join(screenshotDir, 'workspace-arrival-limits-1366x768.png') });
 
-  // The downloads answer with the run's arcs, choke points and curve.
-  for (const [label, type] of [['Roads with flows', 'geo+json'], ['Choke points', 'text/csv'], ['Curve', 'text/csv']] as const) {
-    const href = await page.locator('[data-test="exports"] a', { hasText: label }).getAttribute('href');
+  // The downloads answer with the run's arcs, choke points and curve, and every table in one GeoPackage or KML.
+  await page.locator('[data-test="exports"]').scrollIntoViewIfNeeded();
+  await page.screenshot({ path: path.join(screenshotDir, 'workspace-run-files-1366x768.png') });
+  for (const [file, type] of [
+    ['arcs.geojson', 'geo+json'],
+    ['choke-points.csv', 'text/csv'],
+    ['curve.csv', 'text/csv'],
+    ['results.gpkg', 'application/geopackage+sqlite3'],
+    ['results.kml', 'application/vnd.google-earth.kml+xml'],
+  ] as const) {
+    const href = await page.locator(`[data-test="run-file-${file}"]`).getAttribute('href');
     const answer = await page.request.get(`${server.url}${href}`);
     expect(answer.status()).toBe(200);
     expect(answer.headers()['content-type']).toContain(type);
