@@ -13,6 +13,8 @@ import { useRoadLayerStore } from './road-layer';
 import { useRunsStore } from './runs';
 import { useZonesSheltersStore } from './zones-shelters';
 
+export type { PlanInputsFile } from '@/api/plans';
+
 export type WorkspaceTab = 'roads' | 'zones' | 'shelters' | 'assumptions' | 'findings';
 export type Selection = { kind: 'segment' | 'zone' | 'shelter' | 'chokePoint'; id: number | string } | null;
 export type DrawMode = 'zone' | 'shelter' | null;
