@@ -129,12 +129,17 @@ export function distinctValues(features: readonly PreviewFeature[], field: FileF
 const GUESSES: { key: string; pattern: RegExp }[] = [
   { key: 'roadClass', pattern: /^(highway|road_?class|rd_?class|func_?class|fclass|fcc|class|cfcc|road_?type|type)$/i },
   { key: 'lanes', pattern: /^(lanes|num_?lanes|lane_?count|lane_?cnt|no_?lanes)$/i },
-  { key: 'speed', pattern: /^(maxspeed|speed|spd|speed_?lim(it)?|spd_?lim(it)?|posted_?speed)$/i },
+  { key: 'lanesForward', pattern: /^(lanes_?(fwd|forward|ft))$/i },
+  { key: 'lanesBackward', pattern: /^(lanes_?(bwd|backward|tf))$/i },
+  // speed_kmh / speed_mph: the road files Cutline writes (their unit in the name).
+  { key: 'speed', pattern: /^(maxspeed|speed|spd|speed_?lim(it)?|spd_?lim(it)?|posted_?speed|speed_?(kmh|mph))$/i },
   { key: 'oneway', pattern: /^(oneway|one_?way|dir|direction|flow_?dir)$/i },
   { key: 'name', pattern: /^(name|full_?name|st_?name|street|street_?name|rd_?name|road_?name|label)$/i },
   { key: 'bridge', pattern: /^(bridge|is_?bridge|brdg)$/i },
   { key: 'tunnel', pattern: /^(tunnel|is_?tunnel|tunl)$/i },
   { key: 'layer', pattern: /^(layer|level|z_?lev(el)?|grade_?level)$/i },
+  { key: 'closed', pattern: /^(closed|is_?closed)$/i },
+  { key: 'capacityPerLane', pattern: /^(cap_?lane|capacity_?per_?lane|lane_?capacity)$/i },
   { key: 'population', pattern: /^(population|pop|pop_?total|total_?pop|residents|pop\d*)$/i },
   { key: 'participationRate', pattern: /^(participation(_?rate)?|particip|evac_?rate|compliance)$/i },
   { key: 'personsPerVehicle', pattern: /^(persons_?per_?vehicle|ppv|occupancy|veh_?occ)$/i },

@@ -33,6 +33,9 @@ export type MappingAnswer = { kind: 'roads'; options: ImportOptionsInput } | { k
 export type RoadDraft = {
   roadClass: string;
   lanes: string;
+  /** Lanes along and against the drawing direction, where the file counts them apart. */
+  lanesForward: string;
+  lanesBackward: string;
   speed: string;
   speedUnit: 'kmh' | 'mph';
   oneway: string;
@@ -40,12 +43,19 @@ export type RoadDraft = {
   bridge: string;
   tunnel: string;
   layer: string;
+  /** A closure flag and a per-lane capacity that replaces the class value (a file Cutline wrote has both). */
+  closed: string;
+  capacityPerLane: string;
   /** The file's class codes → our class, or 'drop'; '' = read as an OSM class name, else left out. */
   classValues: Record<string, RoadClass | 'drop' | ''>;
   onewayValues: Record<string, 'forward' | 'backward' | 'both' | ''>;
 };
 
-const emptyRoads = (): RoadDraft => ({ roadClass: '', lanes: '', speed: '', speedUnit: 'kmh', oneway: '', name: '', bridge: '', tunnel: '', layer: '', classValues: {}, onewayValues: {} });
+const emptyRoads = (): RoadDraft => ({
+  roadClass: '', lanes: '', lanesForward: '', lanesBackward: '', speed: '', speedUnit: 'kmh', oneway: '', name: '', bridge: '', tunnel: '', layer: '', closed: '', capacityPerLane: '', classValues: {}, onewayValues: {},
+});
+/** The road columns a guess or a preset fills, by the mapping's own names. */
+const ROAD_COLUMNS = ['roadClass', 'lanes', 'lanesForward', 'lanesBackward', 'speed', 'oneway', 'name', 'bridge', 'tunnel', 'layer', 'closed', 'capacityPerLane'] as const;
 
 const pick = (v: string) => (v.trim() === '' ? undefined : v);
 const filled = <T extends string>(r: Record<string, T | ''>) => Object.fromEntries(Object.entries(r).filter(([, v]) => v !== '')) as Record<string, T>;
@@ -84,6 +94,8 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
       roadClass: roads.roadClass,
       classValues: filled(roads.classValues),
       lanes: pick(roads.lanes),
+      lanesForward: pick(roads.lanesForward),
+      lanesBackward: pick(roads.lanesBackward),
       speed: pick(roads.speed),
       speedUnit: roads.speedUnit,
       oneway: pick(roads.oneway),
@@ -92,6 +104,8 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
       bridge: pick(roads.bridge),
       tunnel: pick(roads.tunnel),
       layer: pick(roads.layer),
+      closed: pick(roads.closed),
+      capacityPerLane: pick(roads.capacityPerLane),
     });
   });
   const zoneFields = computed(() => ({ name: pick(zones.name), population: pick(zones.population), participationRate: pick(zones.participationRate), personsPerVehicle: pick(zones.personsPerVehicle) }));
@@ -121,10 +135,8 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
       const r = m.roads;
       Object.assign(roads, emptyRoads());
       if (r) {
-        Object.assign(roads, {
-          roadClass: r.roadClass, lanes: r.lanes ?? '', speed: r.speed ?? '', speedUnit: r.speedUnit, oneway: r.oneway ?? '', name: r.name ?? '',
-          bridge: r.bridge ?? '', tunnel: r.tunnel ?? '', layer: r.layer ?? '', classValues: { ...r.classValues }, onewayValues: { ...(r.onewayValues ?? {}) },
-        });
+        for (const key of ROAD_COLUMNS) roads[key] = r[key] ?? '';
+        Object.assign(roads, { speedUnit: r.speedUnit, classValues: { ...r.classValues }, onewayValues: { ...(r.onewayValues ?? {}) } });
       }
     }
     if (p.kind === 'zones') Object.assign(zones, { name: '', population: '', participationRate: '', personsPerVehicle: '', ...m.zones });
@@ -164,7 +176,7 @@ export const useFieldMappingStore = defineStore('field-mapping', () => {
     Object.assign(roads, emptyRoads());
     // A file with OSM tags needs no mapping: its tags are read as they are.
     if (!has('highway') && !has('tags')) {
-      for (const key of ['roadClass', 'lanes', 'speed', 'oneway', 'name', 'bridge', 'tunnel', 'layer'] as const) roads[key] = g[key] ?? '';
+      for (const key of ROAD_COLUMNS) roads[key] = g[key] ?? '';
       if (/mph/i.test(roads.speed)) roads.speedUnit = 'mph';
     }
     zones.name = g['name'] ?? '';

@@ -5,6 +5,7 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { createPinia, setActivePinia } from 'pinia';
 import type { FileSchema } from '../../shared/api/road-import';
 import { ApiError } from '../../src/api/api-error';
+import { roadInputColumns, roadInputsMapping } from '../../shared/format/inputs-export';
 
 vi.mock('../../src/api/file-schema', () => ({ readFileSchema: vi.fn() }));
 vi.mock('../../src/api/mapping-presets', () => ({ listMappingPresets: vi.fn(), saveMappingPreset: vi.fn(), deleteMappingPreset: vi.fn() }));
@@ -67,6 +68,25 @@ describe('field-mapping store', () => {
         source: { layer: undefined, crs: undefined, xColumn: undefined, yColumn: undefined },
       },
     });
+  });
+
+  it('takes a road file Cutline wrote with the mapping it was written for: directional lanes, closure, capacity per lane, speed in its unit', async () => {
+    const columns = roadInputColumns('us-customary').map((c) => field(c.name));
+    vi.mocked(schemaApi.readFileSchema).mockResolvedValue({
+      ...countySchema,
+      fileName: 'plan-inputs.gpkg',
+      format: 'geopackage',
+      fields: columns,
+      preview: [line(0, { road_class: 'primary', lanes_fwd: 3, lanes_bwd: 2, oneway: false, speed_mph: 35, closed: true, cap_lane: 1350, name: 'Weir Street' })],
+    });
+    const m = useFieldMappingStore();
+    const answer = m.ask(planId, 'roads', new File(['x'], 'plan-inputs.gpkg'));
+    await vi.waitFor(() => expect(m.schema).not.toBeNull());
+    expect(m.summary.kept).toBe(1);
+    m.confirm();
+    const got = await answer;
+    const { classValues, onewayValues, ...expected } = roadInputsMapping('us-customary');
+    expect(got?.options).toMatchObject({ propertyMapping: { ...expected, classValues, onewayValues } });
   });
 
   it('shows the server\'s refusal (a projected file with no CRS) and reads again with the CRS given', async () => {
