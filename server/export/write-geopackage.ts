@@ -1,4 +1,4 @@
-// Export tables → a GeoPackage (OGC 12-128r18, GeoPackage Encoding Standard 1.4): an SQLite file
+// Export tables → a GeoPackage (OGC 12-128r18, GeoPackage Encoding Standard, written as version 1.3): an SQLite file
 // written with sql.js (the reader's SQLite, WebAssembly: no native build). It holds the core
 // tables (gpkg_spatial_ref_sys with the three required rows, gpkg_contents,
 // gpkg_geometry_columns), one feature table per layer in EPSG:4326 whose geometries are the
@@ -142,9 +142,9 @@ export async function writeGeoPackage(bundle: ExportBundle): Promise<Uint8Array>
   const SQL = await loadSqlJs();
   const db = new SQL.Database();
   try {
-    // "GPKG" and version 1.4.0 (§1.1.1.1.1).
+    // "GPKG" and version 1.3.0 (§1.1.1.1.1): nothing here needs 1.4, and Debian's GDAL warns on 1.4 files.
     db.run('PRAGMA application_id = 1196444487');
-    db.run('PRAGMA user_version = 10400');
+    db.run('PRAGMA user_version = 10300');
     db.run('BEGIN');
     db.exec(CORE_TABLES);
     db.run('INSERT INTO gpkg_spatial_ref_sys VALUES (?, ?, ?, ?, ?, ?)', ['Undefined cartesian SRS', -1, 'NONE', -1, 'undefined', 'undefined cartesian coordinate reference system']);
