@@ -1,6 +1,7 @@
 // The Save step shared by record and settings forms: a failed check sends nothing and shows the
 // field errors; a send is busy while it lasts; a refusal becomes the form's error.
 import { describe, expect, it, vi } from 'vitest';
+import { ApiError } from '../../src/api/api-error';
 import { useCheckedSave } from '../../src/composables/use-checked-save';
 import type { ParseResult } from '../../src/forms/zod-errors';
 
@@ -36,5 +37,13 @@ describe('checked save', () => {
     expect(await form.save({ n: 2 })).toBe(false);
     expect(form.errors.value.form).toContain('Only administrators can change this.');
     expect(form.busy.value).toBe(false);
+  });
+
+  it("puts the server's messages for single fields under those fields", async () => {
+    const form = useCheckedSave(positive, async () => {
+      throw new ApiError(400, 'invalid_request', 'Check the highlighted fields.', [{ path: 'title', message: 'A title is needed.' }]);
+    });
+    await form.save({ n: 1 });
+    expect(form.errors.value).toEqual({ form: 'Check the highlighted fields.', title: 'A title is needed.' });
   });
 });
