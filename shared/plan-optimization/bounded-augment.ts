@@ -90,3 +90,4 @@ export function removeArcFromFlow(
   if (back !== rest || forward !== rest) throw new Error('flow repair failed: the flow was not feasible');
   return rest;
 }
+

@@ -4,10 +4,10 @@
 // from the base maximum flow: the closed road's flow is rerouted or taken back (removeArcFromFlow),
 // then the flow is maximised again, which is exact by max-flow optimality from any feasible flow.
 // For the clearance, the base plan at its clearance step stays a warm start: the plan is split
-// into paths once (flow decomposition), the paths through the closed road's departures are taken
-// out (a feasible flow without it), and the flow is maximised again; if it still delivers
-// everyone by then, the clearance does not move, otherwise later horizons are added one at a
-// time, as the evacuation curve does.
+// into paths once (flow decomposition), the paths through the closed road's departures are cut
+// there and their vehicles rerouted from where they left the road (closedClearance); if everyone
+// is still delivered by then, the clearance does not move, otherwise a bracketed search over
+// later horizons (gallop, then bisect) finds the closed clearance with a few maximum flows.
 
 import {
   buildSteadyStateNetwork,
@@ -21,9 +21,13 @@ import {
   nodeLimitAtHorizon,
   type EvacuationProblem,
 } from '../flow';
-import { removeArcFromFlow } from './bounded-augment';
+import { augmentBetween, removeArcFromFlow } from './bounded-augment';
+import { SinkTree, type SinkTreeSnapshot } from './sink-tree';
 import { forEachFlowPath, stepOfNode } from './flow-paths';
-import { demandOf, evaluateCurve, type OptimisationHooks } from './problem-tools';
+import { demandOf, evaluateCurve, type CurveEvaluation, type OptimisationHooks } from './problem-tools';
+
+/** The solver for the warm-started closed networks; measured on the demo town (tests/bench/optimization). */
+const WARM_ALGORITHM = 'dinic' as const;
 
 export interface ClosureOptions extends OptimisationHooks {
   /** Roads to test (engine indices); default the roads carrying flow in the steady state or the plan. */
@@ -71,6 +75,134 @@ export interface ClosureRanking {
 
 const closureFrom = (at: number) => [{ fromSeconds: at, untilSeconds: null }];
 
+interface PlanPath {
+  arcs: number[];
+  vehicles: number;
+}
+/** A path of the plan that uses a road: the arc's place on the path and its departure step. */
+interface PathUse {
+  path: number;
+  position: number;
+  step: number;
+}
+
+/**
+ * The clearance with road e closed from `at` on, warm-started from the base plan at its final
+ * horizon (its clearance step, or T when it does not clear):
+ *  1. each plan path that departs on the road once it is closed is cancelled from that arc on,
+ *     which leaves its vehicles as excess at the arc's tail and no flow on the closed arcs;
+ *  2. that excess is sent on to the sink along the base plan's sink tree (kept exact under the
+ *     changes, sink-tree.ts) where the residual network allows, the rest returned to the source,
+ *     which gives a feasible flow of the closed network;
+ *  3. if anything went back to the source the flow is maximised again (exact from any feasible
+ *     flow); if nothing did, its value equals the base maximum, which a network with one road
+ *     fewer cannot exceed, so it is already maximum;
+ *  4. if the demand is not met by the base's clearance step, the closed clearance lies later: the
+ *     search gallops over horizons (c + 1, c + 2, c + 4, …, T) and bisects the last bracket, each
+ *     probe maximising from the largest failing horizon's flow (horizons are nested, so that flow
+ *     stays feasible) instead of solving every horizon in between.
+ */
+function closedClearance(
+  problem: EvacuationProblem,
+  curve: CurveEvaluation,
+  paths: readonly PlanPath[],
+  baseTree: SinkTreeSnapshot,
+  uses: readonly PathUse[],
+  arcsOfRoad: readonly number[],
+  at: number,
+  demand: number,
+  shouldAbort: (() => boolean) | undefined,
+): { clearanceStep: number | null; delivered: number; probes: number } {
+  const { expanded } = curve;
+  const { network, source, sink } = expanded;
+  const { residualOfArc, mate, head } = network;
+  const dt = problem.timeStepSeconds;
+  const T = problem.horizonSteps;
+  const closed = closureFrom(at);
+  const state = copyFlowState(curve.state);
+  const { residual } = state;
+  const firstHorizon = curve.finalHorizon;
+  const firstLimit = nodeLimitAtHorizon(expanded, firstHorizon);
+  const tree = new SinkTree(network, residual, sink, firstLimit, baseTree);
+
+  const cutAt = new Map<number, number>();
+  for (const { path, position, step } of uses) {
+    if (!closedAtStep(closed, step, dt)) continue;
+    const known = cutAt.get(path);
+    if (known === undefined || position < known) cutAt.set(path, position);
+  }
+  const excess = new Map<number, number>();
+  for (const [path, position] of cutAt) {
+    const { arcs, vehicles } = paths[path]!;
+    for (let i = position; i < arcs.length; i++) {
+      const r = residualOfArc[arcs[i]!]!;
+      residual[r]! += vehicles;
+      residual[mate[r]!]! -= vehicles;
+      tree.changed(r);
+      tree.changed(mate[r]!);
+    }
+    const tail = head[mate[residualOfArc[arcs[position]!]!]!]!;
+    excess.set(tail, (excess.get(tail) ?? 0) + vehicles);
+  }
+  // The closed departures now carry nothing; they take nothing either.
+  for (const arc of arcsOfRoad) {
+    const tail = head[mate[residualOfArc[arc]!]!]!;
+    if (closedAtStep(closed, stepOfNode(expanded, tail), dt)) {
+      residual[residualOfArc[arc]!] = 0;
+      tree.changed(residualOfArc[arc]!);
+    }
+  }
+  tree.settle();
+  let returned = 0;
+  for (const [tail, amount] of [...excess].sort((a, b) => a[0] - b[0])) {
+    const rest = amount - tree.sendToSink(state, tail, amount);
+    if (rest > 0 && augmentBetween(network, state, tail, source, rest, firstLimit) !== rest) {
+      throw new Error('flow repair failed: the excess could not return to the source');
+    }
+    returned += rest;
+  }
+  if (returned > 0) maximiseInPlace(network, source, sink, state, { nodeLimit: firstLimit, shouldAbort, algorithm: WARM_ALGORITHM });
+  let delivered = netOutflow(network, state, source, firstLimit);
+  let probes = 1;
+  if (delivered >= demand) return { clearanceStep: firstHorizon, delivered, probes };
+  if (firstHorizon >= T) return { clearanceStep: null, delivered, probes };
+
+  // Gallop: the flow at `low` (largest horizon known to fall short) is the warm start of every probe.
+  let low = firstHorizon;
+  let lowState = state;
+  let lowDelivered = delivered;
+  let high: number | null = null;
+  const probe = (horizon: number) => {
+    probes++;
+    const work = copyFlowState(lowState);
+    const limit = nodeLimitAtHorizon(expanded, horizon);
+    maximiseInPlace(network, source, sink, work, { nodeLimit: limit, shouldAbort, algorithm: WARM_ALGORITHM });
+    return { work, delivered: netOutflow(network, work, source, limit) };
+  };
+  for (let stride = 1; high === null && low < T; stride *= 2) {
+    const horizon = Math.min(T, low + stride);
+    const next = probe(horizon);
+    if (next.delivered >= demand) high = horizon;
+    else {
+      low = horizon;
+      lowState = next.work;
+      lowDelivered = next.delivered;
+    }
+  }
+  if (high === null) return { clearanceStep: null, delivered: lowDelivered, probes };
+  let found: number = high;
+  while (found - low > 1) {
+    const middle: number = (low + found) >> 1;
+    const next = probe(middle);
+    if (next.delivered >= demand) found = middle;
+    else {
+      low = middle;
+      lowState = next.work;
+    }
+  }
+  return { clearanceStep: found, delivered: demand, probes };
+}
+
 export function rankClosures(problem: EvacuationProblem, options: ClosureOptions = {}): ClosureRanking {
   const at = options.closeAtSeconds ?? 0;
   const abort = options.shouldAbort;
@@ -83,8 +215,8 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
   const planVehicles = new Float64Array(R);
   const roadArcs: number[][] = Array.from({ length: R }, () => []);
   // The plan as paths; per road, the paths that use it (with the step they enter it).
-  const paths: { arcs: number[]; vehicles: number }[] = [];
-  const pathsOfRoad: { path: number; step: number }[][] = Array.from({ length: R }, () => []);
+  const paths: PlanPath[] = [];
+  const pathsOfRoad: PathUse[][] = Array.from({ length: R }, () => []);
   if (curve) {
     const { expanded, state } = curve;
     const { network, arcKind, arcRef } = expanded;
@@ -96,11 +228,11 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
     forEachFlowPath(expanded, state, (path) => {
       const id = paths.length;
       paths.push({ arcs: path.arcs, vehicles: path.vehicles });
-      for (const a of path.arcs) {
-        if (arcKind[a] !== ExpandedArcKind.Road) continue;
+      path.arcs.forEach((a, position) => {
+        if (arcKind[a] !== ExpandedArcKind.Road) return;
         const tail = network.head[network.mate[network.residualOfArc[a]!]!]!;
-        pathsOfRoad[arcRef[a]!]!.push({ path: id, step: stepOfNode(expanded, tail) });
-      }
+        pathsOfRoad[arcRef[a]!]!.push({ path: id, position, step: stepOfNode(expanded, tail) });
+      });
     });
   }
 
@@ -129,47 +261,19 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
       .sort((a, b) => steadyLoss.get(b)! - steadyLoss.get(a)! || planVehicles[b]! - planVehicles[a]! || a - b)
       .slice(0, curve ? (options.maxClearanceTests ?? 20) : 0),
   );
+  // The base plan's sink tree, grown once; every tested closure starts from a copy.
+  const baseTree = curve && tested.size > 0
+    ? new SinkTree(curve.expanded.network, curve.state.residual, curve.expanded.sink, nodeLimitAtHorizon(curve.expanded, curve.finalHorizon)).snapshot()
+    : null;
   let done = 0;
   pool.forEach((e) => {
     let clearanceStep: number | null = null;
     let deliveredLoss = 0;
     let clearanceLoss: number | null = null;
     if (curve && tested.has(e)) {
-      const { expanded } = curve;
-      const { network, source, sink } = expanded;
-      const dt = problem.timeStepSeconds;
-      const T = problem.horizonSteps;
-      const state = copyFlowState(curve.state);
-      let horizon = curve.finalHorizon;
-      const limitNow = nodeLimitAtHorizon(expanded, horizon);
-      // Take out every path that departs on the road once it is closed (each path once).
-      const taken = new Set<number>();
-      for (const { path, step } of pathsOfRoad[e]!) {
-        if (taken.has(path) || !closedAtStep(closureFrom(at), step, dt)) continue;
-        taken.add(path);
-        const { arcs, vehicles } = paths[path]!;
-        for (const a of arcs) {
-          const r = network.residualOfArc[a]!;
-          state.residual[r]! += vehicles;
-          state.residual[network.mate[r]!]! -= vehicles;
-        }
-      }
-      // Then the road's closed departures carry nothing and take nothing.
-      for (const arc of roadArcs[e]!) {
-        const tail = network.head[network.mate[network.residualOfArc[arc]!]!]!;
-        if (closedAtStep(closureFrom(at), stepOfNode(expanded, tail), dt)) state.residual[network.residualOfArc[arc]!] = 0;
-      }
-      // Boykov–Kolmogorov measured fastest for this warm start on the demo town (tests/bench/optimization).
-      maximiseInPlace(network, source, sink, state, { nodeLimit: limitNow, shouldAbort: abort, algorithm: 'boykov-kolmogorov' });
-      let delivered = netOutflow(network, state, source, limitNow);
-      while (delivered < demand && horizon < T) {
-        horizon++;
-        const limitNext = nodeLimitAtHorizon(expanded, horizon);
-        maximiseInPlace(network, source, sink, state, { nodeLimit: limitNext, shouldAbort: abort, algorithm: 'boykov-kolmogorov' });
-        delivered = netOutflow(network, state, source, limitNext);
-      }
-      clearanceStep = delivered >= demand ? horizon : null;
-      deliveredLoss = curve.deliveredAtHorizon - delivered;
+      const outcome = closedClearance(problem, curve, paths, baseTree!, pathsOfRoad[e]!, roadArcs[e]!, at, demand, abort);
+      clearanceStep = outcome.clearanceStep;
+      deliveredLoss = curve.deliveredAtHorizon - outcome.delivered;
       clearanceLoss = clearanceStep !== null && curve.clearanceStep !== null ? clearanceStep - curve.clearanceStep : null;
     }
     impacts.push({

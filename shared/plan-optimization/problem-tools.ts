@@ -8,6 +8,9 @@ import {
   expandOverTime,
   FlowAbortedError,
   maxFlow,
+  maximiseInPlace,
+  netOutflow,
+  nodeLimitAtHorizon,
   validateEvacuationProblem,
   type EvacuationProblem,
   type FlowState,
@@ -65,6 +68,16 @@ export function evaluateCurve(problem: EvacuationProblem, shouldAbort?: () => bo
     state,
     finalHorizon: curve.finalHorizon,
   };
+}
+
+/** Most vehicles delivered by the end of step `horizon`: one exact maximum flow, no curve. */
+export function deliveredByHorizon(problem: EvacuationProblem, horizon: number, shouldAbort?: () => boolean): number {
+  validateEvacuationProblem(problem);
+  const expanded = expandOverTime(problem);
+  const limit = nodeLimitAtHorizon(expanded, horizon);
+  const state = createFlowState(expanded.network);
+  maximiseInPlace(expanded.network, expanded.source, expanded.sink, state, { nodeLimit: limit, shouldAbort });
+  return netOutflow(expanded.network, state, expanded.source, limit);
 }
 
 /** Polls shouldAbort and reports progress; both optional. */

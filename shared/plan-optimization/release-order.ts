@@ -12,7 +12,7 @@
 
 import type { EvacuationProblem } from '../flow';
 import { forEachFlowPath } from './flow-paths';
-import { cloneProblem, evaluateCurve, type OptimisationHooks } from './problem-tools';
+import { cloneProblem, deliveredByHorizon, evaluateCurve, type OptimisationHooks } from './problem-tools';
 
 export interface ZoneSchedule {
   id: string;
@@ -35,7 +35,11 @@ export interface ReleaseOrder {
   expectedDeliveredByStep: number[];
   quickestDeliveredByStep: number[];
   zones: ZoneSchedule[];
-  /** The schedule itself, evaluated exactly as the zones' departures: it clears by this step. */
+  /**
+   * The schedule itself, evaluated exactly as the zones' departures (one maximum flow at the
+   * quickest clearance step): it clears by this step; null when the quickest does not clear
+   * within the horizon, or (never expected) when the schedule falls short.
+   */
   scheduleClearanceStep: number | null;
   /** True when waits at the entry node were moved back into the zones. */
   waitsMovedHome: boolean;
@@ -80,16 +84,23 @@ export function bestReleaseOrder(problem: EvacuationProblem, hooks: Optimisation
     add(movedHome[path.zone]!, path.entryStep + (gated ? 0 : path.waitsAtEntry), path.vehicles);
   });
 
+  // A schedule is as good as the quickest when its own maximum flow at the quickest horizon (the
+  // clearance step, or T when everyone cannot arrive) delivers as many: no schedule clears
+  // earlier than everyone free at the order, so that one maximum flow settles it instead of a
+  // curve over every horizon.
   const target = quickest.clearanceStep;
-  const check = (schedules: number[][]) => evaluateCurve(withSchedule(problem, schedules), hooks.shouldAbort);
+  const horizon = target ?? problem.horizonSteps;
+  const asGood = (schedules: number[][]) => deliveredByHorizon(withSchedule(problem, schedules), horizon, hooks.shouldAbort) >= quickest.deliveredAtHorizon;
   let chosen = movedHome;
-  let evaluation = check(movedHome);
   let waitsMovedHome = true;
-  const same = (e: typeof evaluation) => e.clearanceStep === target && e.deliveredAtHorizon >= quickest.deliveredAtHorizon;
-  if (!same(evaluation)) {
+  let achieved = asGood(movedHome);
+  hooks.onProgress?.(0.8);
+  if (!achieved) {
     chosen = asFound;
-    evaluation = check(asFound);
     waitsMovedHome = false;
+    // The optimal flow's own departures: it is a feasible flow under them, so this holds by
+    // construction; evaluated all the same.
+    achieved = asGood(asFound);
   }
   hooks.onProgress?.(1);
   return {
@@ -116,7 +127,7 @@ export function bestReleaseOrder(problem: EvacuationProblem, hooks: Optimisation
         lastDepartureStep: last < 0 ? null : last,
       };
     }),
-    scheduleClearanceStep: evaluation.clearanceStep,
+    scheduleClearanceStep: achieved ? target : null,
     waitsMovedHome,
   };
 }

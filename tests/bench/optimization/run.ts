@@ -9,10 +9,16 @@ import { countyProblem, demoProblem } from './demo-problem';
 const which = process.argv[2] ?? 'all';
 const solver = await loadGlpkSolver();
 
+// Wall-clock time, and the CPU time of this process (user + system), which a machine shared with
+// other work changes much less than the wall clock.
 function time<T>(label: string, fn: () => T, describe: (r: T) => string): T {
   const started = performance.now();
+  const cpu = process.cpuUsage();
   const r = fn();
-  console.log(`${label.padEnd(46)} ${((performance.now() - started) / 1000).toFixed(1).padStart(7)} s  ${describe(r)}`);
+  const used = process.cpuUsage(cpu);
+  const wall = ((performance.now() - started) / 1000).toFixed(1).padStart(7);
+  const cpuSeconds = ((used.user + used.system) / 1e6).toFixed(1).padStart(6);
+  console.log(`${label.padEnd(46)} ${wall} s wall ${cpuSeconds} s CPU  ${describe(r)}`);
   return r;
 }
 
@@ -37,6 +43,7 @@ function all(name: string, problem: EvacuationProblem, county: boolean) {
   time('zone routes', () => zoneRoutes(problem), (r) => `${r.zones.length} zones`);
 }
 
+console.log(`load average at start: ${(await import('node:os')).loadavg().map((l) => l.toFixed(1)).join(', ')}`);
 if (which === 'demo' || which === 'all') {
   all('Demo town (product defaults Δ = 60 s, 6 h)', demoProblem(60, 360), false);
 }

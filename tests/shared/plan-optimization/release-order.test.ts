@@ -39,6 +39,10 @@ describe('best release order', () => {
         }
         expect(order.quickestClearanceStep).toBe(smallest);
         expect(order.scheduleClearanceStep).toBe(order.quickestClearanceStep);
+        // The schedule on its own, as a whole curve over every horizon (not the one maximum flow
+        // bestReleaseOrder checks it with): it clears exactly at the quickest step.
+        const scheduled = { ...problem, zones: problem.zones.map((z, i) => ({ ...z, releaseFractionByStep: undefined, releaseVehiclesByStep: order.zones[i]!.departuresByStep })) };
+        if (smallest !== null) expect(evaluateCurve(scheduled).clearanceStep).toBe(smallest);
         // The schedule releases every vehicle that arrives, and the expected curve can only be slower.
         if (smallest !== null) {
           for (const zone of order.zones) expect(zone.departuresByStep.reduce((s, n) => s + n, 0)).toBe(zone.vehicles);
