@@ -11,6 +11,7 @@ import { startRunQueue } from './queue/run-queue';
 import { startProposalQueue } from './queue/proposal-queue';
 import { startDevOutbox } from './services/briefings/outbox';
 import { closeImportWorkers } from './import/gis/import-in-worker';
+import { importUploadsSettled } from './services/imports';
 
 export async function startApiProcess(config: Config): Promise<void> {
   const { db, pool } = createDatabase(config.DATABASE_URL);
@@ -51,7 +52,8 @@ export async function startApiProcess(config: Config): Promise<void> {
     const closed = new Promise<void>((resolve) => server.close(() => resolve()));
     server.closeIdleConnections();
     const grace = new Promise<void>((resolve) => setTimeout(resolve, config.SHUTDOWN_GRACE_SECONDS * 1000).unref());
-    await Promise.race([closed, grace]);
+    // Uploads already answered are still storing their last pieces and queuing their job.
+    await Promise.race([Promise.all([closed, importUploadsSettled()]), grace]);
     server.closeAllConnections();
     await Promise.allSettled([runQueue.stop(), outbox?.close(), closeImportWorkers()]);
     await pool.end();

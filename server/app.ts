@@ -149,7 +149,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
-  app.use('/api/plans/:planId', importsRouter(db, config, importQueue));
+  app.use('/api/plans/:planId', importsRouter(db, config, importQueue, log));
   app.use('/api/plans/:planId', proposalsRouter(db, config, proposalQueue));
   app.use('/api/plans/:planId', sweepsRouter(db, config, runQueue));
   app.use('/api/plans/:planId', mapTilesRouter(db, answers));

@@ -6,6 +6,7 @@ import { createDatabase } from './db/client';
 import { startRunQueue } from './queue/run-queue';
 import { startRunReconciler } from './queue/run-reconciler';
 import { createImportExecutor } from './import-execution/import-executor';
+import { reconcileImports } from './services/imports';
 import { createRunExecutor } from './run-execution/run-executor';
 import { startProposalQueue } from './queue/proposal-queue';
 import { createProposalExecutor } from './optimization/proposal-executor';
@@ -29,7 +30,10 @@ await queue.workImports(1, async ({ importId }) => {
   await importer.execute(importId);
   console.log(`[worker] pid ${process.pid} finished import ${importId}`);
 });
-const reconciler = startRunReconciler(db, queue, config.RUN_RECONCILE_SECONDS, log);
+// An import still receiving its file well after any upload could have arrived lost its API process.
+const reconciler = startRunReconciler(db, queue, config.RUN_RECONCILE_SECONDS, log, async () => {
+  for (const id of await reconcileImports(db, config.UPLOAD_READ_TIMEOUT_SECONDS + 600)) console.log(`[worker] import ${id} never finished arriving: failed`);
+});
 // Searches for the best change (proposals) share the worker and its budget.
 const proposalQueue = await startProposalQueue(queue.boss, config);
 const proposalExecutor = createProposalExecutor(db, config, log);

@@ -54,7 +54,14 @@ export async function reconcileRuns(db: Database, queue: RunEnqueuer, options: {
 }
 
 /** Reconciles every `seconds` until stopped; errors go to `log` and the next round tries again. */
-export function startRunReconciler(db: Database, queue: RunEnqueuer, seconds: number, log: (e: unknown) => void): { stop: () => void } {
+export function startRunReconciler(
+  db: Database,
+  queue: RunEnqueuer,
+  seconds: number,
+  log: (e: unknown) => void,
+  // More of the same kind each round (imports whose upload never finished).
+  alsoEachRound: () => Promise<void> = async () => undefined,
+): { stop: () => void } {
   let running = false;
   const timer = setInterval(() => {
     if (running) return;
@@ -64,6 +71,8 @@ export function startRunReconciler(db: Database, queue: RunEnqueuer, seconds: nu
         for (const id of r.failed) console.log(`[worker] run ${id} had no live job: failed`);
         for (const id of r.requeued) console.log(`[worker] run ${id} had no job: queued again`);
       }, log)
+      .then(alsoEachRound)
+      .catch(log)
       .finally(() => (running = false));
   }, seconds * 1000);
   timer.unref();

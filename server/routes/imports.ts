@@ -1,5 +1,5 @@
-// /api/plans/:planId/imports/:kind (road-layer, zones, shelters): upload a file (202: stored as it
-// arrives and queued; a worker reads and saves it), read its progress, cancel it.
+// /api/plans/:planId/imports/:kind (road-layer, zones, shelters): upload a file (202 once it has
+// arrived: stored as it arrives, then queued; a worker reads and saves it), read its progress, cancel it.
 import { Router, type RequestHandler } from 'express';
 import { importKindSchema, importParamsSchema } from '../../shared/api/imports';
 import { importOptionsSchema, shelterUploadOptionsSchema, zoneUploadOptionsSchema } from '../../shared/api/road-import';
@@ -14,7 +14,7 @@ import { cancelImport, getImport, queueImport } from '../services/imports';
 
 const kindParamsSchema = planParamsSchema.extend({ kind: importKindSchema });
 
-export function importsRouter(db: Database, config: Config, queue: ImportEnqueuer): Router {
+export function importsRouter(db: Database, config: Config, queue: ImportEnqueuer, log: (err: unknown) => void): Router {
   const router = Router({ mergeParams: true });
 
   // Beside the file: a road layer's name, and each kind's options.
@@ -39,7 +39,7 @@ export function importsRouter(db: Database, config: Config, queue: ImportEnqueue
       fileName: upload.fileName,
       pieces: upload.pieces,
       details: async () => detailsOf(await upload.fields()),
-    });
+    }, log);
     res.status(202).json(queued);
   });
 

@@ -5,6 +5,7 @@
 import type pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { importSchema, type Import } from '../../shared/api/imports';
+import { reconcileImports } from '../../server/services/imports';
 import { createTestContext, countRows, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
 
 let ctx: TestContext;
@@ -61,6 +62,12 @@ async function holdRoadLayers(): Promise<pg.PoolClient> {
 
 beforeAll(async () => {
   ctx = await createTestContext({}, { withRunWorker: true });
+  await ctx.pool.query(`
+    CREATE TABLE chunk_log (import_id uuid, seq int, n int, at timestamptz DEFAULT clock_timestamp());
+    CREATE FUNCTION log_chunk() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN
+      INSERT INTO chunk_log (import_id, seq, n) VALUES (NEW.import_id, NEW.seq, octet_length(NEW.bytes)); RETURN NEW;
+    END $$;
+    CREATE TRIGGER log_chunk AFTER INSERT ON import_chunks FOR EACH ROW EXECUTE FUNCTION log_chunk();`);
   planner = await signInAs(ctx.app, 'planner');
   planId = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'Imports' }).expect(201)).body.id;
 });
@@ -159,18 +166,73 @@ describe('the upload request', () => {
       .field('name', 'Long Street')
       .expect(202);
     expect(res.body.sizeBytes).toBe(Buffer.byteLength(text));
-    const pieces = await ctx.pool.query('SELECT seq, octet_length(bytes) AS n FROM import_chunks WHERE import_id = $1 ORDER BY seq', [res.body.id]);
-    if (pieces.rows.length > 0) {
-      // (Unless the worker was quicker and has read and dropped them already.)
-      expect(pieces.rows.map((r) => r.seq)).toEqual(pieces.rows.map((_, i) => i));
-      expect(pieces.rows.length).toBeGreaterThanOrEqual(3);
-    }
     const done = await finished(res.body.id, plan);
+    // Every piece was stored, in order, about 1 MB each (the log the trigger in beforeAll keeps,
+    // since the worker drops the pieces once it has read them).
+    const pieces = (await ctx.pool.query('SELECT seq, n FROM chunk_log WHERE import_id = $1 ORDER BY at', [res.body.id])).rows as { seq: number; n: number }[];
+    expect(pieces.map((r) => r.seq)).toEqual(pieces.map((_, i) => i));
+    expect(pieces.length).toBeGreaterThanOrEqual(3);
+    expect(pieces.reduce((a, r) => a + r.n, 0)).toBe(Buffer.byteLength(text));
     expect(done.status, JSON.stringify(done.failure)).toBe('succeeded');
     expect(done.outcome).toMatchObject({ segments: 12_000 });
     const layer = (await planner.agent.get(`/api/plans/${plan}/road-layer`).expect(200)).body.layer;
     expect(layer.name).toBe('Long Street');
     expect(await storedBytes(res.body.id)).toBe(0);
+  }, 180_000);
+
+  it('answers once the file has arrived, while its pieces are still being stored; the job is queued once they are', async () => {
+    // The database cannot store a piece until released: the answer must not wait for it.
+    const held = await ctx.pool.connect();
+    await held.query('BEGIN');
+    await held.query('LOCK TABLE import_chunks IN EXCLUSIVE MODE');
+    let answered: Import;
+    try {
+      const res = await Promise.race([
+        upload('road-layer', JSON.stringify(roads), 'held.geojson'),
+        new Promise<never>((_, reject) => setTimeout(() => reject(new Error('the upload waited for its pieces to be stored')), 20_000)),
+      ]);
+      expect(res.status).toBe(202);
+      answered = importSchema.parse(res.body);
+      expect(answered.phase).toBe('receiving the file');
+      expect(answered.sizeBytes).toBe(JSON.stringify(roads).length);
+      // No job and no audit row yet: nothing for a worker to take before the file is stored.
+      expect((await getImport(answered.id)).phase).toBe('receiving the file');
+      expect((await ctx.pool.query("SELECT count(*)::int AS n FROM pgboss.job WHERE data->>'importId' = $1", [answered.id])).rows[0].n).toBe(0);
+    } finally {
+      await held.query('COMMIT');
+      held.release();
+    }
+    const done = await finished(answered.id);
+    expect(done.status, JSON.stringify(done.failure)).toBe('succeeded');
+    expect((await ctx.pool.query("SELECT count(*)::int AS n FROM audit_events WHERE action = 'import.queue' AND entity_id = $1", [answered.id])).rows[0].n).toBe(1);
+  }, 180_000);
+
+  it('an import whose upload never finished storing (its API process stopped) is failed by the reconciler, its pieces dropped', async () => {
+    const held = await ctx.pool.connect();
+    await held.query('BEGIN');
+    await held.query('LOCK TABLE import_chunks IN EXCLUSIVE MODE');
+    let id: string;
+    let reconciled: Promise<string[]>;
+    try {
+      id = (await upload('road-layer', JSON.stringify(roads), 'orphan.geojson').expect(202)).body.id;
+      // As if its process had died: the reconciler sees it still receiving (older than 0 s here).
+      // (It drops the pieces once the lock is released.)
+      reconciled = reconcileImports(ctx.db, 0);
+      await until('the reconciler to fail it', async () => ((await getImport(id)).status === 'failed' ? true : undefined));
+    } finally {
+      await held.query('COMMIT');
+      held.release();
+    }
+    expect(await reconciled).toEqual([id]);
+    const done = await finished(id);
+    expect(done.status).toBe('failed');
+    expect(done.failure?.message).toContain('did not finish');
+    // The request's own storing ends after it: it finds the import failed and queues nothing.
+    await until('its pieces to be dropped', async () => ((await storedBytes(id)) === 0 ? true : undefined));
+    await new Promise((r) => setTimeout(r, 300));
+    expect(await storedBytes(id)).toBe(0);
+    expect((await ctx.pool.query("SELECT count(*)::int AS n FROM pgboss.job WHERE data->>'importId' = $1", [id])).rows[0].n).toBe(0);
+    expect((await getImport(id)).status).toBe('failed');
   }, 180_000);
 
   it('refused on the way (too large, a field it does not take, bad options after the file): a clear 4xx and no import, piece or audit row', async () => {

@@ -2,6 +2,9 @@
 // answer has come back (so a stalled event loop shows as long latencies, not as fewer samples):
 // `/healthz` every 100 ms and the plan's road-layer summary every 500 ms. Each sample keeps the
 // phase of the benchmark it was sent in, so latencies can be told per phase.
+import { Worker } from 'node:worker_threads';
+
+/** `sentAt`: epoch milliseconds; `ms`: latency. */
 export type ProbeSample = { target: string; phase: string; sentAt: number; ms: number; status: number };
 
 export type PacedProbe = {
@@ -11,36 +14,50 @@ export type PacedProbe = {
   stop: () => Promise<ProbeSample[]>;
 };
 
+// The probe runs on a thread of its own (its own event loop): the benchmark's main thread builds
+// and sends large uploads and parses large answers, and a probe sharing that loop would time the
+// client's own work as the server's latency. (The machine's cores are still shared.)
+const probeThread = `
+const { parentPort } = require('node:worker_threads');
+let phase = 'start';
+const samples = [];
+const pending = new Set();
+const timers = [];
+const ask = (target, url, headers) => {
+  const t0 = performance.now();
+  const sentAt = Date.now();
+  const sentIn = phase;
+  const p = fetch(url, { headers, signal: AbortSignal.timeout(60000) })
+    .then(async (res) => {
+      await res.arrayBuffer();
+      samples.push({ target, phase: sentIn, sentAt, ms: performance.now() - t0, status: res.status });
+    })
+    .catch(() => samples.push({ target, phase: sentIn, sentAt, ms: performance.now() - t0, status: 0 }))
+    .finally(() => pending.delete(p));
+  pending.add(p);
+};
+parentPort.on('message', async (m) => {
+  if (m.type === 'phase') phase = m.phase;
+  else if (m.type === 'add') timers.push(setInterval(() => ask(m.target, m.url, m.headers), m.everyMs));
+  else if (m.type === 'stop') {
+    for (const t of timers) clearInterval(t);
+    await Promise.all([...pending]);
+    parentPort.postMessage(samples);
+  }
+});
+`;
+
 export function startPacedProbe(): PacedProbe {
-  let phase = 'start';
-  const samples: ProbeSample[] = [];
-  const pending = new Set<Promise<void>>();
-  const timers: NodeJS.Timeout[] = [];
-  const ask = (target: string, url: string, headers: Record<string, string>) => {
-    const sentAt = performance.now();
-    const sentIn = phase;
-    const p = fetch(url, { headers, signal: AbortSignal.timeout(60_000) })
-      .then(async (res) => {
-        await res.arrayBuffer();
-        samples.push({ target, phase: sentIn, sentAt, ms: performance.now() - sentAt, status: res.status });
-      })
-      .catch(() => {
-        samples.push({ target, phase: sentIn, sentAt, ms: performance.now() - sentAt, status: 0 });
-      })
-      .finally(() => pending.delete(p));
-    pending.add(p);
-  };
+  const thread = new Worker(probeThread, { eval: true });
   return {
-    setPhase: (p) => {
-      phase = p;
-    },
-    add: (target, url, everyMs, headers = {}) => {
-      timers.push(setInterval(() => ask(target, url, headers), everyMs));
-    },
+    setPhase: (phase) => thread.postMessage({ type: 'phase', phase }),
+    add: (target, url, everyMs, headers = {}) => thread.postMessage({ type: 'add', target, url, everyMs, headers }),
     stop: async () => {
-      for (const t of timers) clearInterval(t);
-      await Promise.all([...pending]);
-      return samples;
+      const samples = new Promise<ProbeSample[]>((resolve) => thread.once('message', resolve));
+      thread.postMessage({ type: 'stop' });
+      const got = await samples;
+      await thread.terminate();
+      return got;
     },
   };
 }

@@ -3,7 +3,7 @@
 // (with that of the processes they start: API_PROCESSES), stopped with SIGTERM (SIGKILL if they
 // do not exit).
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createWriteStream, readdirSync, readFileSync } from 'node:fs';
+import { appendFileSync, closeSync, openSync, readdirSync, readFileSync } from 'node:fs';
 
 // USER_HZ: the unit of utime and stime in /proc/PID/stat; 100 on Linux on every common architecture.
 const CLOCK_TICKS_PER_SECOND = 100;
@@ -41,19 +41,21 @@ export type BenchProcess = {
 };
 
 export function startProcess(name: string, root: string, entry: string, env: Record<string, string>, logFile: string, nodeArgs: string[] = []): BenchProcess {
-  const log = createWriteStream(logFile);
+  // The process writes its log file itself: through a pipe to this process, its writes would wait
+  // whenever this one is busy (Node writes to pipes synchronously), and a server's latency would
+  // include the benchmark client's own work.
+  const fd = openSync(logFile, 'w');
   const child: ChildProcess = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', entry], {
     cwd: root,
     env: { PATH: process.env.PATH ?? '', HOME: process.env.HOME ?? '', ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
+    stdio: ['ignore', fd, fd],
   });
-  child.stdout!.pipe(log, { end: false });
-  child.stderr!.pipe(log, { end: false });
+  closeSync(fd);
   let done = false;
   const exit = new Promise<void>((resolve) =>
     child.on('exit', (code, signal) => {
       done = true;
-      log.end(`[bench] ${name} exited (${signal ?? `code ${code}`})\n`);
+      appendFileSync(logFile, `[bench] ${name} exited (${signal ?? `code ${code}`})\n`);
       resolve();
     }),
   );
