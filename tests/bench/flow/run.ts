@@ -34,7 +34,12 @@ interface Row {
   nodes?: number;
   arcs?: number;
   value?: number | null;
+  /** Warm: the median of the runs after the first (wall clock and CPU time). */
   solveMs?: number;
+  cpuMs?: number;
+  /** The first run in a fresh process (ours: includes just-in-time compilation). */
+  firstMs?: number;
+  firstCpuMs?: number;
   peakRssMb?: number;
   aborted?: boolean;
   verified?: boolean | null;
@@ -72,7 +77,16 @@ function benchInstance(instance: BenchInstance, boost: string | null): Row[] {
     // only, and one Boykov–Kolmogorov run, so that the whole command takes minutes.
     const family = instance.kind === 'family';
     if (family && (slow || algorithm === 'incremental-bfs')) continue;
-    const repeat = (slow && large) || (family && algorithm === 'boykov-kolmogorov') ? 1 : 3;
+    // One cold run, then warm ones: 5 on the families, fewer where one run takes seconds.
+    const repeat = (slow && large) || (family && algorithm === 'boykov-kolmogorov') || (instance.kind === 'time-expanded' && algorithm !== 'auto' && algorithm !== 'incremental-bfs')
+      ? 1
+      : family
+        ? 6
+        : instance.kind === 'time-expanded'
+          ? 2
+          : large
+            ? 3
+            : 4;
     const args = ['--instance', instance.name, '--algorithm', algorithm, '--repeat', String(repeat)];
     if (slow && large) args.push('--budget-ms', String(SLOW_BUDGET_MS));
     process.stderr.write(`  ${instance.name} ${algorithm} …`);
@@ -85,22 +99,25 @@ function benchInstance(instance: BenchInstance, boost: string | null): Row[] {
       arcs: r.arcs as number,
       value: r.value as number | null,
       solveMs: r.solveMs as number,
+      cpuMs: r.cpuMs as number,
+      firstMs: r.firstMs as number,
+      firstCpuMs: r.firstCpuMs as number,
       peakRssMb: r.peakRssMb as number,
       aborted: r.aborted as boolean,
       verified: r.verified as boolean | null,
-      note: r.runs === 1 ? '1 run' : `median of ${r.runs}`,
+      note: r.runs === 1 ? '1 run' : `1 cold + median of ${r.warmRuns as number} warm`,
     });
   }
   if (boost) {
     const file = `${out}${instance.name}.max`;
     if (!existsSync(file)) child(['--instance', instance.name, '--write-dimacs', file]);
     for (const algorithm of ['bk', 'push-relabel']) {
-      const runs = instance.kind === 'time-expanded' || (instance.kind === 'family' && algorithm === 'bk') ? 1 : 3;
-      const measured: { value: number; solveMs: number; peakRssMb: number }[] = [];
+      const runs = instance.kind === 'time-expanded' || (instance.kind === 'family' && algorithm === 'bk') ? 1 : instance.kind === 'family' ? 5 : 3;
+      const measured: { value: number; solveMs: number; cpuMs: number; peakRssMb: number }[] = [];
       for (let k = 0; k < runs; k++) {
         process.stderr.write(`  ${instance.name} boost ${algorithm} …`);
         const text = execFileSync(boost, [file, algorithm], { encoding: 'utf8' });
-        measured.push(JSON.parse(text) as { value: number; solveMs: number; peakRssMb: number });
+        measured.push(JSON.parse(text) as { value: number; solveMs: number; cpuMs: number; peakRssMb: number });
         process.stderr.write(` ${measured.at(-1)!.solveMs} ms\n`);
       }
       rows.push({
@@ -108,6 +125,7 @@ function benchInstance(instance: BenchInstance, boost: string | null): Row[] {
         solver: `Boost ${algorithm === 'bk' ? 'boykov_kolmogorov_max_flow' : 'push_relabel_max_flow'}`,
         value: measured[0]!.value,
         solveMs: median(measured.map((m) => m.solveMs)),
+        cpuMs: median(measured.map((m) => m.cpuMs)),
         peakRssMb: Math.max(...measured.map((m) => m.peakRssMb)),
         note: runs === 1 ? '1 run' : `median of ${runs}`,
       });
@@ -151,38 +169,49 @@ const fmt = (n: number | null | undefined): string => (n === null || n === undef
 const lines: string[] = [];
 lines.push(`Measured ${machine.date} on ${machine.cpu}, ${machine.memoryGiB} GiB, Node ${machine.node}, Boost ${machine.boost}; load average at start ${machine.loadAverageAtStart}.`);
 lines.push('');
-lines.push('| instance | N | M | solver | value | solve ms | time ÷ faster Boost | peak RSS MB | notes |');
-lines.push('|---|---:|---:|---|---:|---:|---:|---:|---|');
+lines.push('| instance | N | M | solver | value | warm ms | warm CPU ms | CPU ÷ faster Boost | first run ms | first run ÷ faster Boost | peak RSS MB | notes |');
+lines.push('|---|---:|---:|---|---:|---:|---:|---:|---:|---:|---:|---|');
+// "Faster Boost": the Boost solver with the smaller CPU time on that instance. Our first run is
+// compared with it too (Boost, compiled ahead of time, has no cold start).
+const fasterBoost = (mine: Row[]): Row | undefined => mine.filter((r) => r.solver.startsWith('Boost')).sort((a, b) => a.cpuMs! - b.cpuMs!)[0];
+const ratio = (ours: number | undefined, boost: number | undefined, aborted = false): string =>
+  ours && boost ? `${aborted ? '> ' : ''}${(ours / boost).toFixed(2)}` : '—';
 for (const instance of INSTANCES) {
   const mine = rows.filter((r) => r.instance === instance.name);
   if (mine.length === 0) continue;
-  const boostBest = Math.min(...mine.filter((r) => r.solver.startsWith('Boost')).map((r) => r.solveMs!));
+  const boostBest = fasterBoost(mine);
   const size = mine.find((r) => r.nodes !== undefined)!;
   for (const r of mine) {
-    const ratio = Number.isFinite(boostBest) && r.solveMs ? (r.aborted ? `> ${(r.solveMs / boostBest).toFixed(1)}` : (r.solveMs / boostBest).toFixed(2)) : '—';
+    const isBoost = r.solver.startsWith('Boost');
     const boostValue = mine.find((x) => x.solver.startsWith('Boost'))?.value;
     const differs = boostValue !== undefined && r.value !== null && r.value !== undefined && r.value !== boostValue;
     const notes = [r.note, differs ? 'VALUE DIFFERS FROM BOOST' : undefined, r.aborted ? `stopped after ${fmt(SLOW_BUDGET_MS / 1000)} s` : undefined, r.verified === false ? 'VERIFY FAILED' : undefined].filter(Boolean).join('; ');
-    lines.push(`| ${instance.name} | ${fmt(size.nodes)} | ${fmt(size.arcs)} | ${r.solver} | ${fmt(r.value)} | ${r.aborted ? '> ' : ''}${fmt(r.solveMs)} | ${ratio} | ${fmt(r.peakRssMb)} | ${notes} |`);
+    const first = isBoost ? '—' : `${r.aborted ? '> ' : ''}${fmt(r.firstMs)}`;
+    const firstRatio = isBoost ? '—' : ratio(r.firstCpuMs, boostBest?.cpuMs, r.aborted);
+    lines.push(`| ${instance.name} | ${fmt(size.nodes)} | ${fmt(size.arcs)} | ${r.solver} | ${fmt(r.value)} | ${r.aborted ? '> ' : ''}${fmt(r.solveMs)} | ${r.aborted ? '> ' : ''}${fmt(r.cpuMs)} | ${ratio(r.cpuMs, boostBest?.cpuMs, r.aborted)} | ${first} | ${firstRatio} | ${fmt(r.peakRssMb)} | ${notes} |`);
   }
 }
-// Each of our solvers against the faster Boost solver, per instance above: the geometric mean of the ratios.
+// Each of our solvers against the faster Boost solver, per instance above: the geometric mean of
+// the CPU-time ratios, warm and first run.
 const geometricMeans: string[] = [];
 const solverKey = (label: string): string => label.replace(/ \(finished by .*\)$/, '');
+const geometricMean = (xs: number[]): string => Math.exp(xs.reduce((sum, x) => sum + Math.log(x), 0) / xs.length).toFixed(2);
 for (const solver of [...new Set(rows.filter((r) => r.solver.startsWith('ours')).map((r) => solverKey(r.solver)))]) {
-  const ratios = INSTANCES.flatMap((instance) => {
+  const pairs = INSTANCES.flatMap((instance) => {
     const mine = rows.filter((r) => r.instance === instance.name);
-    const boostBest = Math.min(...mine.filter((r) => r.solver.startsWith('Boost')).map((r) => r.solveMs!));
+    const boostBest = fasterBoost(mine);
     const r = mine.find((x) => solverKey(x.solver) === solver);
-    return r && !r.aborted && r.solveMs && Number.isFinite(boostBest) ? [r.solveMs / boostBest] : [];
+    return r && !r.aborted && r.cpuMs && boostBest?.cpuMs ? [[r.cpuMs / boostBest.cpuMs, r.firstCpuMs! / boostBest.cpuMs] as const] : [];
   });
-  if (ratios.length > 0) geometricMeans.push(`${solver} ${Math.exp(ratios.reduce((s, x) => s + Math.log(x), 0) / ratios.length).toFixed(2)} (${ratios.length} instances)`);
+  if (pairs.length > 0) {
+    geometricMeans.push(`${solver} ${geometricMean(pairs.map((p) => p[0]))} warm, ${geometricMean(pairs.map((p) => p[1]))} first run (${pairs.length} instances)`);
+  }
 }
-if (geometricMeans.length > 0) lines.push('', `Geometric mean of time ÷ faster Boost over the instances above: ${geometricMeans.join('; ')}.`);
+if (geometricMeans.length > 0) lines.push('', `Geometric mean of CPU time ÷ the faster Boost solver's over the instances above: ${geometricMeans.join('; ')}.`);
 lines.push('');
 for (const e of evacuation) {
   lines.push(
-    `Full evacuation analysis of ${e.instance} (solveEvacuation, auto): ${fmt(e.totalMs as number)} ms in all — ${Object.entries(e.timingsMs as Record<string, number>).map(([k, v]) => `${k} ${fmt(v)}`).join(', ')} ms; ` +
+    `Full evacuation analysis of ${e.instance} (solveEvacuation, auto): ${fmt(e.totalMs as number)} ms in all — ${Object.entries(e.timingsMs as Record<string, number>).map(([k, v]) => `${k} ${fmt(v)}`).join(', ')} ms (CPU time: ${Object.entries(e.cpuTimingsMs as Record<string, number>).map(([k, v]) => `${k} ${fmt(v)}`).join(', ')} ms); ` +
       `${fmt(e.arcs as number)} expanded arcs; demand ${fmt(e.demand as number)} vehicles, ${fmt(e.deliveredByHorizon as number)} delivered by the horizon (clearance ${e.clearanceStep ?? 'not within T'}); peak RSS ${fmt(e.peakRssMb as number)} MB.`,
   );
 }
