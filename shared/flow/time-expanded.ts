@@ -15,8 +15,9 @@
 // horizon t ≤ T is exactly the nodes below nodeLimitAtHorizon(t): a flow for horizon t stays
 // feasible for t + 1, which is what makes the evacuation curve incremental.
 //
-// The copies are materialised: every algorithm and verify() then run on the expanded network
-// unchanged. Memory: 28 bytes per expanded arc in the FlowNetwork, 5 more for the arc map below,
+// This layout writes the copies out: every algorithm and verify() then run on the expanded
+// network unchanged (the searches for the best change and the curve's other algorithms use it).
+// solveEvacuation keeps only the residuals, in implicit-expanded.ts, from the same slots and rules. Memory: 28 bytes per expanded arc in the FlowNetwork, 5 more for the arc map below,
 // 8 per arc for a FlowState; 4 bytes per expanded node. Arcs of capacity 0 (closed steps,
 // capacities that round down to 0) are left out, and so are the arcs of node copies that no zone
 // reaches by their step or that reach no shelter by the horizon (step-window.ts), which changes

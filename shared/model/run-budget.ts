@@ -5,17 +5,16 @@
 // the cost of a coarser step is resolution, not a drift that grows with the route's length.
 
 /**
- * Bytes per time-expanded arc for the whole solve, per arc of the formula below (every copy,
- * before the engine leaves out the copies no zone reaches in time or that reach no shelter): the
- * network (28: head, mate and capacity of both residual arcs, the arc's residual index), what each
- * arc stands for (5), the flow state (8), the curve's undo-log bits, allocation slack, less what
- * the pruning saves. Measured on the generated county at 60 s over 6 h (tests/bench/flow/README.md):
- * 7,790 MiB peak RSS for 183.5 million arcs and 32.5 million nodes of the formula, which 40 per arc
- * and 40 per node bound from above by 6 %.
+ * Bytes per time-expanded arc for the whole solve, per arc of the formula below (every copy, the
+ * ones the engine leaves out included, since the implicit network keeps a place for each):
+ * two 4-byte residuals per (step, slot) (shared/flow/implicit-expanded.ts), the curve's undo-log
+ * bits and allocation slack. Per node copy: incremental BFS's arrays (18 bytes) and the read-out's
+ * (the check's balance and the cut's search run after the solver's arrays are released).
+ * Measured on the generated county at 60 s over 6 h (tests/bench/flow/README.md).
  */
-export const BYTES_PER_EXPANDED_ARC = 40;
-/** Bytes per time-expanded node: CSR offsets (4) and the solver's per-node arrays (incremental BFS: 22, plus read-out). */
-export const BYTES_PER_EXPANDED_NODE = 40;
+export const BYTES_PER_EXPANDED_ARC = 9;
+/** Bytes per time-expanded node (see BYTES_PER_EXPANDED_ARC). */
+export const BYTES_PER_EXPANDED_NODE = 22;
 
 /** Steps offered when a run does not fit, shortest first. */
 export const OFFERED_STEPS_SECONDS = [60, 90, 120, 180, 240, 300, 600, 900, 1800, 3600];

@@ -53,8 +53,8 @@ const prepareMs = Math.round(performance.now() - t0);
 const entries = problem.zones.reduce((sum, z) => sum + z.entryNodes.length + 2, 0) + 2 * problem.shelters.length;
 const estimate = expandedSize(problem.nodeCount, problem.roads.length, horizonSteps, entries);
 const refusal = budgetRefusal({ nodeCount: problem.nodeCount, roads: problem.roads.length, entries }, { horizonMinutes, timeStepSeconds: step }, {
-  maxExpandedArcs: 200_000_000,
-  maxBytes: 9216 * 2 ** 20,
+  maxExpandedArcs: 600_000_000,
+  maxBytes: 6144 * 2 ** 20,
 });
 const head = {
   size: spec.size,
