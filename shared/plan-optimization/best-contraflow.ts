@@ -22,7 +22,7 @@
 // exactly, the better one is kept, and its gap to the bound is reported.
 
 import { buildSteadyStateNetwork, floorCapacity, maxFlow, maximiseInPlace, netOutflow, perStepCapacity, roadUsage, type EvacuationProblem } from '../flow';
-import { cloneProblem, evaluateCurve, type OptimisationHooks } from './problem-tools';
+import { clearanceOutcome, cloneProblem, evaluateCurve, type OptimisationHooks } from './problem-tools';
 import { applyContraflow, poolPairs, reversiblePair, type PairOrientation, type RoadPair } from './road-pairs';
 
 export interface ContraflowOptions extends OptimisationHooks {
@@ -250,9 +250,13 @@ function evaluateStepCapacities(problem: EvacuationProblem): number[] {
 function curveWith(problem: EvacuationProblem, pairs: readonly RoadPair[], orientations: readonly PairOrientation[], shouldAbort?: () => boolean) {
   const copy = cloneProblem(problem);
   applyContraflow(copy, pairs, orientations);
-  const c = evaluateCurve(copy, shouldAbort);
-  return { clearanceStep: c.clearanceStep, deliveredAtHorizon: c.deliveredAtHorizon };
+  return clearanceOutcome(copy, shouldAbort);
 }
+
+const sameOrientations = (a: readonly PairOrientation[], b: readonly PairOrientation[]): boolean => {
+  const key = (list: readonly PairOrientation[]) => list.map((o) => `${o.pair}:${o.direction}`).sort().join(',');
+  return key(a) === key(b);
+};
 
 /** Better: clears earlier, else delivers more by the horizon. */
 function better(a: { clearanceStep: number | null; deliveredAtHorizon: number }, b: { clearanceStep: number | null; deliveredAtHorizon: number }): boolean {
@@ -287,7 +291,8 @@ export function bestContraflow(problem: EvacuationProblem, pairs: readonly RoadP
   const steadyChoice = steady.corridors.flatMap((c) => c.orientations);
   const a = curveWith(problem, pairs, steadyChoice, abort);
   options.onProgress?.(0.9);
-  const b = curveWith(problem, pairs, fromCurve, abort);
+  // The same orientation twice needs one exact evaluation.
+  const b = sameOrientations(fromCurve, steadyChoice) ? a : curveWith(problem, pairs, fromCurve, abort);
   options.onProgress?.(1);
   const chosen = better(b, a)
     ? { from: 'time-expanded' as const, orientations: fromCurve, ...b }

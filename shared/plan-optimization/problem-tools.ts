@@ -70,14 +70,30 @@ export function evaluateCurve(problem: EvacuationProblem, shouldAbort?: () => bo
   };
 }
 
-/** Most vehicles delivered by the end of step `horizon`: one exact maximum flow, no curve. */
+/**
+ * Most vehicles delivered by the end of step `horizon`: one exact maximum flow, no curve.
+ * Push-relabel: from an empty flow on the demo town's 1.5 M-arc network at T = 360 it measured
+ * 0.46 s of CPU against 1.05 s for Boykov–Kolmogorov and 7 s for 'auto' (tests/bench/optimization).
+ */
 export function deliveredByHorizon(problem: EvacuationProblem, horizon: number, shouldAbort?: () => boolean): number {
   validateEvacuationProblem(problem);
   const expanded = expandOverTime(problem);
   const limit = nodeLimitAtHorizon(expanded, horizon);
   const state = createFlowState(expanded.network);
-  maximiseInPlace(expanded.network, expanded.source, expanded.sink, state, { nodeLimit: limit, shouldAbort });
+  maximiseInPlace(expanded.network, expanded.source, expanded.sink, state, { nodeLimit: limit, shouldAbort, algorithm: 'push-relabel' });
   return netOutflow(expanded.network, state, expanded.source, limit);
+}
+
+/**
+ * Clearance step and vehicles delivered by the horizon, without the curve where it is not
+ * needed: one maximum flow at T first; when that falls short of the demand, nothing clears
+ * within the horizon and that is the answer; otherwise the curve finds the clearance step.
+ */
+export function clearanceOutcome(problem: EvacuationProblem, shouldAbort?: () => boolean): { clearanceStep: number | null; deliveredAtHorizon: number } {
+  const delivered = deliveredByHorizon(problem, problem.horizonSteps, shouldAbort);
+  if (delivered < demandOf(problem)) return { clearanceStep: null, deliveredAtHorizon: delivered };
+  const curve = evaluateCurve(problem, shouldAbort);
+  return { clearanceStep: curve.clearanceStep, deliveredAtHorizon: curve.deliveredAtHorizon };
 }
 
 /** Polls shouldAbort and reports progress; both optional. */
