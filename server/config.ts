@@ -57,12 +57,12 @@ const configSchema = z.object({
   // What one run's time-expanded network may take, in arcs and in bytes (estimated at
   // shared/model/run-budget.ts's measured bytes per arc and node). The defaults are what one
   // worker (WORKER_CONCURRENCY 1) on a 2-core, 24 GB machine holds beside the API and PostgreSQL:
-  // 6 GB and 600 million arcs (the implicit time-expanded network keeps about 9 bytes per arc,
+  // 6 GB and 600 million arcs (the implicit time-expanded network keeps about 10 bytes per arc,
   // so the bytes bind first; its residual ids stay below 2^31 up to about a billion arcs). The
   // generated county (180,000 segments) at a 1-minute step over 6 hours is 183.5 million arcs of
-  // the formula (tests/bench/flow/README.md). A larger run is refused with the shortest coarser
+  // the formula, 2.3 GB measured (tests/bench/flow/README.md). A larger run is refused with the shortest coarser
   // step that fits. RUN_MEMORY_BUDGET_MEGABYTES below must stay above it. The time budget is
-  // wall-clock time: the county at 1 minute needs about 5 minutes of CPU time, and a worker runs at
+  // wall-clock time: the county at 1 minute needs about 4.5 minutes of CPU time, and a worker runs at
   // niceness 10, so on a machine busy with other work it takes several times that.
   RUN_MAX_EXPANDED_ARCS: z.coerce.number().int().positive().default(600_000_000),
   RUN_MAX_EXPANDED_MEGABYTES: z.coerce.number().int().min(16).default(6144),

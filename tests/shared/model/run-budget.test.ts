@@ -22,14 +22,14 @@ describe('run budget', () => {
 
   it('offers the shortest coarser step that fits, with what it changes, and the horizon that fits at the present step', () => {
     // 90 s: 241 layers × 448,216 = 108.0 M arcs; 2 min: 181 × 448,216 = 81.1 M (over 70 M);
-    // 3 min: 121 × 448,216 = 54,234,136 arcs, × 9 + 10,890,000 nodes × 22 bytes = 727,687,224 bytes = 694 MiB: fits.
+    // 3 min: 121 × 448,216 = 54,234,136 arcs, × 10 + 10,890,000 nodes × 22 bytes = 781,921,360 bytes = 746 MiB: fits.
     const refusal = budgetRefusal(county, { horizonMinutes: 360, timeStepSeconds: 60 }, budget)!;
-    expect(refusal).toContain('At a time step of 3 minutes it fits (at most 54.2 million arcs, 694 MB)');
+    expect(refusal).toContain('At a time step of 3 minutes it fits (at most 54.2 million arcs, 746 MB)');
     expect(refusal).toContain('fastest trips stay within 3 minutes of free flow (instead of 1 minute)');
     // The bound holds for fastest routes to the nearest shelter only (docs/model.md §1): say so.
     expect(refusal).toContain('on the way to the nearest shelter or exit (other trips can drift further');
     expect(refusal).toContain('counted in whole 3-minute steps');
-    // 70 M / 448,216 = 156 layers; 4 GiB / (448,216 × 9 + 90,000 × 22) = 714 layers → 155 steps of 1 minute.
+    // 70 M / 448,216 = 156 layers; 4 GiB / (448,216 × 10 + 90,000 × 22) = 664 layers → 155 steps of 1 minute.
     expect(refusal).toContain('shorten the horizon to at most 155 minutes');
   });
 
