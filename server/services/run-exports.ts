@@ -1,4 +1,5 @@
-// A run's arcs as GeoJSON: each directed road with its flow, utilisation and cut flag, on the
+// A run's arcs as GeoJSON: each directed road with its flow, utilisation and cut flag (and the
+// road's share of the time-expanded cut and minutes in it), on the
 // geometry of the layer the run read (kept even after a newer layer replaced it). The figures
 // come from the run's per-road rows (run_road_results), name and class from the layer.
 import { sql } from 'drizzle-orm';
@@ -23,7 +24,8 @@ export async function arcsGeoJson(db: Database, layerId: number | null, runId: s
       features.push({
         type: 'Feature' as const,
         geometry: { type: 'LineString' as const, coordinates: direction === 'forward' ? coordinates : [...coordinates].reverse() },
-        properties: { segmentId: road.segmentId, direction, name: segment?.name ?? '', roadClass: segment?.roadClass ?? '', ...load },
+        // The road's share of the time-expanded cut and its minutes in it cover both directions, as on the map.
+        properties: { segmentId: road.segmentId, direction, name: segment?.name ?? '', roadClass: segment?.roadClass ?? '', ...load, roadShareOfCut: road.shareOfCut, roadLimitingMinutes: road.limitingMinutes },
       });
     }
   }

@@ -223,6 +223,18 @@ describe("a run's results", () => {
     expect(layerBlock(info, 'roads')).toContain(`Feature Count: ${roads}`);
   });
 
+  it('GeoJSON of the arcs: each direction with its flow, and the road\'s share of the cut and minutes in it', async () => {
+    const json = JSON.parse((await download(`runs/${runId}/export/arcs.geojson`)).bytes.toString('utf8'));
+    expect(json.cutline.caution).toBe(CAUTION_LINE);
+    const { rows } = await ctx.pool.query(`SELECT segment_id::int AS id, share_of_cut, limiting_minutes FROM run_road_results WHERE run_id = $1`, [runId]);
+    const stored = new Map(rows.map((r) => [r.id, r]));
+    expect(rows.some((r) => r.share_of_cut > 0)).toBe(true);
+    for (const f of json.features) {
+      expect(f.properties.roadShareOfCut).toBe(stored.get(f.properties.segmentId)!.share_of_cut);
+      expect(f.properties.roadLimitingMinutes).toBe(stored.get(f.properties.segmentId)!.limiting_minutes);
+    }
+  });
+
   it('a run without a result has no file to give', async () => {
     const { rows } = await ctx.pool.query(`INSERT INTO runs (plan_id, status, parameters, data_version) SELECT plan_id, 'queued', parameters, data_version FROM runs WHERE id = $1 RETURNING id`, [runId]);
     await planner.agent.get(`/api/plans/${planId}/runs/${rows[0].id}/export/results.gpkg`).expect(409);
