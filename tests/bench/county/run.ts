@@ -35,8 +35,18 @@ const { values } = parseArgs({
     'horizon-minutes': { type: 'string', default: '360' },
     // A smaller county to try the bench itself out (the figures of record are the default 300).
     size: { type: 'string', default: String(FULL_COUNTY.size) },
+    // A setting for the API and the worker, e.g. --env RUN_TIME_BUDGET_SECONDS=3600 --env WORKER_NICENESS=0
+    // (on a machine shared with other work a worker at niceness 10 gets little of the CPU); said in the report.
+    env: { type: 'string', multiple: true, default: [] },
   },
 });
+const extraEnv = Object.fromEntries(
+  (values.env ?? []).map((pair) => {
+    const at = pair.indexOf('=');
+    if (at <= 0) throw new Error(`--env takes KEY=VALUE, got ${pair}`);
+    return [pair.slice(0, at), pair.slice(at + 1)];
+  }),
+);
 const firstStep = Number(values['step-seconds']);
 const spec = { ...FULL_COUNTY, size: Number(values.size) };
 const horizonMinutes = Number(values['horizon-minutes']);
@@ -90,7 +100,7 @@ async function main(): Promise<void> {
   say(`load average before: ${loadBefore}`);
   const files = writeCountyFiles(spec, spec.size === FULL_COUNTY.size ? DEFAULT_COUNTY_DIR : `${out}county-${spec.size}/`);
   say(`county written: ${files.features.roads} road features, ${files.bytes.roads} bytes`);
-  stack = await startBenchStack({ root, out, worker: true, say });
+  stack = await startBenchStack({ root, out, worker: true, say, env: extraEnv });
   const { baseUrl, api } = stack;
   const worker = stack.worker!;
 
@@ -275,7 +285,7 @@ async function main(): Promise<void> {
   const report = formatReport({
     header:
       `Measured ${new Date().toISOString()} on ${os.cpus()[0]?.model ?? 'unknown'} × ${os.cpus().length}, ${Math.round(os.totalmem() / 2 ** 30)} GiB, Node ${process.version}, ` +
-      `commit ${commitDescription(root, 'tests/bench/county/README.md')}; one API process, one worker (WORKER_CONCURRENCY 1, niceness 10), production settings; load average (1, 5, 15 min) ${loadBefore} before, ${loadAverage()} after ` +
+      `commit ${commitDescription(root, 'tests/bench/county/README.md')}; one API process, one worker (WORKER_CONCURRENCY 1, niceness ${extraEnv.WORKER_NICENESS ?? 10}), production settings${Object.keys(extraEnv).length > 0 ? ` with ${Object.entries(extraEnv).map(([k, v]) => `${k}=${v}`).join(', ')}` : ''}; load average (1, 5, 15 min) ${loadBefore} before, ${loadAverage()} after ` +
       `(the machine was shared with other work).`,
     county: `${files.features.roads} road features (${(files.bytes.roads / 1e6).toFixed(1)} MB): ${JSON.stringify(imports.roads.job.outcome)}; grid ${layout.n} × ${layout.n}, ${layout.bridgeRows.length} bridges`,
     phases,
