@@ -215,9 +215,9 @@ describe('status and sign-off on the page', () => {
     expect(t).toContain('“Add the hospital shelter.”');
   });
 
-  it('refuses a signed status without a signer, and a signer on a draft', () => {
-    expect(() => renderBriefing(briefingInput({ status: 'signed' }))).rejects.toThrow(/needs signature/);
-    expect(() => renderBriefing(briefingInput({ signature: { ...signer, signedAt: new Date() } }))).rejects.toThrow(/cannot carry a signature/);
+  it('refuses a signed status without a signer, and a signer on a draft', async () => {
+    await expect(renderBriefing(briefingInput({ status: 'signed' }))).rejects.toThrow(/needs signature/);
+    await expect(renderBriefing(briefingInput({ signature: { ...signer, signedAt: new Date() } }))).rejects.toThrow(/cannot carry a signature/);
   });
 });
 
