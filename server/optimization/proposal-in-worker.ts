@@ -1,6 +1,7 @@
 // Starts one proposal in a worker thread with the runs' time and memory budget; cancel() and
 // interrupt() stop it at once (the same contract as a run's solve).
 import type { ProposalResult } from '../../shared/api/proposals';
+import { searchBudgetReason } from '../../shared/format/search-limits';
 import { budgetedThread } from '../budgeted-thread';
 import { SolveFailure, type SolveBudget } from '../run-execution/solve-in-worker';
 import type { ProposalInput } from './proposal-input';
@@ -16,8 +17,8 @@ export function proposalInWorker(
     workerData: input,
     budget,
     words: {
-      tooLong: `The search took longer than its budget of ${budget.timeSeconds} s and was stopped.`,
-      tooBig: `The search needed more than its memory budget of ${budget.memoryMegabytes} MB and was stopped.`,
+      tooLong: searchBudgetReason('time', budget),
+      tooBig: searchBudgetReason('memory', budget),
       failed: (message) => `The search failed: ${message}`,
       noAnswer: 'The search stopped without an answer.',
     },

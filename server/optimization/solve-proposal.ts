@@ -14,6 +14,7 @@ import {
   type PairOrientation,
   type RoadPair,
 } from '../../shared/plan-optimization';
+import { searchLimits } from '../../shared/format/search-limits';
 import { ENGINE_VERSION } from '../run-execution/engine-version';
 import type { ProposalInput } from './proposal-input';
 
@@ -209,5 +210,9 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
       })),
     };
   }
-  return { answer, overlay, caution: proposalCaution, engineVersion: ENGINE_VERSION, solveMs: performance.now() - started };
+  const limits = searchLimits(answer, {
+    horizonMinutes: problem.horizonSteps * minutesPerStep,
+    maxRoads: request.kind === 'closures' ? request.maxRoads : undefined,
+  });
+  return { answer, limits, overlay, caution: proposalCaution, engineVersion: ENGINE_VERSION, solveMs: performance.now() - started };
 }

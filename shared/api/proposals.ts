@@ -175,8 +175,17 @@ export const proposalAnswerSchema = z.discriminatedUnion('kind', [
 ]);
 export type ProposalAnswer = z.infer<typeof proposalAnswerSchema>;
 
+/** Where the search stopped at a limit (shared/format/search-limits.ts words it): what, and what to do. */
+export const searchLimitSchema = z.object({
+  kind: z.enum(['horizon', 'candidates', 'clearance-tests', 'size']),
+  message: z.string(),
+});
+export type SearchLimit = z.infer<typeof searchLimitSchema>;
+
 export const proposalResultSchema = z.object({
   answer: proposalAnswerSchema,
+  // Answers stored before limits were recorded read as none.
+  limits: z.array(searchLimitSchema).default([]),
   // The change as a scenario overlay, ready to save (null when the answer is no change).
   overlay: scenarioOverlaySchema.nullable(),
   caution: z.string(),

@@ -137,6 +137,20 @@ describe('searches on the demo town', () => {
     await planner.agent.get(`/api/plans/${planId}/proposals/${other.id}/export/zone-routes.csv`).expect(409);
   }, 120_000);
 
+  it('a search that stops at a limit says which and what to do, in the stored answer', async () => {
+    // 30 minutes is too short for the demo town to clear even with everyone leaving at the order,
+    // and three roads are fewer than the roads that carry traffic.
+    const short = { ...parameters, horizonMinutes: 30 };
+    const started = await planner.agent.post(`/api/plans/${planId}/proposals`).set('x-csrf-token', planner.csrf).send({ kind: 'release-order', parameters: short }).expect(202);
+    const order = await poll(`/api/plans/${planId}/proposals/${started.body.id}`, (b) => proposalSchema.parse(b));
+    expect(order.result!.answer.kind === 'release-order' && order.result!.answer.quickestClearanceMinutes).toBeNull();
+    expect(order.result!.limits.map((l) => l.kind)).toEqual(['horizon']);
+    expect(order.result!.limits[0]!.message).toContain('within the horizon of 30 min');
+    const closures = await search({ kind: 'closures', maxRoads: 3 });
+    expect(closures.result!.limits.map((l) => l.kind)).toContain('candidates');
+    expect(closures.result!.limits.find((l) => l.kind === 'candidates')!.message).toMatch(/^Only the 3 roads carrying the most vehicles were tested/);
+  }, 120_000);
+
   it('an identical search reuses the stored answer; the list shows searches without their answers', async () => {
     const first = await search({ kind: 'zone-routes' });
     expect(first.phase).toMatch(/reused the answer/);
