@@ -94,9 +94,14 @@ interface PathUse {
  *  2. that excess is sent on to the sink along the base plan's sink tree (kept exact under the
  *     changes, sink-tree.ts) where the residual network allows, the rest returned to the source,
  *     which gives a feasible flow of the closed network;
- *  3. if anything went back to the source the flow is maximised again (exact from any feasible
- *     flow); if nothing did, its value equals the base maximum, which a network with one road
- *     fewer cannot exceed, so it is already maximum;
+ *  3. that flow is already a maximum, so nothing is solved again. If nothing went back, its value
+ *     equals the base maximum, which a network with one road fewer cannot exceed. If some excess
+ *     went back, its tail was outside the tree (it could not reach the sink) yet reached the
+ *     source, so the source could not reach the sink either (the source, node 0, may join the
+ *     tree); returning the excess only adds residual arcs towards that tail, and later sends only
+ *     add arcs pointing back along their own tree paths, so the source never reaches the sink
+ *     again: no augmenting path is left. The property tests compare every answer with a fresh
+ *     solve of the closed network;
  *  4. if the demand is not met by the base's clearance step, the closed clearance lies later: the
  *     search gallops over horizons (c + 1, c + 2, c + 4, …, T) and bisects the last bracket, each
  *     probe maximising from the largest failing horizon's flow (horizons are nested, so that flow
@@ -153,15 +158,12 @@ function closedClearance(
     }
   }
   tree.settle();
-  let returned = 0;
   for (const [tail, amount] of [...excess].sort((a, b) => a[0] - b[0])) {
     const rest = amount - tree.sendToSink(state, tail, amount);
     if (rest > 0 && augmentBetween(network, state, tail, source, rest, firstLimit) !== rest) {
       throw new Error('flow repair failed: the excess could not return to the source');
     }
-    returned += rest;
   }
-  if (returned > 0) maximiseInPlace(network, source, sink, state, { nodeLimit: firstLimit, shouldAbort, algorithm: WARM_ALGORITHM });
   let delivered = netOutflow(network, state, source, firstLimit);
   let probes = 1;
   if (delivered >= demand) return { clearanceStep: firstHorizon, delivered, probes };
