@@ -1,7 +1,10 @@
 // The run's memory budget counts typed arrays. A worker's resourceLimits bound only the V8 heap,
-// and the engine keeps its time-expanded road graph in typed arrays outside it: a 40-junction
-// chain over 3,000 steps holds about 27 MB of them with a heap of about 10 MB, and finished
-// under a 16 MB heap limit. Now the solver thread adds the two and stops the run past the budget.
+// and the engine keeps its time-expanded road graph in typed arrays outside it. The implicit
+// network holds about 10 bytes per expanded arc and 22 per node copy, so a 40-junction chain over
+// 20,000 steps (1.6 million arcs, 0.8 million node copies) holds about 34 MB of them beside a heap
+// of about 10 MB: far past a 20 MB budget whichever check sees it first. (Over 3,000 steps, as
+// this test once used, the implicit network stays near 20 MB and the run could finish first.)
+// The solver thread adds heap and typed arrays and stops the run past the budget.
 import { describe, expect, it } from 'vitest';
 import { solveInWorker, SolveFailure } from '../../server/run-execution/solve-in-worker';
 import type { EvacuationProblem } from '../../shared/flow';
@@ -24,7 +27,7 @@ const solve = (horizonSteps: number, memoryMegabytes: number) =>
 
 describe('the solver thread’s memory budget', () => {
   it('stops a run whose typed arrays pass the budget, saying so', async () => {
-    const failure = await solve(3000, 20).then(
+    const failure = await solve(20_000, 20).then(
       () => null,
       (e: unknown) => e,
     );
