@@ -11,7 +11,7 @@ import { getCapacityTable } from './capacity-table';
 import { planExportIdentity } from './export-identity';
 import { organizationPreferences } from './organization-settings';
 import { assertPlanInOrganization } from './plan-access';
-import { activeLayerId } from './road-layers';
+import { activeLayerId, segmentAttributeColumns } from './road-layers';
 import { zonesAndSheltersOfPlan } from './zones-shelters';
 
 /** The active layer's segments with their geometry (9 decimals of a degree: below a millimetre). */
@@ -23,17 +23,7 @@ async function roadInputs(db: Database, layerId: number | null): Promise<RoadInp
       geometry: sql<string>`ST_AsGeoJSON(${roadSegments.geom}, 9)`,
       lengthMeters: roadSegments.lengthMeters,
       sourceId: roadSegments.sourceId,
-      roadClass: roadSegments.roadClass,
-      lanesForward: roadSegments.lanesForward,
-      lanesBackward: roadSegments.lanesBackward,
-      oneway: roadSegments.oneway,
-      speedKmh: roadSegments.speedKmh,
-      name: roadSegments.name,
-      bridge: roadSegments.bridge,
-      tunnel: roadSegments.tunnel,
-      layer: roadSegments.layer,
-      closed: roadSegments.closed,
-      capacityOverrideVehPerHourPerLane: roadSegments.capacityOverrideVehPerHourPerLane,
+      ...segmentAttributeColumns,
     })
     .from(roadSegments)
     .where(eq(roadSegments.layerId, layerId))

@@ -154,10 +154,8 @@ async function requireActiveLayer(db: Database | Tx, organizationId: string, pla
   return (await activeLayerVersion(db, organizationId, planId)).layerId;
 }
 
-const segmentColumns = {
-  id: roadSegments.id,
-  fromNode: roadSegments.fromNode,
-  toNode: roadSegments.toNode,
+/** A segment's editable attributes as stored: every reader of the layer selects these the same way. */
+export const segmentAttributeColumns = {
   roadClass: roadSegments.roadClass,
   lanesForward: roadSegments.lanesForward,
   lanesBackward: roadSegments.lanesBackward,
@@ -169,6 +167,13 @@ const segmentColumns = {
   layer: roadSegments.layer,
   closed: roadSegments.closed,
   capacityOverrideVehPerHourPerLane: roadSegments.capacityOverrideVehPerHourPerLane,
+};
+
+const segmentColumns = {
+  id: roadSegments.id,
+  fromNode: roadSegments.fromNode,
+  toNode: roadSegments.toNode,
+  ...segmentAttributeColumns,
   lengthMeters: roadSegments.lengthMeters,
   component: roadSegments.component,
   sourceId: roadSegments.sourceId,

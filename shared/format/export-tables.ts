@@ -33,6 +33,30 @@ export type ExportBundle = {
   tables: ExportTable[];
 };
 
+/** A column together with how a row of the source gives its value. */
+export type ExportField<R> = ExportColumn & { value: (row: R) => ExportValue };
+
+export function field<R>(name: string, type: ExportColumn['type'], unit: string | null, description: string, value: (row: R) => ExportValue): ExportField<R> {
+  return { name, type, unit, description, value };
+}
+
+/**
+ * A table from source rows and its fields: the columns and each row's values come from one list,
+ * so a column can never be listed apart from its value.
+ */
+export function tableOf<R>(
+  head: Pick<ExportTable, 'name' | 'title' | 'geometry'>,
+  fields: readonly ExportField<R>[],
+  rows: readonly R[],
+  geometryOf: (row: R) => Geometry | null,
+): ExportTable {
+  return {
+    ...head,
+    columns: fields.map(({ name, type, unit, description }) => ({ name, type, unit, description })),
+    rows: rows.map((row) => ({ geometry: geometryOf(row), values: fields.map((f) => f.value(row)) })),
+  };
+}
+
 /** "name: description (unit)" — how a column is described in metadata and read-me text. */
 export function columnLine(c: ExportColumn): string {
   return `${c.name}: ${c.description}${c.unit ? ` (${c.unit})` : ''}`;
