@@ -216,6 +216,58 @@ describe('route travel times', () => {
   });
 });
 
+describe('no route is modelled faster than free flow', () => {
+  it('on random grids of short roads, every trip between any two junctions takes at least its free-flow time less one step', () => {
+    // The lower bound that keeps the plan honest (docs/model.md §1): Σ τ_e·Δ ≥ Σ t_e − Δ on every
+    // route. Driving a cycle k times shows it needs Σ τ_e·Δ ≥ Σ t_e round every cycle, so each
+    // two-way road of t < Δ/2 costs at least one step in one of its directions; a rule that makes
+    // both directions of such roads free lets trips along a line of equal potential (a staircase
+    // in a grid) cost nothing, and the maximum flow would use them. Reference: the test's own
+    // Dijkstra over free-flow seconds and over the engine's steps × Δ, from every junction.
+    let seed = 20261205;
+    const random = (): number => {
+      seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
+      return seed / 2 ** 32;
+    };
+    for (let round = 0; round < 12; round++) {
+      const nx = 5 + Math.floor(random() * 5);
+      const ny = 4 + Math.floor(random() * 4);
+      const dt = random() < 0.5 ? 60 : 30;
+      const base = grid(nx, ny, 100, 50, 900);
+      // Roads of 2–40 s, some one-way (the reverse dropped).
+      const roads = base.roads
+        .map((r) => ({ ...r, travelTimeSeconds: 2 + Math.floor(random() * 380) / 10 }))
+        .filter(() => random() > 0.1);
+      const nodeCount = base.nodeCount;
+      const pick = (): number => Math.floor(random() * nodeCount);
+      const problem: EvacuationProblem = {
+        nodeCount,
+        roads,
+        zones: [
+          { id: 'a', entryNodes: [pick(), pick()], vehicles: 10 },
+          { id: 'b', entryNodes: [pick()], vehicles: 10 },
+        ],
+        shelters: [
+          { id: 's', node: pick(), capacityVehicles: null },
+          { id: 't', node: pick(), capacityVehicles: null },
+        ],
+        timeStepSeconds: dt,
+        horizonSteps: 40,
+      };
+      const { steps } = routeTravelSteps(problem);
+      const asSteps = roads.map((r, e) => ({ ...r, travelTimeSeconds: steps[e]! * dt }));
+      for (let a = 0; a < nodeCount; a++) {
+        const free = dijkstra(nodeCount, roads, [a]);
+        const modelled = dijkstra(nodeCount, asSteps, [a]);
+        for (let b = 0; b < nodeCount; b++) {
+          if (!Number.isFinite(free[b]!)) continue;
+          expect(modelled[b]!, `round ${round}: ${a} → ${b}, free flow ${free[b]} s`).toBeGreaterThanOrEqual(free[b]! - dt - 1e-6);
+        }
+      }
+    }
+  });
+});
+
 describe('coarse against fine steps', () => {
   it('on a county-like grid the 50/90/95 % times at Δ = 300 s stay within one coarse step of those at Δ = 60 s', () => {
     // 24 × 24 junctions 200 m apart (14.4 s at 50 km/h, 600 veh/h per direction), a river along
