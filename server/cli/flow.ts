@@ -24,8 +24,10 @@ const USAGE = [
   'FILE: a DIMACS max-flow instance ("p max", "n … s|t", "a FROM TO CAPACITY").',
   `Capacities are integers from 0 to ${UNBOUNDED_CAPACITY} (2^31 - 1, which stands for "no limit");`,
   'a larger capacity is refused with its line number (vehicle counts never come near it).',
-  `auto: Edmonds-Karp up to ${AUTO_THRESHOLD_ARCS} arcs; above, incremental BFS, handed over to push-relabel after`,
-  `${AUTO_HANDOVER_AUGMENTATIONS_PER_ARC} augmentations per arc (layered graphs whose paths each carry little); "algorithm" says which finished.`,
+  `auto: Edmonds-Karp up to ${AUTO_THRESHOLD_ARCS} arcs; above, it looks at the network's shape first: push-relabel`,
+  'where capacities are drawn from a wide range (many distinct values, a share far below the median), otherwise',
+  `incremental BFS, handed over to push-relabel after ${AUTO_HANDOVER_AUGMENTATIONS_PER_ARC} augmentations per arc (paths that each carry little).`,
+  '"algorithm" says which finished; "autoChoice" the shape seen, the algorithm started with and why.',
 ].join('\n');
 
 async function main(): Promise<number> {
@@ -92,6 +94,7 @@ async function main(): Promise<number> {
     value: result.value,
     unbounded: result.unbounded,
     algorithm: result.algorithm,
+    ...(result.autoChoice ? { autoChoice: { shape: result.autoChoice.shape, start: result.autoChoice.start, handover: result.autoChoice.handover, reason: result.autoChoice.reason } } : {}),
     nodes: network.nodeCount,
     arcs: network.arcCount,
     parseMs: round(parseMs),

@@ -1,5 +1,6 @@
-// `auto` above its size threshold: incremental BFS first, push-relabel if the search trees make
-// too many augmentations for the network's size.
+// The safety net `auto` arms where the network's shape is unclear (network-shape.ts decides first,
+// before solving): incremental BFS first, push-relabel if the search trees make too many
+// augmentations for the network's size.
 //
 // Why: on the product's networks (road graphs, their time-expanded copies) augmenting paths are
 // few, because one path carries a whole road's capacity (measured: 0.0004–0.0055 augmentations

@@ -8,6 +8,7 @@ import { edmondsKarp } from './edmonds-karp';
 import { incrementalBfs } from './incremental-bfs';
 import { FlowInputError, FlowOverflowError } from './errors';
 import { autoAugmentationLimit, incrementalBfsThenPushRelabel } from './handover';
+import { chooseAuto, type AutoChoice } from './network-shape';
 import { arcFlows, createFlowState, netOutflow, type FlowState } from './flow-state';
 import { minimumCut, type MinimumCut } from './min-cut';
 import type { FlowNetwork } from './flow-network';
@@ -19,12 +20,13 @@ export type MaxFlowAlgorithmChoice = MaxFlowAlgorithm | 'auto';
 export const MAX_FLOW_ALGORITHMS: readonly MaxFlowAlgorithm[] = ['edmonds-karp', 'dinic', 'push-relabel', 'boykov-kolmogorov', 'incremental-bfs'];
 
 /**
- * 'auto' runs Edmonds–Karp up to this many arcs (it is the reference method and is fast enough
- * there) and AUTO_FAST_ALGORITHM above it, which hands over to push-relabel when it makes more
- * than AUTO_HANDOVER_AUGMENTATIONS_PER_ARC augmentations per arc (handover.ts).
+ * 'auto' runs Edmonds–Karp up to AUTO_THRESHOLD_ARCS arcs (it is the reference method and is fast
+ * enough there); above, it decides by the network's shape before solving (network-shape.ts):
+ * push-relabel where capacities are drawn from a wide range, otherwise incremental BFS, which
+ * hands over to push-relabel when it makes more than AUTO_HANDOVER_AUGMENTATIONS_PER_ARC
+ * augmentations per arc (handover.ts).
  */
-export const AUTO_THRESHOLD_ARCS = 5_000;
-export const AUTO_FAST_ALGORITHM: MaxFlowAlgorithm = 'incremental-bfs';
+export { AUTO_THRESHOLD_ARCS, chooseAuto, shapeFigures, type AutoChoice, type NetworkShape, type ShapeFigures } from './network-shape';
 
 const RUNNERS: Record<MaxFlowAlgorithm, (ctx: SolveContext) => void> = {
   'edmonds-karp': edmondsKarp,
@@ -36,7 +38,7 @@ const RUNNERS: Record<MaxFlowAlgorithm, (ctx: SolveContext) => void> = {
 
 /** Options of maxFlow; every field is optional. */
 export interface MaxFlowOptions {
-  /** Which algorithm; 'auto' (default) chooses by size and shape, see AUTO_THRESHOLD_ARCS. */
+  /** Which algorithm; 'auto' (default) chooses by size and shape (network-shape.ts). */
   algorithm?: MaxFlowAlgorithmChoice;
   /** Continue from this flow instead of the empty one (warm start). It is updated in place. */
   state?: FlowState;
@@ -61,15 +63,19 @@ export interface MaxFlowResult {
   readonly unbounded: boolean;
   /** The algorithm that finished (under 'auto', push-relabel when incremental BFS handed over). */
   readonly algorithm: MaxFlowAlgorithm;
+  /** Under 'auto': the shape it saw, the algorithm it started with and why; null when one was requested. */
+  readonly autoChoice: AutoChoice | null;
   readonly stats: MaxFlowStats;
   /** The final residual capacities, for warm starts and what-if runs. */
   readonly state: FlowState;
 }
 
-/** The algorithm 'auto' starts with on this network (above the threshold it may hand over to push-relabel). */
-export function chooseAlgorithm(network: FlowNetwork, nodeLimit = network.nodeCount): MaxFlowAlgorithm {
-  const arcs = network.firstOut[nodeLimit]! / 2;
-  return arcs <= AUTO_THRESHOLD_ARCS ? 'edmonds-karp' : AUTO_FAST_ALGORITHM;
+/**
+ * The algorithm 'auto' starts with on this network (incremental BFS may then hand over to
+ * push-relabel). Without terminals the shape figures count the terminals' arcs too.
+ */
+export function chooseAlgorithm(network: FlowNetwork, nodeLimit = network.nodeCount, source = -1, sink = -1): MaxFlowAlgorithm {
+  return chooseAuto(network, source, sink, nodeLimit).start;
 }
 
 /**
@@ -110,7 +116,7 @@ export function maxFlow(
 
   const stats = emptyStats();
   const started = options.now?.();
-  const algorithm = runChoice(choice, { network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort });
+  const { algorithm, autoChoice } = runChoice(choice, { network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort });
   if (started !== undefined && options.now) stats.elapsedMs = options.now() - started;
   const minCut = minimumCut(network, state.residual, source, nodeLimit);
 
@@ -127,6 +133,7 @@ export function maxFlow(
     minCut,
     unbounded,
     algorithm,
+    autoChoice,
     stats,
     state,
   };
@@ -143,25 +150,26 @@ export function maximiseInPlace(
   sink: number,
   state: FlowState,
   options: Pick<MaxFlowOptions, 'algorithm' | 'nodeLimit' | 'shouldAbort'> = {},
-): { algorithm: MaxFlowAlgorithm; stats: MaxFlowStats } {
+): { algorithm: MaxFlowAlgorithm; autoChoice: AutoChoice | null; stats: MaxFlowStats } {
   const nodeLimit = options.nodeLimit ?? network.nodeCount;
   const stats = emptyStats();
   const ctx = { network, residual: state.residual, source, sink, nodeLimit, stats, shouldAbort: options.shouldAbort };
-  return { algorithm: runChoice(options.algorithm ?? 'auto', ctx), stats };
+  return { ...runChoice(options.algorithm ?? 'auto', ctx), stats };
 }
 
-/** Runs the chosen algorithm, or 'auto' with its handover, and returns the one that finished. */
-function runChoice(choice: MaxFlowAlgorithmChoice, ctx: SolveContext): MaxFlowAlgorithm {
+/** Runs the chosen algorithm, or 'auto' by shape with its handover; returns the one that finished. */
+function runChoice(choice: MaxFlowAlgorithmChoice, ctx: SolveContext): { algorithm: MaxFlowAlgorithm; autoChoice: AutoChoice | null } {
   if (choice !== 'auto') {
     RUNNERS[choice](ctx);
-    return choice;
+    return { algorithm: choice, autoChoice: null };
   }
-  const algorithm = chooseAlgorithm(ctx.network, ctx.nodeLimit);
-  if (algorithm !== 'incremental-bfs') {
-    RUNNERS[algorithm](ctx);
-    return algorithm;
+  const autoChoice = chooseAuto(ctx.network, ctx.source, ctx.sink, ctx.nodeLimit);
+  if (!autoChoice.handover) {
+    RUNNERS[autoChoice.start](ctx);
+    return { algorithm: autoChoice.start, autoChoice };
   }
-  return incrementalBfsThenPushRelabel(ctx, autoAugmentationLimit(ctx.network.firstOut[ctx.nodeLimit]! / 2));
+  const algorithm = incrementalBfsThenPushRelabel(ctx, autoAugmentationLimit(ctx.network.firstOut[ctx.nodeLimit]! / 2));
+  return { algorithm, autoChoice };
 }
 
 function checkSourceCapacity(network: FlowNetwork, source: number, nodeLimit: number): void {
@@ -184,6 +192,7 @@ export interface MaxFlowResultJson {
   value: number;
   unbounded: boolean;
   algorithm: MaxFlowAlgorithm;
+  autoChoice: AutoChoice | null;
   flow: number[];
   sourceSide: number[];
   cutArcs: number[];
@@ -202,6 +211,7 @@ export function maxFlowResultToJson(result: MaxFlowResult): MaxFlowResultJson {
     value: result.value,
     unbounded: result.unbounded,
     algorithm: result.algorithm,
+    autoChoice: result.autoChoice,
     flow: Array.from(result.flow),
     sourceSide,
     cutArcs: Array.from(result.minCut.cutArcs),

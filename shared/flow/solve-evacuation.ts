@@ -12,7 +12,7 @@ import { createFlowState } from './flow-state';
 import { computeImplicitCurve } from './implicit-curve';
 import { ImplicitExpandedNetwork } from './implicit-expanded';
 import { implicitArrivalsByStep, implicitBottlenecks, implicitDecomposeTrips, implicitRoadUsage, verifyImplicit } from './implicit-readout';
-import { chooseAlgorithm, type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice, type MaxFlowResult } from './max-flow';
+import { type MaxFlowAlgorithm, type MaxFlowAlgorithmChoice, type MaxFlowResult } from './max-flow';
 import { perStepCapacity } from './road-timing';
 import { suggestedTimeStepSeconds, type RouteTimingError } from './route-timing';
 import { buildSteadyStateNetwork, solveSteadyState, type SteadyStateNetwork, type SteadyStateSummary } from './steady-state';
@@ -224,8 +224,8 @@ function steadyStatePhase(run: SolveRun): SteadyPhase {
   const { problem, options, choice } = run;
   run.progress('steady-state', 0);
   const steady = buildSteadyStateNetwork(problem, options.steadyStateAtSeconds ?? 0);
-  const algorithm = choice === 'auto' ? chooseAlgorithm(steady.network) : choice;
-  const { summary, result } = solveSteadyState(problem, steady, { algorithm, shouldAbort: options.shouldAbort });
+  // Under 'auto' the front door decides by the network's shape (network-shape.ts) and may hand over.
+  const { summary, result } = solveSteadyState(problem, steady, { algorithm: choice, shouldAbort: options.shouldAbort });
   if (summary.unbounded) {
     run.warnings.push({
       code: 'steady-state-unbounded',

@@ -18,7 +18,8 @@ export interface BenchInstance {
   family?: () => FamilyNetwork;
 }
 
-const city = (width: number, spec: Partial<CitySpec> = {}): CitySpec => ({
+/** The bench's city spec: `width` × `width` intersections, the rest as below unless overridden. */
+export const city = (width: number, spec: Partial<CitySpec> = {}): CitySpec => ({
   width,
   height: width,
   seed: 7,

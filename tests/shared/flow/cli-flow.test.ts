@@ -62,7 +62,11 @@ describe('flow command', { timeout: 120_000 }, () => {
         expect(status).toBe(0);
         const output = JSON.parse(stdout) as Record<string, unknown>;
         expect(output).toMatchObject({ value: 2, verified: true });
-        if (algorithm === 'auto') expect(output.algorithm).toBe('incremental-bfs');
+        if (algorithm === 'auto') {
+          expect(output.algorithm).toBe('incremental-bfs');
+          expect(output.autoChoice).toMatchObject({ start: 'incremental-bfs' });
+          expect((output.autoChoice as { reason: string }).reason).toMatch(/incremental BFS/);
+        } else expect(output.autoChoice).toBeUndefined();
       }
     });
   }, 180_000);
@@ -91,7 +95,8 @@ describe('flow command', { timeout: 120_000 }, () => {
     const help = run('--help');
     expect(help.status).toBe(0);
     expect(help.stderr).toMatch(/Capacities are integers from 0 to 2147483647/);
-    expect(help.stderr).toMatch(/auto: Edmonds-Karp up to 5000 arcs; above, incremental BFS, handed over to push-relabel after\n0.01 augmentations per arc/);
+    expect(help.stderr).toMatch(/auto: Edmonds-Karp up to 5000 arcs; above, it looks at the network's shape first: push-relabel/);
+    expect(help.stderr).toMatch(/incremental BFS, handed over to push-relabel after 0.01 augmentations per arc/);
   }, 120_000);
 
   it('exits with 2 on an unknown algorithm', () => {
