@@ -2,6 +2,7 @@
 // labels back to segments, zones and shelters), the request, and the candidate segments the
 // request's limits (classes, drawn area, chosen set) came to when it was started.
 import type { ParsedProposalRequest } from '../../shared/api/proposals';
+import type { RunBudget } from '../../shared/model/run-budget';
 import type { RunInput } from '../../shared/model/run-input';
 
 export type ProposalInput = {
@@ -11,4 +12,6 @@ export type ProposalInput = {
   candidateSegmentIds: number[] | null;
   /** The hash a run of the same problem carries (runs.input_hash): the briefing of that run prints this search. */
   runInputHash?: string;
+  /** The run budget when it was started: a search over time runs on the layout that fits it (shared/model/search-budget.ts). */
+  budget?: RunBudget;
 };

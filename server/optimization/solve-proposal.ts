@@ -14,7 +14,9 @@ import {
   type PairOrientation,
   type RoadPair,
 } from '../../shared/plan-optimization';
-import { searchLimits } from '../../shared/format/search-limits';
+import { searchLimits, searchTooLargeReason } from '../../shared/format/search-limits';
+import { FlowInputError } from '../../shared/flow';
+import { chooseSearchLayout, type SearchLayout } from '../../shared/model/search-budget';
 import { ENGINE_VERSION } from '../run-execution/engine-version';
 import type { ProposalInput } from './proposal-input';
 
@@ -28,6 +30,9 @@ const emptyOverlay = (): ScenarioOverlay => ({
   departureDelays: [],
   departureSchedules: [],
 });
+
+/** server/config.ts's defaults of RUN_MAX_EXPANDED_ARCS and RUN_MAX_EXPANDED_MEGABYTES. */
+const DEFAULT_RUN_BUDGET = { maxExpandedArcs: 600_000_000, maxBytes: 6144 * 2 ** 20 };
 
 export type ProposalHooks = { onProgress?: (fraction: number) => void; shouldAbort?: () => boolean };
 
@@ -47,6 +52,16 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
 
   let answer: ProposalAnswer;
   let overlay: ScenarioOverlay | null = null;
+  // The searches over time run on the written-out network where it fits the run budget, else on
+  // the implicit one (shared/model/search-budget.ts); an input stored without its budget gets the
+  // server's defaults (server/config.ts).
+  let expandedLayout: SearchLayout | null = null;
+  if (request.kind !== 'lanes') {
+    const choice = chooseSearchLayout(request.kind, problem, input.budget ?? DEFAULT_RUN_BUDGET);
+    if (choice.layout === null) throw new FlowInputError(searchTooLargeReason(request.kind, choice.refusal));
+    expandedLayout = choice.layout;
+  }
+  const layout = expandedLayout ?? undefined;
 
   if (request.kind === 'contraflow') {
     // Pairs: the two carriageways of one segment.
@@ -64,6 +79,7 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
     const result = bestContraflow(problem, pairs, {
       candidates,
       maxCorridors: request.maxCorridors ?? undefined,
+      layout,
       onProgress: hooks.onProgress,
       shouldAbort: hooks.shouldAbort,
     });
@@ -105,6 +121,7 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
       closeAtSeconds: request.closeAtMinutes * 60,
       candidates: allowed ? candidates : undefined,
       maxCandidates: request.maxRoads,
+      layout,
       onProgress: hooks.onProgress,
       shouldAbort: hooks.shouldAbort,
     });
@@ -163,7 +180,7 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
     for (const [segmentId, patch] of bySegment) overlay.laneChanges.push({ segmentId, patch });
     if (overlay.laneChanges.length === 0) overlay = null;
   } else if (request.kind === 'release-order') {
-    const order = bestReleaseOrder(problem, hooks);
+    const order = bestReleaseOrder(problem, { ...hooks, layout });
     answer = {
       kind: 'release-order',
       stepMinutes: minutesPerStep,
@@ -188,7 +205,7 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
       .filter((z) => z.departuresByStep.some((n) => n > 0))
       .map((z) => ({ zoneId: z.zoneId, stepMinutes: minutesPerStep, departuresByStep: z.departuresByStep }));
   } else {
-    const routes = zoneRoutes(problem, hooks);
+    const routes = zoneRoutes(problem, { ...hooks, layout });
     const window = (w: { firstStep: number; lastStep: number } | null): [number, number] | null =>
       w ? [w.firstStep * minutesPerStep, (w.lastStep + 1) * minutesPerStep] : null;
     answer = {
@@ -214,5 +231,5 @@ export function solveProposal(input: ProposalInput, solver: LinearSolver | undef
     horizonMinutes: problem.horizonSteps * minutesPerStep,
     maxRoads: request.kind === 'closures' ? request.maxRoads : undefined,
   });
-  return { answer, limits, overlay, caution: proposalCaution, engineVersion: ENGINE_VERSION, solveMs: performance.now() - started };
+  return { answer, limits, expandedLayout, overlay, caution: proposalCaution, engineVersion: ENGINE_VERSION, solveMs: performance.now() - started };
 }

@@ -2,6 +2,8 @@
 // segments the request's limits select), list, read, cancel, and save the answer as a scenario.
 import { createHash } from 'node:crypto';
 import type { RunBudget } from '../../shared/model/run-budget';
+import { chooseSearchLayout } from '../../shared/model/search-budget';
+import { searchTooLargeReason } from '../../shared/format/search-limits';
 import { and, count, desc, eq, getTableColumns, gt, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../db/client';
 import { proposals, roadSegments } from '../db/schema';
@@ -69,8 +71,13 @@ export async function startProposal(
   const scenario = request.scenarioId ? await getScenario(db, actor.organizationId, planId, request.scenarioId) : null;
   // Prepared when it is started (runs are now prepared by the worker; a search still reads its snapshot here).
   const prepared = buildRunInput(await loadPlanModel(db, actor.organizationId, planId), request.parameters, budget, scenario);
+  if (request.kind !== 'lanes') {
+    // What the search builds over time, on the layout that fits (refused before it is queued).
+    const choice = chooseSearchLayout(request.kind, prepared.input.problem, budget);
+    if (choice.layout === null) throw new BadRequestError(searchTooLargeReason(request.kind, choice.refusal));
+  }
   const candidateSegmentIds = await candidateSegments(db, prepared.layerId, request);
-  const input: ProposalInput = { run: prepared.input, request, candidateSegmentIds, runInputHash: prepared.inputHash };
+  const input: ProposalInput = { run: prepared.input, request, candidateSegmentIds, runInputHash: prepared.inputHash, budget };
   const inputHash = createHash('sha256')
     .update(JSON.stringify({ engine: ENGINE_VERSION, request, candidateSegmentIds, problem: prepared.input.problem }))
     .digest('hex');

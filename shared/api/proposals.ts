@@ -186,6 +186,10 @@ export const proposalResultSchema = z.object({
   answer: proposalAnswerSchema,
   // Answers stored before limits were recorded read as none.
   limits: z.array(searchLimitSchema).default([]),
+  // Which layout of the time-expanded network the search solved on: written out ('explicit'), or
+  // implicit where that would not fit the run budget; null for searches that do not look over
+  // time (and for answers stored before this was recorded).
+  expandedLayout: z.enum(['explicit', 'implicit']).nullable().optional(),
   // The change as a scenario overlay, ready to save (null when the answer is no change).
   overlay: scenarioOverlaySchema.nullable(),
   caution: z.string(),

@@ -22,3 +22,9 @@ export * from './bottlenecks';
 export * from './fixes';
 export * from './solve-evacuation';
 export { AUTO_HANDOVER_AUGMENTATIONS_PER_ARC, autoAugmentationLimit, incrementalBfsThenPushRelabel } from './handover';
+// The time-expanded network without its copies written out, for callers that solve over time at
+// a size the explicit layout would not fit (the searches of shared/plan-optimization).
+export { ImplicitExpandedNetwork, expandImplicitly } from './implicit-expanded';
+export { computeImplicitCurve, type ImplicitCurveOptions } from './implicit-curve';
+export { ImplicitIncrementalBfs, type ResidualChangeNote } from './implicit-incremental-bfs';
+export { implicitArrivalsByStep, implicitRoadUsage } from './implicit-readout';

@@ -87,3 +87,19 @@ export function searchBudgetReason(kind: 'time' | 'memory', budget: { timeSecond
       : `The search needed more than its memory budget of ${budget.memoryMegabytes} MB and was stopped.`;
   return `${what} To finish within it, use a coarser time step or a shorter horizon in the run assumptions, or search fewer roads (road classes, a drawn area, fewer roads to test); an administrator can raise the budget (RUN_TIME_BUDGET_SECONDS, RUN_MEMORY_BUDGET_MEGABYTES).`;
 }
+
+const overTime: Record<'contraflow' | 'closures' | 'release-order' | 'zone-routes', string> = {
+  contraflow: 'The search for one-way roads evaluates them over time, which',
+  closures: 'The ranking of closures computes each closure’s clearance time over time, which',
+  'release-order': 'The search for the quickest departure order solves the evacuation over time, which',
+  'zone-routes': 'Following where each zone goes solves the evacuation over time, which',
+};
+
+/**
+ * A search over time refused before it starts because what it builds does not fit the run budget
+ * (shared/model/search-budget.ts): what it builds, and the refusal's own advice (a coarser step,
+ * a shorter horizon), plus the steady-state searches that remain possible.
+ */
+export function searchTooLargeReason(search: keyof typeof overTime, refusal: string): string {
+  return `${overTime[search]} needs more than the run budget allows even without writing the network out. ${refusal} Contraflow in the steady state and added lanes do not look over time and stay available.`;
+}

@@ -22,6 +22,9 @@ export const BYTES_PER_EXPANDED_NODE = 22;
 export const OFFERED_STEPS_SECONDS = [60, 90, 120, 180, 240, 300, 600, 900, 1800, 3600];
 
 export type ExpandedSize = { arcs: number; nodes: number; bytes: number };
+/** Bytes per time-expanded arc and per node copy of what is built (a run's by default; a search's: search-budget.ts). */
+export type ExpandedBytes = { perArc: number; perNode: number };
+export const RUN_BYTES: ExpandedBytes = { perArc: BYTES_PER_EXPANDED_ARC, perNode: BYTES_PER_EXPANDED_NODE };
 export type RunBudget = { maxExpandedArcs: number; maxBytes: number };
 
 export function horizonStepsOf(horizonMinutes: number, timeStepSeconds: number): number {
@@ -35,11 +38,11 @@ export function horizonStepsOf(horizonMinutes: number, timeStepSeconds: number):
  * zones spread over many junctions make this a tenth of the total on the generated county).
  * Closed steps make it smaller.
  */
-export function expandedSize(nodeCount: number, roads: number, horizonSteps: number, entries = 0): ExpandedSize {
+export function expandedSize(nodeCount: number, roads: number, horizonSteps: number, entries = 0, cost: ExpandedBytes = RUN_BYTES): ExpandedSize {
   const layers = horizonSteps + 1;
   const arcs = (roads + nodeCount + entries) * layers;
   const nodes = nodeCount * layers;
-  return { arcs, nodes, bytes: arcs * BYTES_PER_EXPANDED_ARC + nodes * BYTES_PER_EXPANDED_NODE };
+  return { arcs, nodes, bytes: arcs * cost.perArc + nodes * cost.perNode };
 }
 
 export function fits(size: ExpandedSize, budget: RunBudget): boolean {
@@ -76,17 +79,19 @@ export function budgetRefusal(
   /** An upper bound of the network, for the coarser step and shorter horizon offered, so that
    *  what is offered on a lower bound is not refused when the exact size is known. */
   offerFor: NetworkSize = network,
+  /** Bytes per arc and node of what is built (default a run's). */
+  cost: ExpandedBytes = RUN_BYTES,
 ): string | null {
   const { horizonMinutes, timeStepSeconds } = parameters;
-  const size = expandedSize(network.nodeCount, network.roads, horizonStepsOf(horizonMinutes, timeStepSeconds), network.entries);
+  const size = expandedSize(network.nodeCount, network.roads, horizonStepsOf(horizonMinutes, timeStepSeconds), network.entries, cost);
   if (fits(size, budget)) return null;
   const head =
     `This analysis would need ${precision} ${millions(size.arcs)} time-expanded arcs and ${gigabytes(size.bytes)} of memory, ` +
     `more than this server's budget of ${millions(budget.maxExpandedArcs)} arcs and ${gigabytes(budget.maxBytes)}.`;
   const coarser = OFFERED_STEPS_SECONDS.filter((s) => s > timeStepSeconds)
-    .map((s) => ({ s, size: expandedSize(offerFor.nodeCount, offerFor.roads, horizonStepsOf(horizonMinutes, s), offerFor.entries) }))
+    .map((s) => ({ s, size: expandedSize(offerFor.nodeCount, offerFor.roads, horizonStepsOf(horizonMinutes, s), offerFor.entries, cost) }))
     .find((c) => fits(c.size, budget));
-  const perLayer = expandedSize(offerFor.nodeCount, offerFor.roads, 0, offerFor.entries);
+  const perLayer = expandedSize(offerFor.nodeCount, offerFor.roads, 0, offerFor.entries, cost);
   const layersThatFit = Math.min(Math.floor(budget.maxExpandedArcs / perLayer.arcs), Math.floor(budget.maxBytes / perLayer.bytes));
   const horizonThatFits = Math.floor(((layersThatFit - 1) * timeStepSeconds) / 60);
   const shorter =

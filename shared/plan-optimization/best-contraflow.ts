@@ -21,8 +21,9 @@
 // more than its own capacity in some step); it and the steady-state orientation are evaluated
 // exactly, the better one is kept, and its gap to the bound is reported.
 
-import { buildSteadyStateNetwork, floorCapacity, maxFlow, maximiseInPlace, netOutflow, perStepCapacity, roadUsage, type EvacuationProblem } from '../flow';
-import { clearanceOutcome, cloneProblem, evaluateCurve, type OptimisationHooks } from './problem-tools';
+import { buildSteadyStateNetwork, floorCapacity, maxFlow, maximiseInPlace, netOutflow, perStepCapacity, type EvacuationProblem } from '../flow';
+import type { ExpandedLayout } from './implicit-plan';
+import { clearanceOutcome, cloneProblem, planOverTime, type OptimisationHooks } from './problem-tools';
 import { applyContraflow, poolPairs, reversiblePair, type PairOrientation, type RoadPair } from './road-pairs';
 
 export interface ContraflowOptions extends OptimisationHooks {
@@ -221,11 +222,17 @@ export function bestSteadyContraflow(
 }
 
 /** Orientation from the pooled time-expanded plan: net vehicles per pair, reversed where it uses more than its own lanes. */
-function timeExpandedOrientation(problem: EvacuationProblem, pairs: readonly RoadPair[], candidates: readonly number[], shouldAbort?: () => boolean) {
+function timeExpandedOrientation(
+  problem: EvacuationProblem,
+  pairs: readonly RoadPair[],
+  candidates: readonly number[],
+  shouldAbort: (() => boolean) | undefined,
+  layout: ExpandedLayout,
+) {
   const pooled = cloneProblem(problem);
   poolPairs(pooled, pairs, candidates);
-  const curve = evaluateCurve(pooled, shouldAbort);
-  const usage = roadUsage(curve.expanded, curve.state, pooled.roads.length);
+  const curve = planOverTime(pooled, layout, shouldAbort);
+  const usage = curve.roadUsage(pooled.roads.length);
   const ownStep = evaluateStepCapacities(problem);
   const orientations: PairOrientation[] = [];
   const vehicles: number[] = [];
@@ -247,10 +254,16 @@ function evaluateStepCapacities(problem: EvacuationProblem): number[] {
   return problem.roads.map((road) => perStepCapacity(road.capacityVehPerHour, problem.timeStepSeconds));
 }
 
-function curveWith(problem: EvacuationProblem, pairs: readonly RoadPair[], orientations: readonly PairOrientation[], shouldAbort?: () => boolean) {
+function curveWith(
+  problem: EvacuationProblem,
+  pairs: readonly RoadPair[],
+  orientations: readonly PairOrientation[],
+  shouldAbort: (() => boolean) | undefined,
+  layout: ExpandedLayout,
+) {
   const copy = cloneProblem(problem);
   applyContraflow(copy, pairs, orientations);
-  return clearanceOutcome(copy, shouldAbort);
+  return clearanceOutcome(copy, shouldAbort, layout);
 }
 
 const sameOrientations = (a: readonly PairOrientation[], b: readonly PairOrientation[]): boolean => {
@@ -275,9 +288,10 @@ export function bestContraflow(problem: EvacuationProblem, pairs: readonly RoadP
   if (options.timeExpanded === false) return { pairs: [...pairs], candidates, steady, timeExpanded: null };
 
   const abort = options.shouldAbort;
-  const base = curveWith(problem, pairs, [], abort);
+  const layout = options.layout ?? 'explicit';
+  const base = curveWith(problem, pairs, [], abort, layout);
   options.onProgress?.(0.6);
-  const derived = timeExpandedOrientation(problem, pairs, candidates, abort);
+  const derived = timeExpandedOrientation(problem, pairs, candidates, abort, layout);
   options.onProgress?.(0.75);
   let fromCurve = derived.orientations;
   const k = options.maxCorridors ?? Infinity;
@@ -289,10 +303,10 @@ export function bestContraflow(problem: EvacuationProblem, pairs: readonly RoadP
     fromCurve = ranked.slice(0, k).flatMap((x) => x.g);
   }
   const steadyChoice = steady.corridors.flatMap((c) => c.orientations);
-  const a = curveWith(problem, pairs, steadyChoice, abort);
+  const a = curveWith(problem, pairs, steadyChoice, abort, layout);
   options.onProgress?.(0.9);
   // The same orientation twice needs one exact evaluation.
-  const b = sameOrientations(fromCurve, steadyChoice) ? a : curveWith(problem, pairs, fromCurve, abort);
+  const b = sameOrientations(fromCurve, steadyChoice) ? a : curveWith(problem, pairs, fromCurve, abort, layout);
   options.onProgress?.(1);
   const chosen = better(b, a)
     ? { from: 'time-expanded' as const, orientations: fromCurve, ...b }

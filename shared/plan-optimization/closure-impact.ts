@@ -19,8 +19,11 @@ import {
   maximiseInPlace,
   netOutflow,
   nodeLimitAtHorizon,
+  implicitRoadUsage,
   type EvacuationProblem,
 } from '../flow';
+import { implicitClosedClearances, type ImplicitClosureOutcome } from './implicit-closures';
+import { implicitCurve, type ExpandedLayout } from './implicit-plan';
 import { augmentBetween, removeArcFromFlow } from './bounded-augment';
 import { SinkTree, type SinkTreeSnapshot } from './sink-tree';
 import { forEachFlowPath, stepOfNode } from './flow-paths';
@@ -71,6 +74,13 @@ export interface ClosureRanking {
   impacts: ClosureImpact[];
   /** Roads with flow left out by maxCandidates. */
   truncated: boolean;
+  /**
+   * How the clearance was searched (null: not at all): on the written-out network, warm-started
+   * from the base plan; or on the implicit one (implicit-closures.ts), warm-started from the base
+   * flow, with `freshSolves` roads solved afresh instead.
+   */
+  clearanceLayout: ExpandedLayout | null;
+  freshSolves: number;
 }
 
 const closureFrom = (at: number) => [{ fromSeconds: at, untilSeconds: null }];
@@ -213,8 +223,11 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
   const steady = buildSteadyStateNetwork(problem, at);
   const base = maxFlow(steady.network, steady.source, steady.sink, { shouldAbort: abort });
   const withClearance = options.clearance !== false;
-  const curve = withClearance ? evaluateCurve(problem, abort) : null;
+  const layout = options.layout ?? 'explicit';
+  const curve = withClearance && layout === 'explicit' ? evaluateCurve(problem, abort) : null;
+  const implicitPlan = withClearance && layout === 'implicit' ? implicitCurve(problem, abort) : null;
   const planVehicles = new Float64Array(R);
+  if (implicitPlan) planVehicles.set(implicitRoadUsage(implicitPlan.net, implicitPlan.residual, R).totalVehicles);
   const roadArcs: number[][] = Array.from({ length: R }, () => []);
   // The plan as paths; per road, the paths that use it (with the step they enter it).
   const paths: PlanPath[] = [];
@@ -261,13 +274,16 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
   const tested = new Set(
     [...pool]
       .sort((a, b) => steadyLoss.get(b)! - steadyLoss.get(a)! || planVehicles[b]! - planVehicles[a]! || a - b)
-      .slice(0, curve ? (options.maxClearanceTests ?? 20) : 0),
+      .slice(0, curve || implicitPlan ? (options.maxClearanceTests ?? 20) : 0),
   );
+  let done = 0;
+  const implicitOutcomes: Map<number, ImplicitClosureOutcome> | null = implicitPlan
+    ? implicitClosedClearances(problem, implicitPlan, [...tested], at, abort, () => options.onProgress?.(0.2 + (0.8 * ++done) / Math.max(1, tested.size)))
+    : null;
   // The base plan's sink tree, grown once; every tested closure starts from a copy.
   const baseTree = curve && tested.size > 0
     ? new SinkTree(curve.expanded.network, curve.state.residual, curve.expanded.sink, nodeLimitAtHorizon(curve.expanded, curve.finalHorizon)).snapshot()
     : null;
-  let done = 0;
   pool.forEach((e) => {
     let clearanceStep: number | null = null;
     let deliveredLoss = 0;
@@ -277,6 +293,11 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
       clearanceStep = outcome.clearanceStep;
       deliveredLoss = curve.deliveredAtHorizon - outcome.delivered;
       clearanceLoss = clearanceStep !== null && curve.clearanceStep !== null ? clearanceStep - curve.clearanceStep : null;
+    } else if (implicitPlan && implicitOutcomes!.has(e)) {
+      const outcome = implicitOutcomes!.get(e)!;
+      clearanceStep = outcome.clearanceStep;
+      deliveredLoss = implicitPlan.deliveredAtHorizon - outcome.delivered;
+      clearanceLoss = clearanceStep !== null && implicitPlan.clearanceStep !== null ? clearanceStep - implicitPlan.clearanceStep : null;
     }
     impacts.push({
       road: e,
@@ -288,11 +309,12 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
       deliveredLossVehicles: deliveredLoss,
       clearanceTested: tested.has(e),
     });
-    if (tested.has(e)) options.onProgress?.(0.2 + (0.8 * ++done) / Math.max(1, tested.size));
+    if (curve && tested.has(e)) options.onProgress?.(0.2 + (0.8 * ++done) / Math.max(1, tested.size));
   });
 
+  const baseClearanceStep = curve?.clearanceStep ?? implicitPlan?.clearanceStep ?? null;
   const severity = (i: ClosureImpact): number =>
-    i.clearanceTested && curve && curve.clearanceStep !== null && i.clearanceStep === null ? Number.MAX_SAFE_INTEGER : (i.clearanceLossSteps ?? 0);
+    i.clearanceTested && baseClearanceStep !== null && i.clearanceStep === null ? Number.MAX_SAFE_INTEGER : (i.clearanceLossSteps ?? 0);
   impacts.sort(
     (a, b) =>
       severity(b) - severity(a) ||
@@ -303,9 +325,11 @@ export function rankClosures(problem: EvacuationProblem, options: ClosureOptions
   return {
     closeAtSeconds: at,
     baseVehPerHour: base.value,
-    baseClearanceStep: curve?.clearanceStep ?? null,
-    baseDeliveredAtHorizon: curve?.deliveredAtHorizon ?? 0,
+    baseClearanceStep,
+    baseDeliveredAtHorizon: curve?.deliveredAtHorizon ?? implicitPlan?.deliveredAtHorizon ?? 0,
     impacts,
     truncated,
+    clearanceLayout: curve ? 'explicit' : implicitPlan ? 'implicit' : null,
+    freshSolves: implicitOutcomes ? [...implicitOutcomes.values()].filter((o) => o.fresh).length : 0,
   };
 }

@@ -6,6 +6,7 @@ export * from './problem-tools';
 export * from './road-pairs';
 export * from './bounded-augment';
 export * from './flow-paths';
+export * from './implicit-plan';
 export * from './best-contraflow';
 export * from './closure-impact';
 export * from './best-lanes';

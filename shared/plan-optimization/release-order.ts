@@ -11,8 +11,7 @@
 // own, still clears by the same step.
 
 import type { EvacuationProblem } from '../flow';
-import { forEachFlowPath } from './flow-paths';
-import { cloneProblem, deliveredByHorizon, evaluateCurve, type OptimisationHooks } from './problem-tools';
+import { cloneProblem, deliveredByHorizon, planOverTime, type OptimisationHooks } from './problem-tools';
 
 export interface ZoneSchedule {
   id: string;
@@ -65,10 +64,17 @@ function withSchedule(problem: EvacuationProblem, schedules: number[][]): Evacua
 }
 
 export function bestReleaseOrder(problem: EvacuationProblem, hooks: OptimisationHooks = {}): ReleaseOrder {
-  const expected = evaluateCurve(problem, hooks.shouldAbort);
+  const layout = hooks.layout ?? 'explicit';
+  // Only the figures of the expected curve are kept, so its network is released before the next.
+  const { clearanceStep: expectedClearanceStep, deliveredAtHorizon: expectedDeliveredAtHorizon, deliveredByStep: expectedDeliveredByStep } = planOverTime(
+    problem,
+    layout,
+    hooks.shouldAbort,
+  );
   hooks.onProgress?.(0.3);
   const free = everyoneFreeAtOrder(problem);
-  const quickest = evaluateCurve(free, hooks.shouldAbort);
+  // The quickest horizon is the smallest whose maximum reaches the demand: the curve's clearance.
+  let quickest: ReturnType<typeof planOverTime> | null = planOverTime(free, layout, hooks.shouldAbort);
   hooks.onProgress?.(0.6);
 
   const Z = problem.zones.length;
@@ -78,7 +84,7 @@ export function bestReleaseOrder(problem: EvacuationProblem, hooks: Optimisation
     while (list.length <= step) list.push(0);
     list[step]! += n;
   };
-  forEachFlowPath(quickest.expanded, quickest.state, (path) => {
+  quickest.forEachPath((path) => {
     add(asFound[path.zone]!, path.entryStep, path.vehicles);
     const gated = problem.zones[path.zone]!.releaseVehPerHour !== undefined;
     add(movedHome[path.zone]!, path.entryStep + (gated ? 0 : path.waitsAtEntry), path.vehicles);
@@ -90,7 +96,10 @@ export function bestReleaseOrder(problem: EvacuationProblem, hooks: Optimisation
   // curve over every horizon.
   const target = quickest.clearanceStep;
   const horizon = target ?? problem.horizonSteps;
-  const asGood = (schedules: number[][]) => deliveredByHorizon(withSchedule(problem, schedules), horizon, hooks.shouldAbort) >= quickest.deliveredAtHorizon;
+  const { deliveredAtHorizon: quickestDeliveredAtHorizon, deliveredByStep: quickestDeliveredByStep } = quickest;
+  quickest = null; // its network is not needed for the checks below
+  const asGood = (schedules: number[][]) =>
+    deliveredByHorizon(withSchedule(problem, schedules), horizon, hooks.shouldAbort, layout) >= quickestDeliveredAtHorizon;
   let chosen = movedHome;
   let waitsMovedHome = true;
   let achieved = asGood(movedHome);
@@ -106,12 +115,12 @@ export function bestReleaseOrder(problem: EvacuationProblem, hooks: Optimisation
   return {
     timeStepSeconds: problem.timeStepSeconds,
     horizonSteps: problem.horizonSteps,
-    quickestClearanceStep: quickest.clearanceStep,
-    quickestDeliveredAtHorizon: quickest.deliveredAtHorizon,
-    expectedClearanceStep: expected.clearanceStep,
-    expectedDeliveredAtHorizon: expected.deliveredAtHorizon,
-    expectedDeliveredByStep: expected.deliveredByStep,
-    quickestDeliveredByStep: quickest.deliveredByStep,
+    quickestClearanceStep: target,
+    quickestDeliveredAtHorizon,
+    expectedClearanceStep,
+    expectedDeliveredAtHorizon,
+    expectedDeliveredByStep,
+    quickestDeliveredByStep,
     zones: problem.zones.map((zone, z) => {
       const list = chosen[z]!;
       const first = list.findIndex((n) => n > 0);

@@ -4,8 +4,7 @@
 // routes are those of this plan, not the only way the zone could go.
 
 import type { EvacuationProblem } from '../flow';
-import { forEachFlowPath } from './flow-paths';
-import { evaluateCurve, type OptimisationHooks } from './problem-tools';
+import { planOverTime, type OptimisationHooks } from './problem-tools';
 
 export interface ZoneRoute {
   zone: string;
@@ -31,7 +30,7 @@ export interface ZoneRoutes {
 }
 
 export function zoneRoutes(problem: EvacuationProblem, hooks: OptimisationHooks = {}): ZoneRoutes {
-  const curve = evaluateCurve(problem, hooks.shouldAbort);
+  const curve = planOverTime(problem, hooks.layout, hooks.shouldAbort);
   const Z = problem.zones.length;
   const shelterVehicles = Array.from({ length: Z }, () => new Map<number, number>());
   const roadVehicles = Array.from({ length: Z }, () => new Map<number, number>());
@@ -41,7 +40,7 @@ export function zoneRoutes(problem: EvacuationProblem, hooks: OptimisationHooks 
   const arrivals = Array.from({ length: Z }, window);
   const widen = (w: { firstStep: number; lastStep: number } | null, step: number) =>
     w ? { firstStep: Math.min(w.firstStep, step), lastStep: Math.max(w.lastStep, step) } : { firstStep: step, lastStep: step };
-  forEachFlowPath(curve.expanded, curve.state, (path) => {
+  curve.forEachPath((path) => {
     const z = path.zone;
     delivered[z]! += path.vehicles;
     shelterVehicles[z]!.set(path.shelter, (shelterVehicles[z]!.get(path.shelter) ?? 0) + path.vehicles);

@@ -119,12 +119,12 @@ describe('best contraflow, steady state', () => {
   });
 });
 
-describe('best contraflow, time-expanded', () => {
+describe.each(['explicit', 'implicit'] as const)('best contraflow, time-expanded, on the %s network', (layout) => {
   it('the pooled curve bounds every orientation (brute force), equals its glpk.js LP, and the chosen orientation is evaluated exactly', () => {
     fc.assert(
       fc.property(randomPlan({ maxPairs: 4, horizon: 10 }), (plan) => {
         const { problem, pairs } = plan;
-        const result = bestContraflow(problem, pairs);
+        const result = bestContraflow(problem, pairs, { layout });
         const te = result.timeExpanded!;
         const pooled = cloneProblem(problem);
         poolPairs(pooled, pairs, pairs.map((_, i) => i));

@@ -15,17 +15,18 @@ beforeAll(async () => {
   glpk = await loadGlpk();
 });
 
-describe('closure ranking', () => {
+describe.each(['explicit', 'implicit'] as const)('closure ranking on the %s time-expanded network', (layout) => {
   it('every loss equals a fresh solve with the road closed', () => {
     fc.assert(
       fc.property(randomPlan({ maxPairs: 4 }), fc.integer({ min: 0, max: 4 }), ({ problem }, closeStep) => {
         const closeAtSeconds = closeStep * STEP_SECONDS;
-        const ranking = rankClosures(problem, { closeAtSeconds, candidates: problem.roads.map((_, e) => e), maxClearanceTests: 1000 });
+        const ranking = rankClosures(problem, { closeAtSeconds, candidates: problem.roads.map((_, e) => e), maxClearanceTests: 1000, layout });
         const base = solveEvacuation(problem, { steadyStateAtSeconds: closeAtSeconds });
         expect(ranking.baseVehPerHour).toBe(base.steadyState.throughputVehPerHour);
         expect(ranking.baseClearanceStep).toBe(base.curve.clearanceStep);
         for (const impact of ranking.impacts) {
           expect(impact.clearanceTested).toBe(true);
+          expect(ranking.clearanceLayout).toBe(layout);
           const closed = cloneProblem(problem);
           closed.roads[impact.road]!.closures = [{ fromSeconds: closeAtSeconds, untilSeconds: null }];
           const fresh = solveEvacuation(closed, { steadyStateAtSeconds: closeAtSeconds });
@@ -91,7 +92,7 @@ describe('closure ranking', () => {
           horizonSteps: 40,
         };
         const closeAtSeconds = closeStep * STEP_SECONDS;
-        const ranking = rankClosures(problem, { closeAtSeconds, maxClearanceTests: 1000 });
+        const ranking = rankClosures(problem, { closeAtSeconds, maxClearanceTests: 1000, layout });
         const base = solveEvacuation(problem, { steadyStateAtSeconds: closeAtSeconds });
         expect(ranking.baseClearanceStep).toBe(base.curve.clearanceStep);
         for (const impact of ranking.impacts) {
@@ -106,7 +107,9 @@ describe('closure ranking', () => {
       { numRuns: 40 },
     );
   }, 120_000);
+});
 
+describe('closure ranking', () => {
   it('a closure that delays the clearance by nine steps is found by the bracketed search (worked by hand)', () => {
     // 20 vehicles leave node 0 at the order. The direct road 0 → 1 carries 10 a step in one step:
     // departures in steps 0 and 1 arrive by step 2. Closed, the detour 0 → 2 → 1 carries 2 a

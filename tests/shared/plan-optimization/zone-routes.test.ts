@@ -8,11 +8,11 @@ import { solveEvacuation, type EvacuationProblem } from '../../../shared/flow';
 import { zoneRoutes } from '../../../shared/plan-optimization';
 import { randomPlan } from './support/random-plans';
 
-describe('zone routes', () => {
+describe.each(['explicit', 'implicit'] as const)('zone routes on the %s time-expanded network', (layout) => {
   it('add up to the engine plan: road vehicles, assignments, delivered vehicles', () => {
     fc.assert(
       fc.property(randomPlan(), ({ problem }) => {
-        const routes = zoneRoutes(problem);
+        const routes = zoneRoutes(problem, { layout });
         const engine = solveEvacuation(problem);
         const roadTotals = new Array<number>(problem.roads.length).fill(0);
         routes.zones.forEach((zone, z) => {
@@ -30,7 +30,9 @@ describe('zone routes', () => {
       { numRuns: 50 },
     );
   }, 60_000);
+});
 
+describe('zone routes', () => {
   it('two zones, two shelters (worked by hand)', () => {
     // Zone A at 0 → shelter at 2 via 0→2; zone B at 1 → exit at 3 via 1→3; no link between them.
     const problem: EvacuationProblem = {
