@@ -143,7 +143,8 @@ function routeTimingOf(input: RunInput, r: Solved): NonNullable<RunResult['route
             freeFlowSeconds: worst.freeFlowSeconds,
             modelledSeconds: worst.modelledSeconds,
           },
-    suggestedStepSeconds: suggestedTimeStepSeconds(timing, r.timeStepSeconds),
+    // Past one step on the fastest trips or on most of the plan's routes (shared/format/trip-times.ts).
+    suggestedStepSeconds: suggestedTimeStepSeconds({ largestSeconds: Math.max(timing.largestSeconds, r.plannedRoutes.typicalSeconds) }, r.timeStepSeconds),
     plannedRoutes: r.plannedRoutes,
   };
 }

@@ -180,8 +180,9 @@ export const routeTimingSchema = z.object({
       modelledSeconds: z.number(),
     })
     .nullable(),
-  // Past one step: the longest step that should bring the difference within one present step
-  // (null when none of the offered steps does, or none is needed).
+  // Past one step (on the fastest trips, or for the plan's typical route): the longest step that
+  // should bring the difference within one present step (null when none of the offered steps
+  // does, or none is needed).
   suggestedStepSeconds: z.number().nullable(),
   // The routes the plan's vehicles drive (its flow decomposed into trips), each route's modelled
   // driving time against its own free-flow time: largest, vehicle-weighted median, and the share

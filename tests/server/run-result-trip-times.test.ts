@@ -87,5 +87,8 @@ describe('the trip-time error in the stored result', () => {
     expect(t.suggestedStepSeconds!).toBeLessThan(60);
     const finer = stored({ ...problem, timeStepSeconds: t.suggestedStepSeconds!, horizonSteps: Math.ceil((30 * 60) / t.suggestedStepSeconds!) }).routeTiming!;
     expect(finer.largestSeconds).toBeLessThanOrEqual(60);
+    // The step is also chosen for the plan's typical route, and brings that within one present step.
+    expect(t.suggestedStepSeconds!).toBeLessThanOrEqual((60 * 60) / Math.max(t.largestSeconds, t.plannedRoutes!.typicalSeconds));
+    expect(finer.plannedRoutes!.typicalSeconds).toBeLessThanOrEqual(60);
   });
 });

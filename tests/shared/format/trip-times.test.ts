@@ -1,7 +1,7 @@
 // The trip-time words that the Findings tab and the briefing both print (shared/format/trip-times.ts).
 import { describe, expect, it } from 'vitest';
 import type { RouteTiming } from '../../../shared/api/runs';
-import { formatTripSeconds, tripTimesMethod, tripTimesPastBound, tripTimesSummary, tripTimesWarning } from '../../../shared/format/trip-times';
+import { fastestTripsPastBound, formatTripSeconds, plannedRoutesPastBound, tripTimesMethod, tripTimesPastBound, tripTimesSummary, tripTimesWarning } from '../../../shared/format/trip-times';
 
 const within: RouteTiming = {
   timeStepSeconds: 60,
@@ -52,6 +52,30 @@ describe('trip-time words', () => {
     expect(tripTimesWarning({ ...past, suggestedStepSeconds: null })).toContain('Analyse again with a shorter time step');
   });
 
+  it('warns when most of the plan’s routes are more than one step off, even with every fastest trip within it', () => {
+    // The generated county at 60 s (tests/bench/flow/README.md): fastest trips can be within the
+    // bound while the routes the plan drives (other bridges, when the nearest are full) are not.
+    const planOff: RouteTiming = { ...within, suggestedStepSeconds: 15, plannedRoutes: { vehicles: 56166, largestSeconds: 12638, typicalSeconds: 3066, withinOneStepShare: 0.164 } };
+    expect(fastestTripsPastBound(planOff)).toBe(false);
+    expect(plannedRoutesPastBound(planOff)).toBe(true);
+    expect(tripTimesPastBound(planOff)).toBe(true);
+    const w = tripTimesWarning(planOff)!;
+    expect(w).toBe(
+      "Most of the routes the plan's 56,166 vehicles drive are modelled more than one time step (1 minute) slower than at free flow: typically 51.1 min, up to 3 h 31 min; " +
+        'only 16 % of those vehicles are within one step, so arrivals, the curve and the clearance time may come that much late. ' +
+        'The cause is roads driven against the direction their steps were rounded for (towards the nearest shelter or exit, or out of the nearest zone), each rounded up to a whole step. ' +
+        'Analyse again with a time step of 15 seconds: that should bring the difference within 1 minute.',
+    );
+    // A typical route within one step: no warning on its account.
+    const planWithin: RouteTiming = { ...within, plannedRoutes: { vehicles: 900, largestSeconds: 400, typicalSeconds: 60, withinOneStepShare: 0.7 } };
+    expect(tripTimesWarning(planWithin)).toBeNull();
+    // Both past: the worst fastest trip first, then the plan's routes, one cause.
+    const both = tripTimesWarning({ ...past, plannedRoutes: planOff.plannedRoutes })!;
+    expect(both).toContain('from North Flats to Hill School takes 3.8 min at free flow and 6.3 min in the model');
+    expect(both).toContain("Most of the routes the plan's 56,166 vehicles drive");
+    expect(both).toContain('The cause is roads driven against the direction');
+  });
+
   it('the method states the rounding and its bound, with this run’s figures when stored', () => {
     const m = tripTimesMethod(60, within);
     expect(m).toContain('whole time steps of 1 minute');
@@ -59,6 +83,8 @@ describe('trip-time words', () => {
     // Which trips the bound covers, and that the others are not bounded (docs/model.md §1).
     expect(m).toContain('a fastest route to the nearest shelter or exit');
     expect(m).toContain('Other trips are not bounded this way');
+    // The lower bound every route keeps (tests/shared/flow/route-timing.test.ts checks it).
+    expect(m).toContain('No trip is modelled more than one time step faster than at free flow.');
     expect(m).toContain('Fleischer & Skutella 2007');
     expect(m).toContain(tripTimesSummary(within));
     expect(tripTimesMethod(300, undefined)).not.toContain('In this analysis');
