@@ -14,6 +14,7 @@ import type { ResidualUndoLog } from './residual-undo-log';
 import type { FlowNetwork } from './flow-network';
 import { FREE, NO_PARENT, ORPHAN, ROOT, SINK_TREE, SOURCE_TREE, SearchTrees, type GrowthProgress } from './search-trees';
 import type { MaxFlowStats, SolveContext } from './solve-context';
+import { KeptWork, freshWork, type WorkArrays } from './work-arrays';
 
 const INFINITE_DISTANCE = 0x3fffffff;
 
@@ -43,8 +44,9 @@ export function createBoykovKolmogorov(
   sink: number,
   initialNodeLimit: number,
   undoLog: ResidualUndoLog | null = null,
+  work: WorkArrays = freshWork,
 ): BoykovKolmogorovSolver {
-  return new BoykovKolmogorov(network, residual, source, sink, initialNodeLimit, undoLog);
+  return new BoykovKolmogorov(network, residual, source, sink, initialNodeLimit, undoLog, work);
 }
 
 /** The solver's state and its steps; the hot loops copy the fields they read into locals. */
@@ -62,14 +64,14 @@ class BoykovKolmogorov extends SearchTrees implements BoykovKolmogorovSolver {
   private orphanCount = 0;
   private time = 0;
 
-  constructor(network: FlowNetwork, residual: Int32Array, source: number, sink: number, initialNodeLimit: number, undoLog: ResidualUndoLog | null) {
-    super(network, residual, source, sink, initialNodeLimit, undoLog);
+  constructor(network: FlowNetwork, residual: Int32Array, source: number, sink: number, initialNodeLimit: number, undoLog: ResidualUndoLog | null, work: WorkArrays) {
+    super(network, residual, source, sink, initialNodeLimit, undoLog, work);
     const n = this.n;
-    this.timestamp = new Int32Array(n);
-    this.distance = new Int32Array(n);
-    this.active = new Int32Array(n);
-    this.inQueue = new Uint8Array(n);
-    this.orphans = new Int32Array(n);
+    this.timestamp = work.int32(n, 0);
+    this.distance = work.int32(n, 0);
+    this.active = work.int32(n, 0);
+    this.inQueue = work.uint8(n);
+    this.orphans = work.int32(n, 0);
     this.plantRoots();
   }
 
@@ -266,7 +268,12 @@ class BoykovKolmogorov extends SearchTrees implements BoykovKolmogorovSolver {
 
 }
 
-/** One-shot run for the front door. */
+/** One-shot run for the front door, on work arrays kept between one-shot solves. */
 export function boykovKolmogorov(ctx: SolveContext): void {
-  createBoykovKolmogorov(ctx.network, ctx.residual, ctx.source, ctx.sink, ctx.nodeLimit).maximise(ctx.stats, ctx.shouldAbort);
+  const work = new KeptWork();
+  try {
+    createBoykovKolmogorov(ctx.network, ctx.residual, ctx.source, ctx.sink, ctx.nodeLimit, null, work).maximise(ctx.stats, ctx.shouldAbort);
+  } finally {
+    work.release();
+  }
 }

@@ -15,6 +15,7 @@
 import { createIncrementalBfs } from './incremental-bfs';
 import { pushRelabel } from './push-relabel';
 import type { SolveContext } from './solve-context';
+import { KeptWork } from './work-arrays';
 
 /**
  * Augmentations per arc (of the nodes below the limit) after which `auto` hands over to
@@ -28,9 +29,16 @@ export const AUTO_HANDOVER_AUGMENTATIONS_PER_ARC = 0.01;
  * Returns the algorithm that finished.
  */
 export function incrementalBfsThenPushRelabel(ctx: SolveContext, augmentationLimit: number): 'incremental-bfs' | 'push-relabel' {
-  const solver = createIncrementalBfs(ctx.network, ctx.residual, ctx.source, ctx.sink, ctx.nodeLimit);
-  solver.maximise(ctx.stats, ctx.shouldAbort, augmentationLimit);
-  if (!solver.stoppedAtLimit) return 'incremental-bfs';
+  const work = new KeptWork();
+  let stopped: boolean;
+  try {
+    const solver = createIncrementalBfs(ctx.network, ctx.residual, ctx.source, ctx.sink, ctx.nodeLimit, undefined, null, work);
+    solver.maximise(ctx.stats, ctx.shouldAbort, augmentationLimit);
+    stopped = solver.stoppedAtLimit;
+  } finally {
+    work.release();
+  }
+  if (!stopped) return 'incremental-bfs';
   pushRelabel(ctx);
   return 'push-relabel';
 }

@@ -19,6 +19,7 @@ import type { ResidualUndoLog } from './residual-undo-log';
 import type { FlowNetwork } from './flow-network';
 import { FREE, NO_PARENT, ORPHAN, SINK_TREE, SOURCE_TREE, SearchTrees, type GrowthProgress } from './search-trees';
 import type { MaxFlowStats, SolveContext } from './solve-context';
+import { KeptWork, freshWork, type WorkArrays } from './work-arrays';
 
 /**
  * Label gap between a node and a child found by growth. Leaving room means a parent that has to
@@ -72,8 +73,9 @@ export function createIncrementalBfs(
   initialNodeLimit: number,
   initialBuckets = 1 << 16,
   undoLog: ResidualUndoLog | null = null,
+  work: WorkArrays = freshWork,
 ): IncrementalSolver {
-  return new IncrementalBfs(network, residual, source, sink, initialNodeLimit, initialBuckets, undoLog);
+  return new IncrementalBfs(network, residual, source, sink, initialNodeLimit, initialBuckets, undoLog, work);
 }
 
 /** The solver's state and its steps; the hot loops copy the fields they read into locals. */
@@ -109,18 +111,19 @@ class IncrementalBfs extends SearchTrees implements IncrementalSolver {
     initialNodeLimit: number,
     initialBuckets: number,
     undoLog: ResidualUndoLog | null,
+    work: WorkArrays,
   ) {
-    super(network, residual, source, sink, initialNodeLimit, undoLog);
+    super(network, residual, source, sink, initialNodeLimit, undoLog, work);
     const n = this.n;
-    this.label = new Int32Array(n);
-    this.activeNext = new Int32Array(n);
-    this.isActive = new Uint8Array(n);
-    this.orphanNext = new Int32Array(n);
-    this.children = new Int32Array(n);
+    this.label = work.int32(n, 0);
+    this.activeNext = work.int32(n, 0);
+    this.isActive = work.uint8(n);
+    this.orphanNext = work.int32(n, 0);
+    this.children = work.int32(n, 0);
     this.buckets = Math.max(2, Math.min(n + 2, initialBuckets));
-    this.activeFirstS = new Int32Array(this.buckets).fill(-1);
-    this.activeFirstT = new Int32Array(this.buckets).fill(-1);
-    this.orphanFirst = new Int32Array(this.buckets).fill(-1);
+    this.activeFirstS = work.int32(this.buckets, -1);
+    this.activeFirstT = work.int32(this.buckets, -1);
+    this.orphanFirst = work.int32(this.buckets, -1);
     this.lowestActiveS = this.buckets;
     this.lowestActiveT = this.buckets;
     this.lowestOrphan = this.buckets;
@@ -376,7 +379,12 @@ function grown(array: Int32Array, size: number): Int32Array {
   return bigger;
 }
 
-/** One-shot run for the front door. */
+/** One-shot run for the front door, on work arrays kept between one-shot solves. */
 export function incrementalBfs(ctx: SolveContext): void {
-  createIncrementalBfs(ctx.network, ctx.residual, ctx.source, ctx.sink, ctx.nodeLimit).maximise(ctx.stats, ctx.shouldAbort);
+  const work = new KeptWork();
+  try {
+    createIncrementalBfs(ctx.network, ctx.residual, ctx.source, ctx.sink, ctx.nodeLimit, undefined, null, work).maximise(ctx.stats, ctx.shouldAbort);
+  } finally {
+    work.release();
+  }
 }

@@ -5,6 +5,7 @@
 import { raisedResidual } from './capacity';
 import type { FlowNetwork } from './flow-network';
 import type { ResidualUndoLog } from './residual-undo-log';
+import type { WorkArrays } from './work-arrays';
 
 export const FREE = 0;
 export const SOURCE_TREE = 1;
@@ -36,14 +37,15 @@ export abstract class SearchTrees {
     protected readonly sink: number,
     initialNodeLimit: number,
     protected readonly undoLog: ResidualUndoLog | null,
+    work: WorkArrays,
   ) {
     this.firstOut = network.firstOut;
     this.head = network.head;
     this.mate = network.mate;
     this.n = network.nodeCount;
     this.limit = initialNodeLimit;
-    this.tree = new Uint8Array(this.n);
-    this.parent = new Int32Array(this.n).fill(NO_PARENT);
+    this.tree = work.uint8(this.n);
+    this.parent = work.int32(this.n, NO_PARENT);
   }
 
   /** Queues a tree node for growth (no-op when already queued). */

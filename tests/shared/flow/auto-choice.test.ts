@@ -1,7 +1,7 @@
 // `auto` decides by the network's shape before it solves (shared/flow/network-shape.ts): push-relabel
-// alone where capacities are drawn from a wide range, incremental BFS on road graphs and
-// time-expanded networks, incremental BFS with the handover to push-relabel armed where the shape
-// is unclear, Edmonds–Karp up to 5,000 arcs.
+// alone where capacities are drawn from a wide range, Boykov–Kolmogorov on road graphs, incremental
+// BFS on time-expanded networks, incremental BFS with the handover to push-relabel armed where the
+// shape is unclear, Edmonds–Karp up to 5,000 arcs.
 // Outside references: the family graphs are generated from their published descriptions by the
 // bench's generator (GENRMF-like frames, Goldfarb & Grigoriadis 1988 as described by Cherkassky &
 // Goldberg 1997; random level graphs, Cherkassky & Goldberg 1997); glpk.js solves each random
@@ -59,12 +59,13 @@ describe('auto chooses by shape before it solves', () => {
     }
   }, 60_000);
 
-  it('runs incremental BFS alone on road-like cities and their time-expanded networks', () => {
+  it('runs Boykov–Kolmogorov on road-like cities and incremental BFS on their time-expanded networks', () => {
     for (const width of [40, 100]) {
       const steady = buildSteadyStateNetwork(generateCity(city(width, { seed: width })));
       const auto = solveBoth(steady.network, steady.source, steady.sink);
-      expect(auto.autoChoice).toMatchObject({ shape: 'two-way', start: 'incremental-bfs', handover: false });
-      expect(auto.algorithm).toBe('incremental-bfs');
+      expect(auto.autoChoice).toMatchObject({ shape: 'two-way', start: 'boykov-kolmogorov', handover: false });
+      expect(auto.autoChoice!.reason).toMatch(/two-way roads.*Boykov–Kolmogorov/);
+      expect(auto.algorithm).toBe('boykov-kolmogorov');
       expect(auto.stats.pushes).toBe(0);
     }
     const expanded = expandOverTime(generateCity(city(40, { horizonSteps: 15 })));
@@ -121,7 +122,7 @@ describe('auto chooses by shape before it solves', () => {
     // Each random graph (parallel and antiparallel bundles in shuffled order) gets a padding
     // component the source cannot reach, 5,100 arcs that carry nothing and lift auto past its
     // size threshold: widely spread capacities (auto starts with push-relabel) or two-way pairs
-    // of one capacity (auto starts with incremental BFS). The maximum is the random graph's.
+    // of one capacity (auto starts with Boykov–Kolmogorov). The maximum is the random graph's.
     fc.assert(
       fc.property(
         fc.oneof(randomGraph({ maxNodes: 12, maxArcs: 40 }), randomGraph({ maxNodes: 9, maxArcs: 20, maxCapacity: 4, bundles: 2 })),
@@ -149,7 +150,7 @@ describe('auto chooses by shape before it solves', () => {
           const network = buildNetwork(graph.nodeCount + pad, arcs);
           const lp = solveFlowLp(glpk, graph.nodeCount, graph.arcs, graph.source, graph.sink);
           const auto = maxFlow(network, graph.source, graph.sink);
-          expect(auto.autoChoice!.start).toBe(spread ? 'push-relabel' : 'incremental-bfs');
+          expect(auto.autoChoice!.start).toBe(spread ? 'push-relabel' : 'boykov-kolmogorov');
           expect(auto.value).toBe(Math.round(lp.value));
           expect(verify(network, auto).problems).toEqual([]);
           for (const algorithm of MAX_FLOW_ALGORITHMS) {

@@ -51,7 +51,7 @@ describe('flow command', { timeout: 120_000 }, () => {
     expect(stderr).toMatch(/malformed-capacity\.max:5: capacity must be a non-negative integer, got ten/);
   });
 
-  it('finishes on many parallel arcs, also when auto picks incremental BFS above 5,000 arcs', () => {
+  it('finishes on many parallel arcs, also under auto above 5,000 arcs, and says what auto saw', () => {
     const lines = ['p max 9 ' + (PARALLEL_BUNDLES.length + 5000), 'n 1 s', 'n 9 t'];
     for (const [from, to, capacity] of PARALLEL_BUNDLES) lines.push(`a ${from + 1} ${to + 1} ${capacity}`);
     // Padding that carries nothing (arcs into the source), only to pass auto's size threshold.
@@ -63,9 +63,11 @@ describe('flow command', { timeout: 120_000 }, () => {
         const output = JSON.parse(stdout) as Record<string, unknown>;
         expect(output).toMatchObject({ value: 2, verified: true });
         if (algorithm === 'auto') {
-          expect(output.algorithm).toBe('incremental-bfs');
-          expect(output.autoChoice).toMatchObject({ start: 'incremental-bfs' });
-          expect((output.autoChoice as { reason: string }).reason).toMatch(/incremental BFS/);
+          // Which algorithm ran and why: the shape it saw decides (here the bundles' reverse twins).
+          const choice = output.autoChoice as { shape: string; start: string; reason: string };
+          expect(choice.start).toBe(output.algorithm);
+          expect(choice.shape).toBe('two-way');
+          expect(choice.reason).toMatch(/reverse twin.*Boykov–Kolmogorov/);
         } else expect(output.autoChoice).toBeUndefined();
       }
     });
