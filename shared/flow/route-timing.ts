@@ -31,7 +31,7 @@
 // Roads off every trip (no shelter reachable, or not reachable from a zone, for the potential in
 // use), and roads that carry nothing per step, keep the plain rule ⌈t_e/Δ⌉ ≥ 1.
 
-import { ceilWithTolerance } from './capacity';
+import { ROUNDING_TOLERANCE, ceilWithTolerance } from './capacity';
 import type { EvacuationProblem } from './evacuation-problem';
 import { perStepCapacity } from './road-timing';
 
@@ -125,6 +125,150 @@ export function routeTravelSteps(problem: EvacuationProblem): { steps: Int32Arra
     if (best === null || timing.largestSeconds < best.timing.largestSeconds - 1e-9) best = { steps, timing };
   }
   return best!;
+}
+
+/**
+ * Node phases in seconds, 0 ≤ Φ(v) < Δ, of a potential that falls along trips (nodeTimePotential):
+ * Φ(v) = −π(v) mod Δ, 0 where π is infinite. travelStepsFromPhases of these phases keeps every
+ * trip the potential makes fastest as tight as travelStepsAgainst does.
+ */
+export function phasesOfPotential(potential: Float64Array, timeStepSeconds: number): Float64Array {
+  const phase = new Float64Array(potential.length);
+  for (let v = 0; v < potential.length; v++) phase[v] = Number.isFinite(potential[v]!) ? phaseOf(-potential[v]!, timeStepSeconds) : 0;
+  return phase;
+}
+
+/** time modulo Δ in [0, Δ); a value within the rounding tolerance of Δ counts as 0. */
+function phaseOf(time: number, dt: number): number {
+  const p = time - dt * Math.floor(time / dt);
+  return p >= dt * (1 - ROUNDING_TOLERANCE) || p < 0 ? 0 : p;
+}
+
+/**
+ * Steps per road from node phases: τ_e = ⌈(Φ(u) + t_e − Φ(v))/Δ⌉ ≥ 0, the steps until the first
+ * instant at v's phase no earlier than the arrival (docs/model.md §1: every rule that models no
+ * route faster than free flow by a step or more has this form). Around a cycle the phases cancel,
+ * so Σ τ_e·Δ ≥ Σ t_e; a zero-step road must lead to a higher phase (equal: a higher node index),
+ * so zero-step roads never close a cycle. Roads that carry nothing per step take ⌈t_e/Δ⌉ ≥ 1.
+ */
+export function travelStepsFromPhases(problem: EvacuationProblem, phase: Float64Array): Int32Array {
+  const dt = problem.timeStepSeconds;
+  const steps = new Int32Array(problem.roads.length);
+  problem.roads.forEach((road, e) => {
+    if (perStepCapacity(road.capacityVehPerHour, dt) === 0) {
+      steps[e] = Math.max(1, ceilWithTolerance(road.travelTimeSeconds / dt));
+      return;
+    }
+    const pu = phase[road.from]!;
+    const pv = phase[road.to]!;
+    let tau = Math.max(0, ceilWithTolerance((pu + road.travelTimeSeconds - pv) / dt));
+    if (tau === 0 && !(pv > pu || (pv === pu && road.to > road.from))) tau = 1;
+    steps[e] = tau;
+  });
+  return steps;
+}
+
+/**
+ * Steps fitted to where a plan drives: starting from the phases of the potential routeTravelSteps
+ * keeps, each junction in turn takes the phase that least delays the given vehicles on its roads
+ * (Σ vehicles × wait at the far end, the wait being (Φ(v) − Φ(u) − t_e) mod Δ), among the phases
+ * that would make one of its roads exact; `sweeps` rounds, or until nothing changes. A coordinate
+ * descent: the total wait never rises, but it is a local optimum. O(sweeps · Σ deg²) over the
+ * roads with vehicles. `vehiclesByRoad` is typically the road use of a first solve's plan.
+ */
+export function fittedTravelSteps(problem: EvacuationProblem, vehiclesByRoad: ArrayLike<number>, sweeps = 10): Int32Array {
+  const { nodeCount: N, roads, timeStepSeconds: dt } = problem;
+  const R = roads.length;
+  const start = routeTravelSteps(problem).timing.potential;
+  const phase = phasesOfPotential(nodeTimePotential(problem, start), dt);
+  const weight = (e: number): number => (perStepCapacity(roads[e]!.capacityVehPerHour, dt) > 0 ? Math.max(0, vehiclesByRoad[e] ?? 0) : 0);
+  const first = new Int32Array(N + 1);
+  for (let e = 0; e < R; e++) {
+    if (weight(e) <= 0 || roads[e]!.from === roads[e]!.to) continue;
+    first[roads[e]!.from + 1]!++;
+    first[roads[e]!.to + 1]!++;
+  }
+  for (let v = 0; v < N; v++) first[v + 1]! += first[v]!;
+  const fill = first.slice(0, N);
+  const incident = new Int32Array(first[N]!);
+  for (let e = 0; e < R; e++) {
+    if (weight(e) <= 0 || roads[e]!.from === roads[e]!.to) continue;
+    incident[fill[roads[e]!.from]!++] = e;
+    incident[fill[roads[e]!.to]!++] = e;
+  }
+  const wait = (x: number): number => phaseOf(x, dt);
+  const delay = (v: number, p: number): number => {
+    let sum = 0;
+    for (let k = first[v]!, end = first[v + 1]!; k < end; k++) {
+      const road = roads[incident[k]!]!;
+      const pu = road.from === v ? p : phase[road.from]!;
+      const pv = road.to === v ? p : phase[road.to]!;
+      sum += weight(incident[k]!) * wait(pv - pu - road.travelTimeSeconds);
+    }
+    return sum;
+  };
+  for (let round = 0; round < sweeps; round++) {
+    let changed = false;
+    for (let v = 0; v < N; v++) {
+      if (first[v] === first[v + 1]) continue;
+      let best = phase[v]!;
+      let bestDelay = delay(v, best);
+      for (let k = first[v]!, end = first[v + 1]!; k < end; k++) {
+        const road = roads[incident[k]!]!;
+        const candidate = road.to === v ? phaseOf(phase[road.from]! + road.travelTimeSeconds, dt) : phaseOf(phase[road.to]! - road.travelTimeSeconds, dt);
+        const d = delay(v, candidate);
+        if (d < bestDelay - 1e-9) {
+          bestDelay = d;
+          best = candidate;
+        }
+      }
+      if (best !== phase[v]) {
+        phase[v] = best;
+        changed = true;
+      }
+    }
+    if (!changed) break;
+  }
+  return travelStepsFromPhases(problem, phase);
+}
+
+/**
+ * Given steps (ExpandOptions.roadTravelSteps), checked: one whole number ≥ 0 per road, and no
+ * cycle of zero-step roads that carry something per step (Kahn's topological sort). The measure
+ * names the potential routeTravelSteps would keep.
+ */
+export function givenTravelSteps(problem: EvacuationProblem, steps: Int32Array): { steps: Int32Array; timing: RouteTimingError } {
+  const { nodeCount: N, roads, timeStepSeconds: dt } = problem;
+  if (steps.length !== roads.length) throw new RangeError(`roadTravelSteps has ${steps.length} entries for ${roads.length} roads`);
+  const indegree = new Int32Array(N);
+  const zero: number[] = [];
+  roads.forEach((road, e) => {
+    if (!(steps[e]! >= 0)) throw new RangeError(`roadTravelSteps[${e}] is ${steps[e]}`);
+    if (steps[e] === 0 && perStepCapacity(road.capacityVehPerHour, dt) > 0) {
+      zero.push(e);
+      indegree[road.to]!++;
+    }
+  });
+  const first = new Int32Array(N + 1);
+  for (const e of zero) first[roads[e]!.from + 1]!++;
+  for (let v = 0; v < N; v++) first[v + 1]! += first[v]!;
+  const fill = first.slice(0, N);
+  const out = new Int32Array(zero.length);
+  for (const e of zero) out[fill[roads[e]!.from]!++] = e;
+  const queue: number[] = [];
+  for (let v = 0; v < N; v++) if (indegree[v] === 0) queue.push(v);
+  let seen = 0;
+  for (let i = 0; i < queue.length; i++) {
+    const v = queue[i]!;
+    seen++;
+    for (let k = first[v]!, end = first[v + 1]!; k < end; k++) {
+      const w = roads[out[k]!]!.to;
+      if (--indegree[w]! === 0) queue.push(w);
+    }
+  }
+  if (seen < N) throw new RangeError('roadTravelSteps: zero-step roads close a cycle');
+  const potential = routeTravelSteps(problem).timing.potential;
+  return { steps, timing: measureRouteTiming(problem, steps, potential) };
 }
 
 /** How modelled route times compare with free flow, per zone and shelter. */

@@ -42,6 +42,8 @@ export interface SolveEvacuationOptions {
   now?: () => number;
   /** Polled between steps; returning true throws FlowAbortedError. */
   shouldAbort?: () => boolean;
+  /** Whole steps per road instead of routeTravelSteps (ExpandOptions.roadTravelSteps). */
+  roadTravelSteps?: Int32Array;
 }
 
 export interface EvacuationWarning {
@@ -241,7 +243,7 @@ function steadyStatePhase(run: SolveRun): SteadyPhase {
 /** The time-expanded network, and the warning when its route times drift past one step. */
 function expansionPhase(run: SolveRun): TimeExpandedNetwork {
   run.progress('expand', 0);
-  const expanded = new ImplicitExpandedNetwork(run.problem);
+  const expanded = new ImplicitExpandedNetwork(run.problem, { roadTravelSteps: run.options.roadTravelSteps });
   const routeWarning = routeTimingWarning(expanded.routeTiming, run.problem);
   if (routeWarning) run.warnings.push(routeWarning);
   run.lap('expand');
@@ -273,7 +275,7 @@ function curvePhase(run: SolveRun, expanded: TimeExpandedNetwork): CurvePhase {
     const curve = computeImplicitCurve(expanded, run.demand, residual, { cutHorizon, onHorizon, shouldAbort: options.shouldAbort });
     phase = { curve, residual, takeCut: curve.takeCutResidual, algorithm };
   } else {
-    const explicit = expandOverTime(run.problem);
+    const explicit = expandOverTime(run.problem, { roadTravelSteps: options.roadTravelSteps });
     const state = createFlowState(explicit.network);
     const curve = computeEvacuationCurve(explicit, run.demand, state, { algorithm, cutHorizon, onHorizon, shouldAbort: options.shouldAbort });
     const residual = expanded.residualFromExplicit(explicit, state.residual);

@@ -28,7 +28,7 @@ import type { EvacuationProblem } from './evacuation-problem';
 import type { FlowNetwork } from './flow-network';
 import { releaseSchedule } from './release-schedule';
 import { closedAtStep, nodeStorage, perStepCapacity } from './road-timing';
-import { routeTravelSteps, type RouteTimingError } from './route-timing';
+import { givenTravelSteps, routeTravelSteps, type RouteTimingError } from './route-timing';
 import { stepWindow } from './step-window';
 
 /** What an expanded arc stands for; arcRef holds the index of the road, node, zone or shelter. */
@@ -101,6 +101,12 @@ export interface ExpandOptions {
    * builds every copy (the oracle in tests).
    */
   prune?: boolean;
+  /**
+   * Whole steps per road (index = road) to use instead of routeTravelSteps(problem), e.g. steps
+   * fitted to a plan (fittedTravelSteps in route-timing.ts). Zero-step roads must not close a
+   * cycle; that is checked. Default: routeTravelSteps.
+   */
+  roadTravelSteps?: Int32Array;
 }
 
 type AddArc = (tail: number, head: number, cap: number, kind: ExpandedArcKind, ref: number) => void;
@@ -261,7 +267,9 @@ export function expansionBasics(problem: EvacuationProblem, options: ExpandOptio
   const nodeTotal = layerBase + (T + 1) * layerSize;
   if (nodeTotal > 0x7fffffff) throw new RangeError(`time-expanded network too large: ${nodeTotal} nodes`);
 
-  const { steps: roadTravelSteps, timing: routeTiming } = routeTravelSteps(problem);
+  const { steps: roadTravelSteps, timing: routeTiming } = options.roadTravelSteps
+    ? givenTravelSteps(problem, options.roadTravelSteps)
+    : routeTravelSteps(problem);
   const roadStepCapacity = new Int32Array(R);
   roads.forEach((road, e) => {
     roadStepCapacity[e] = perStepCapacity(road.capacityVehPerHour, dt);
