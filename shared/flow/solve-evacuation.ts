@@ -175,6 +175,8 @@ export function solveEvacuation(problem: EvacuationProblem, options: SolveEvacua
   // Read-out of the final plan, then the cut: taking the cut may turn the flow state back into
   // the flow of the horizon before clearance (see takeCutResidual), so the final flow is read first.
   const plan = planReadOut(run, expanded, curve);
+  const planWarning = plannedRoutesWarning(plan.trips.plannedRoutes!, expanded.routeTiming, problem);
+  if (planWarning) run.warnings.push(planWarning);
   const bottlenecks = cutPhase(run, expanded, curve);
   const fixes = fixesPhase(run, steady);
   const result = assembleResult(run, { steady, expanded, curve, plan, bottlenecks, fixes });
@@ -471,6 +473,30 @@ function collectWarnings(problem: EvacuationProblem): EvacuationWarning[] {
     }
   });
   return warnings;
+}
+
+/**
+ * A warning when most of the plan's vehicles (the vehicle-weighted median of its routes) drive a
+ * route modelled more than one step off its own free-flow time, while every fastest trip is within
+ * one step (else routeTimingWarning has warned already). No route is modelled more than a step
+ * faster than at free flow (docs/model.md §1), so such routes come out late.
+ */
+function plannedRoutesWarning(planned: PlannedRouteTiming, timing: RouteTimingError, problem: EvacuationProblem): EvacuationWarning | null {
+  const dt = problem.timeStepSeconds;
+  if (planned.vehicles === 0 || planned.typicalSeconds <= dt + 1e-9) return null;
+  if (timing.worst !== null && timing.largestSeconds > dt + 1e-9) return null;
+  const minutes = (seconds: number): string => `${(seconds / 60).toFixed(1)} min`;
+  const step = suggestedTimeStepSeconds({ largestSeconds: planned.typicalSeconds }, dt);
+  const advice = step !== null
+    ? `a time step of ${step} s should bring the typical route within ${dt} s`
+    : 'a shorter time step brings it down about in proportion';
+  return {
+    code: 'route-time-error',
+    message:
+      `the routes the plan's ${planned.vehicles} vehicles drive are modelled typically ${minutes(planned.typicalSeconds)} and up to ${minutes(planned.largestSeconds)} ` +
+      `slower than at free flow (${Math.round(100 * planned.withinOneStepShare)} % within one step), because their roads run against the direction the steps were rounded for ` +
+      `and each is rounded up to a whole ${dt} s step; ${advice}`,
+  };
 }
 
 /**
