@@ -10,7 +10,9 @@ import { organizations } from './db/schema';
 import { startRunQueue } from './queue/run-queue';
 import { startProposalQueue } from './queue/proposal-queue';
 import { startDevOutbox } from './services/briefings/outbox';
-import { closeImportWorkers } from './import/gis/import-in-worker';
+import { closeSchemaReaders } from './import/gis/read-schema-in-worker';
+import { closeRenderPools } from './services/briefings/render-in-worker';
+import { closeVerifierPools } from './services/briefings/signing/verify-in-worker';
 import { importUploadsSettled } from './services/imports';
 
 export async function startApiProcess(config: Config): Promise<void> {
@@ -55,7 +57,7 @@ export async function startApiProcess(config: Config): Promise<void> {
     // Uploads already answered are still storing their last pieces and queuing their job.
     await Promise.race([Promise.all([closed, importUploadsSettled()]), grace]);
     server.closeAllConnections();
-    await Promise.allSettled([runQueue.stop(), outbox?.close(), closeImportWorkers()]);
+    await Promise.allSettled([runQueue.stop(), outbox?.close(), closeSchemaReaders(), closeRenderPools(), closeVerifierPools()]);
     await pool.end();
     process.exit(0);
   }

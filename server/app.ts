@@ -146,7 +146,7 @@ export function createApp({ config, db, pool, log: givenLog, clientDir = default
   app.use('/api/auth', authRouter({ db, config, passport, csrfToken: generateToken }));
   app.use('/api/plans', plansRouter(db));
   app.use('/api/plans/:planId', roadLayersRouter(db, config, answers));
-  app.use('/api/plans/:planId', zonesSheltersRouter(db, config));
+  app.use('/api/plans/:planId', zonesSheltersRouter(db));
   app.use('/api/plans/:planId', scenariosRouter(db));
   app.use('/api/plans/:planId', runsRouter(db, config, runQueue, answers));
   app.use('/api/plans/:planId', importsRouter(db, config, importQueue, log));

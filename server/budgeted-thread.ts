@@ -1,5 +1,7 @@
 // One piece of untrusted or heavy work in a worker thread with a time and memory budget: a run's
-// solve, a search, the reading of an uploaded file. The promise settles once, with what the
+// solve, a search, the reading of an uploaded file, an export. (Work the API answers while the
+// request waits, which cannot pay a thread's start-up each time, runs on warm threads under the
+// same budgets: budgeted-pool.ts.) The promise settles once, with what the
 // caller's message handler accepts or the reason the thread stopped, worded by the caller so a
 // planner can read it. cancel() and interrupt() stop the thread at once.
 import { Worker } from 'node:worker_threads';
@@ -19,6 +21,9 @@ export type ThreadWords = {
 };
 
 export type Settle<T> = { resolve: (value: T) => void; reject: (error: Error) => void };
+
+/** The error a worker thread ends with when it outgrows its heap limit (resourceLimits). */
+export const isOutOfMemory = (err: unknown): boolean => (err as { code?: string } | null)?.code === 'ERR_WORKER_OUT_OF_MEMORY';
 
 export function budgetedThread<T, M>(spec: {
   entry: URL;
@@ -49,8 +54,7 @@ export function budgetedThread<T, M>(spec: {
     const settle: Settle<T> = { resolve: (value) => finish(() => resolve(value)), reject: (error) => finish(() => reject(error)) };
     worker.on('message', (m: M) => spec.onMessage(m, settle));
     worker.on('error', (err: Error & { code?: string }) => {
-      const outOfMemory = err.code === 'ERR_WORKER_OUT_OF_MEMORY';
-      settle.reject(outOfMemory ? spec.fail('budget', spec.words.tooBig) : spec.fail('crash', spec.words.failed(err.message)));
+      settle.reject(isOutOfMemory(err) ? spec.fail('budget', spec.words.tooBig) : spec.fail('crash', spec.words.failed(err.message)));
     });
     worker.on('exit', () => settle.reject(stopReason ?? spec.fail('crash', spec.words.noAnswer)));
   });

@@ -1,19 +1,14 @@
-// Executes one queued import: reads the stored upload in a worker thread (untrusted parsing off
-// the event loop, within a time and memory budget), then saves it with the one save service of
-// its kind (decode, build, save, audit), writing phase and progress to the import row. A cancel
+// The import service: executes one queued import, in two steps: decode (the stored upload read
+// and built in a worker thread, server/import/read-import.ts: untrusted parsing off the event
+// loop, within a time and memory budget), then save (services/save-import.ts: the save service of
+// its kind, one transaction with its audit row), writing phase and progress to the import row. A cancel
 // stops the thread, and one that lands while saving rolls the save back: nothing is written.
 // Safe to run again after a worker died: a finished import is left alone.
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Config } from '../config';
 import type { Database, Tx } from '../db/client';
 import { imports, plans } from '../db/schema';
-import type { RoadGraph } from '../../shared/geo/build-road-graph';
-import type { ShelterFeature } from '../../shared/geo/read-shelters';
-import type { ZoneFeature } from '../../shared/geo/read-zones';
-import { zoneGeometrySchema } from '../../shared/api/zones-shelters';
-import { importOptionsSchema } from '../../shared/api/road-import';
-import { saveRoadLayer } from '../services/road-layers';
-import { createShelters, createZones } from '../services/zones-shelters';
+import { saveImport } from '../services/save-import';
 import { dropImportBytes, importBytes } from '../services/imports';
 import { ImportFailed, readUploadInWorker } from './read-upload-in-worker';
 
@@ -26,6 +21,14 @@ export function createImportExecutor(db: Database, config: Pick<Config, 'IMPORT_
   async function setState(importId: string, values: Partial<typeof imports.$inferInsert>): Promise<boolean> {
     const rows = await db.update(imports).set(values).where(and(eq(imports.id, importId), inFlight)).returning({ id: imports.id });
     return rows.length > 0;
+  }
+
+  /** Ends an import still in flight and frees its bytes, in one transaction (no reader sees it ended with its bytes still there). */
+  async function endImport(importId: string, values: Partial<typeof imports.$inferInsert>): Promise<void> {
+    await db.transaction(async (tx) => {
+      const rows = await tx.update(imports).set(values).where(and(eq(imports.id, importId), inFlight)).returning({ id: imports.id });
+      if (rows.length > 0) await dropImportBytes(tx, importId);
+    });
   }
 
   /** Inside the save's transaction, last: the import must still be running, or everything rolls back. */
@@ -41,9 +44,11 @@ export function createImportExecutor(db: Database, config: Pick<Config, 'IMPORT_
       .innerJoin(plans, eq(plans.id, imports.planId))
       .where(and(eq(imports.id, importId), inFlight));
     if (!job) return;
-    const bytes = await importBytes(db, importId);
-    if (!bytes) return;
     const { imp } = job;
+    // An empty file has no pieces: it is read (and refused by its reader) like any other. Pieces
+    // missing otherwise: the import ended meanwhile, and its bytes went with it.
+    const bytes = (await importBytes(db, importId)) ?? (imp.sizeBytes === 0 ? new Uint8Array(0) : null);
+    if (!bytes) return;
     if (!(await setState(importId, { status: 'running', phase: 'reading the file', progress: 0.05, startedAt: new Date() }))) return;
     const actor = { userId: imp.createdBy, organizationId: job.organizationId };
     const reading = readUploadInWorker(
@@ -61,48 +66,17 @@ export function createImportExecutor(db: Database, config: Pick<Config, 'IMPORT_
       const value = await reading.done;
       clearInterval(watch);
       if (!(await setState(importId, { phase: 'saving', progress: 0.6 }))) return;
-      let outcome: Record<string, unknown>;
-      if (imp.kind === 'road-layer') {
-        const network = value as RoadGraph;
-        const layer = await saveRoadLayer(
-          db,
-          actor,
-          imp.planId,
-          network,
-          { name: imp.layerName ?? imp.fileName, sourceFileName: imp.fileName, importOptions: importOptionsSchema.parse(imp.options ?? {}) },
-          { onProgress: async (share) => void (await setState(importId, { progress: 0.6 + 0.38 * share })), beforeCommit: stillRunning(importId) },
-        );
-        outcome = { layerId: layer.id, segments: layer.segmentCount, nodes: layer.nodeCount };
-      } else if (imp.kind === 'zones') {
-        const features = value as ZoneFeature[];
-        const created = await createZones(
-          db,
-          actor,
-          imp.planId,
-          features.map((f) => ({ ...f.attributes, geometry: zoneGeometrySchema.parse(f.geometry) })),
-          imp.fileName,
-          stillRunning(importId),
-        );
-        outcome = { created: created.length, defaulted: features.map((f) => f.defaulted) };
-      } else {
-        const features = value as ShelterFeature[];
-        const created = await createShelters(
-          db,
-          actor,
-          imp.planId,
-          features.map((f) => ({ ...f.attributes, lon: f.coordinates[0], lat: f.coordinates[1] })),
-          imp.fileName,
-          stillRunning(importId),
-        );
-        outcome = { created: created.length };
-      }
-      if (await setState(importId, { status: 'succeeded', phase: 'done', progress: 1, outcome, finishedAt: new Date() })) await dropImportBytes(db, importId);
+      const outcome = await saveImport(db, actor, imp, value, {
+        onProgress: async (share) => void (await setState(importId, { progress: 0.6 + 0.38 * share })),
+        beforeCommit: stillRunning(importId),
+      });
+      await endImport(importId, { status: 'succeeded', phase: 'done', progress: 1, outcome, finishedAt: new Date() });
     } catch (e) {
       if (e instanceof CancelledWhileSaving) return;
       if (e instanceof ImportFailed && e.kind === 'cancelled') return;
       if (!(e instanceof ImportFailed)) log(e);
       const failure = e instanceof ImportFailed && e.failure ? e.failure : { code: 'unreadableFile' as const, message: e instanceof Error ? e.message : String(e), badFeatures: [] };
-      if (await setState(importId, { status: 'failed', phase: 'failed', failure, finishedAt: new Date() })) await dropImportBytes(db, importId);
+      await endImport(importId, { status: 'failed', phase: 'failed', failure, finishedAt: new Date() });
     } finally {
       clearInterval(watch);
     }

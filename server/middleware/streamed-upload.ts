@@ -63,7 +63,7 @@ export function streamedFileUpload(maxMegabytes: number, fieldNames: readonly st
       failure = error;
       if (timer) clearTimeout(timer);
       req.unpipe(form);
-      res.setHeader('Connection', 'close');
+      if (!res.headersSent) res.setHeader('Connection', 'close');
       if (dropConnection) res.once('finish', () => req.socket?.destroy());
       else req.resume();
       file?.destroy(error);
@@ -101,6 +101,9 @@ export function streamedFileUpload(maxMegabytes: number, fieldNames: readonly st
         return fail(nulInForm());
       }
       file = stream;
+      // The fault reaches the route through `pieces`; once the route has read the whole file, a
+      // fault found later (a second file, too many fields) must not be thrown as an uncaught error.
+      stream.on('error', () => undefined);
       stream.on('limit', () => fail(new HttpError(413, 'payload_too_large', `The file is larger than ${maxMegabytes} MB.`)));
       res.locals.upload = {
         fileName: info.filename ?? 'upload',
@@ -129,6 +132,8 @@ export function streamedFileUpload(maxMegabytes: number, fieldNames: readonly st
     // unread, so the connection is not left stalled on a file nobody consumes.
     res.once('finish', () => {
       if (finished || failure) return;
+      // Answered: the body's time limit no longer matters (its timer would answer a second time).
+      if (timer) clearTimeout(timer);
       req.unpipe(form);
       file?.resume();
       req.resume();
@@ -140,14 +145,20 @@ export function streamedFileUpload(maxMegabytes: number, fieldNames: readonly st
 async function* piecesOf(stream: Readable, failure: () => HttpError | null): AsyncGenerator<Buffer> {
   let held: Buffer[] = [];
   let size = 0;
-  for await (const chunk of stream as AsyncIterable<Buffer>) {
-    held.push(chunk);
-    size += chunk.length;
-    if (size >= PIECE_BYTES) {
-      yield Buffer.concat(held, size);
-      held = [];
-      size = 0;
+  try {
+    for await (const chunk of stream as AsyncIterable<Buffer>) {
+      held.push(chunk);
+      size += chunk.length;
+      if (size >= PIECE_BYTES) {
+        yield Buffer.concat(held, size);
+        held = [];
+        size = 0;
+      }
     }
+  } catch (e) {
+    // The form broke inside the file (cut short, a malformed part): the request's fault, never
+    // the server's, whichever of the file and the form reports it first.
+    throw failure() ?? notReadable(e instanceof Error ? e.message : String(e));
   }
   // A file cut at the size limit ends like a whole one: only the flag tells.
   const fault = failure() ?? ((stream as Readable & { truncated?: boolean }).truncated ? new HttpError(413, 'payload_too_large', 'The file is too large.') : null);

@@ -1,6 +1,7 @@
-// /api/plans/:planId/road-layer and /segments: upload, read for the map and table, edit.
+// /api/plans/:planId/road-layer and /segments: read for the map and table, edit; a file's
+// schema for the mapping step. (Road files are imported as jobs: routes/imports.ts.)
 import { Router } from 'express';
-import { importOptionsSchema, sourceReadOptionsSchema } from '../../shared/api/road-import';
+import { sourceReadOptionsSchema } from '../../shared/api/road-import';
 import {
   segmentBulkUpdateSchema,
   segmentPageQuerySchema,
@@ -12,11 +13,11 @@ import { RoadImportError } from '../../shared/geo/road-import-error';
 import type { Config } from '../config';
 import type { Database } from '../db/client';
 import { ImportRefusedError } from '../errors';
-import { readInWorker } from '../import/gis/import-in-worker';
+import { readSchemaInWorker } from '../import/gis/read-schema-in-worker';
 import { actorOf, requireMember } from '../middleware/require-member';
 import { jsonField, singleFileUpload } from '../middleware/upload';
 import { assertPlanInOrganization, planDataVersion } from '../services/plan-access';
-import { activeLayerVersion, getActiveRoadLayer, getSegment, saveRoadLayer, segmentPageOfLayer, updateSegments } from '../services/road-layers';
+import { activeLayerVersion, getActiveRoadLayer, getSegment, segmentPageOfLayer, updateSegments } from '../services/road-layers';
 import type { AnswerCache } from '../http/answer-cache';
 
 export function roadLayersRouter(db: Database, config: Config, answers: AnswerCache): Router {
@@ -30,24 +31,6 @@ export function roadLayersRouter(db: Database, config: Config, answers: AnswerCa
     await answers.sendJson(req, res, `road-layer ${planId} ${dataVersion}`, async () => JSON.stringify({ layer: await getActiveRoadLayer(db, organizationId, planId) }));
   });
 
-  router.post('/road-layer', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
-    const { planId } = planParamsSchema.parse(req.params);
-    const actor = actorOf(req);
-    await assertPlanInOrganization(db, actor.organizationId, planId);
-    const options = importOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {});
-    const file = req.file!;
-    let network;
-    try {
-      network = await readInWorker({ kind: 'roads', bytes: file.buffer, options, fileName: file.originalname });
-    } catch (e) {
-      if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
-      throw e;
-    }
-    const name = typeof req.body?.name === 'string' && req.body.name.trim() ? req.body.name.trim().slice(0, 200) : file.originalname;
-    const layer = await saveRoadLayer(db, actor, planId, network, { name, sourceFileName: file.originalname, importOptions: options });
-    res.status(201).json({ layer });
-  });
-
   // The field-mapping step: what a file holds (fields, samples, CRS, extent, first features), read
   // in a worker thread like the import itself. Nothing is saved.
   router.post('/file-schema', requireMember('plans:write'), singleFileUpload(config.UPLOAD_MAX_MEGABYTES), async (req, res) => {
@@ -55,7 +38,7 @@ export function roadLayersRouter(db: Database, config: Config, answers: AnswerCa
     await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
     const source = sourceReadOptionsSchema.parse(jsonField(req.body?.source, 'source') ?? {});
     try {
-      res.json(await readInWorker({ kind: 'schema', bytes: req.file!.buffer, options: source, fileName: req.file!.originalname }));
+      res.json(await readSchemaInWorker(req.file!.buffer, source, req.file!.originalname));
     } catch (e) {
       if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
       throw e;

@@ -2,25 +2,17 @@
 import { Router } from 'express';
 import { capacityTableSchema } from '../../shared/api/capacity-table';
 import { planParamsSchema } from '../../shared/api/plans';
-import { shelterUploadOptionsSchema, zoneUploadOptionsSchema } from '../../shared/api/road-import';
 import {
   shelterCreateSchema,
   shelterParamsSchema,
   shelterUpdateSchema,
   zoneCreateSchema,
   zoneParamsSchema,
-  zoneGeometrySchema,
   zoneUpdateSchema,
 } from '../../shared/api/zones-shelters';
-import { RoadImportError } from '../../shared/geo/road-import-error';
-import type { Config } from '../config';
 import type { Database } from '../db/client';
-import { ImportRefusedError } from '../errors';
-import { readInWorker } from '../import/gis/import-in-worker';
 import { actorOf, requireMember } from '../middleware/require-member';
-import { jsonField, singleFileUpload } from '../middleware/upload';
 import { capacityTableHistory, getCapacityTable, putCapacityTable } from '../services/capacity-table';
-import { assertPlanInOrganization } from '../services/plan-access';
 import { describeAttachments, loadPlanModel } from '../services/plan-model';
 import { listCaps } from '../../shared/api/pagination';
 import { pageOf, sendPage } from '../http/list-page';
@@ -35,18 +27,8 @@ import {
   updateZone,
 } from '../services/zones-shelters';
 
-async function refusing<T>(read: () => Promise<T>): Promise<T> {
-  try {
-    return await read();
-  } catch (e) {
-    if (e instanceof RoadImportError) throw new ImportRefusedError(e.failure);
-    throw e;
-  }
-}
-
-export function zonesSheltersRouter(db: Database, config: Config): Router {
+export function zonesSheltersRouter(db: Database): Router {
   const router = Router({ mergeParams: true });
-  const upload = singleFileUpload(Math.min(config.UPLOAD_MAX_MEGABYTES, 64));
 
   router.get('/zones', requireMember('plans:read'), async (req, res) => {
     const { planId } = planParamsSchema.parse(req.params);
@@ -58,14 +40,6 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
     const input = zoneCreateSchema.parse(req.body);
     const [zone] = await createZones(db, actorOf(req), planId, [input], 'form');
     res.status(201).json(zone);
-  });
-  router.post('/zones/upload', requireMember('plans:write'), upload, async (req, res) => {
-    const { planId } = planParamsSchema.parse(req.params);
-    await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
-    const options = zoneUploadOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {});
-    const features = await refusing(() => readInWorker({ kind: 'zones', bytes: req.file!.buffer, options, fileName: req.file!.originalname }));
-    const created = await createZones(db, actorOf(req), planId, features.map((f) => ({ ...f.attributes, geometry: zoneGeometrySchema.parse(f.geometry) })), req.file!.originalname);
-    res.status(201).json({ zones: created, defaulted: features.map((f) => f.defaulted) });
   });
   router.patch('/zones/:zoneId', requireMember('plans:write'), async (req, res) => {
     const { planId, zoneId } = zoneParamsSchema.parse(req.params);
@@ -86,20 +60,6 @@ export function zonesSheltersRouter(db: Database, config: Config): Router {
     const { planId } = planParamsSchema.parse(req.params);
     const [shelter] = await createShelters(db, actorOf(req), planId, [shelterCreateSchema.parse(req.body)], 'form');
     res.status(201).json(shelter);
-  });
-  router.post('/shelters/upload', requireMember('plans:write'), upload, async (req, res) => {
-    const { planId } = planParamsSchema.parse(req.params);
-    await assertPlanInOrganization(db, actorOf(req).organizationId, planId);
-    const options = shelterUploadOptionsSchema.parse(jsonField(req.body?.options, 'options') ?? {});
-    const features = await refusing(() => readInWorker({ kind: 'shelters', bytes: req.file!.buffer, options, fileName: req.file!.originalname }));
-    const created = await createShelters(
-      db,
-      actorOf(req),
-      planId,
-      features.map((f) => ({ ...f.attributes, lon: f.coordinates[0], lat: f.coordinates[1] })),
-      req.file!.originalname,
-    );
-    res.status(201).json({ shelters: created });
   });
   router.patch('/shelters/:shelterId', requireMember('plans:write'), async (req, res) => {
     const { planId, shelterId } = shelterParamsSchema.parse(req.params);

@@ -16,7 +16,7 @@ import { enumerateRoutes, routeKey } from './support/enumerate-routes';
 import { callers, accountOf, isOtherOrganization, sessionFor, type Caller } from './support/callers';
 import { farCounty, farCountyAccounts } from './support/far-county';
 import { adminsOnly, otherOrganizationOnly, publicRoute, readers, signers, writers, type Expected } from './support/expected-status';
-import { binary, createFarPlan, createFixtures, shelterBody, smallRoadFile, square, zoneBody, type Fixtures } from './support/authorization-fixtures';
+import { binary, createFarPlan, createFixtures, shelterBody, smallRoadFile, zoneBody, type Fixtures } from './support/authorization-fixtures';
 import { databaseFingerprint } from './support/database-fingerprint';
 
 type Call = {
@@ -44,14 +44,6 @@ const presetBody = (name: string) => ({ name, kind: 'roads', fieldNames: ['RD_CL
 const viewerOnlySignedCopies = (expected: Expected): Expected => ({ ...expected, viewer: 403 });
 const pick = async <T,>(succeeds: boolean, fresh: () => Promise<T>, shared: T) => (succeeds ? fresh() : shared);
 const throughOwnPlan = 'the demo record through the caller’s own plan';
-const zonesFile = (name: string) => ({
-  bytes: Buffer.from(JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name, population: 300 }, geometry: square(10.004, 50.002, 0.001) }] })),
-  name: 'zones.geojson',
-});
-const sheltersFile = (name: string) => ({
-  bytes: Buffer.from(JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name, capacityPersons: 120 }, geometry: { type: 'Point', coordinates: [10.006, 50.002] } }] })),
-  name: 'shelters.geojson',
-});
 /** A name for what the caller creates; the demo organization's are remembered for the leak check. */
 const named = (f: Fixtures, c: Caller, what: string) => {
   const name = `${what} ${f.next()}${isOtherOrganization(c) ? ' (Far County)' : ''}`;
@@ -96,11 +88,6 @@ const rows: Row[] = [
 
   // Road layer and segments
   { route: 'GET /api/plans/:planId/road-layer', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
-  {
-    route: 'POST /api/plans/:planId/road-layer',
-    expect: writers(201),
-    call: async (f, _c, ok) => ({ params: { planId: await pick(ok, f.fresh.plan, f.drill.id) }, file: { bytes: smallRoadFile(['Tannery Lane', 'Weir Street', 'Lock Bridge']), name: 'veltmoor-drill-roads.geojson' } }),
-  },
   // Imports (queued jobs: a worker reads and saves the file)
   {
     route: 'POST /api/plans/:planId/imports/:kind',
@@ -108,6 +95,19 @@ const rows: Row[] = [
     // A file the reader refuses: the import is accepted (202) and fails in its job, writing no
     // shelter, so nothing lands in the tables later refused calls fingerprint.
     call: (f) => ({ params: { planId: f.drill.id, kind: 'shelters' }, file: { bytes: Buffer.from('not a feature collection'), name: 'refused.geojson' } }),
+  },
+  // Each kind the route imports, for each caller (files the reader refuses, as above).
+  {
+    route: 'POST /api/plans/:planId/imports/:kind',
+    variant: 'a road file',
+    expect: writers(202),
+    call: (f) => ({ params: { planId: f.drill.id, kind: 'road-layer' }, file: { bytes: Buffer.from('{"type": "FeatureCollection", "features": ['), name: 'refused-roads.geojson' } }),
+  },
+  {
+    route: 'POST /api/plans/:planId/imports/:kind',
+    variant: 'a zone file',
+    expect: writers(202),
+    call: (f) => ({ params: { planId: f.drill.id, kind: 'zones' }, file: { bytes: Buffer.from('{"type": "FeatureCollection", "features": [{"type": "Feature"}]}'), name: 'refused-zones.geojson' } }),
   },
   { route: 'GET /api/plans/:planId/imports/:importId', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id, importId: f.plan.queuedImportId } }) },
   {
@@ -162,7 +162,6 @@ const rows: Row[] = [
   // Zones and shelters
   { route: 'GET /api/plans/:planId/zones', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
   { route: 'POST /api/plans/:planId/zones', expect: writers(201), call: (f, c) => ({ params: { planId: f.drill.id }, body: zoneBody(named(f, c, 'Tannery Ward')) }) },
-  { route: 'POST /api/plans/:planId/zones/upload', expect: writers(201), call: (f, c) => ({ params: { planId: f.drill.id }, file: zonesFile(named(f, c, 'Tannery Ward')) }) },
   { route: 'PATCH /api/plans/:planId/zones/:zoneId', expect: writers(200), call: (f) => ({ params: { planId: f.drill.id, zoneId: f.drill.zoneId }, body: { population: 1000 + f.next() } }) },
   {
     route: 'PATCH /api/plans/:planId/zones/:zoneId',
@@ -174,7 +173,6 @@ const rows: Row[] = [
   { route: 'DELETE /api/plans/:planId/zones/:zoneId', variant: throughOwnPlan, expect: otherOrganizationOnly(writers(204)), call: (f) => ({ params: { planId: f.far.planId, zoneId: f.drill.zoneId } }) },
   { route: 'GET /api/plans/:planId/shelters', expect: readers(200), call: (f) => ({ params: { planId: f.plan.id } }) },
   { route: 'POST /api/plans/:planId/shelters', expect: writers(201), call: (f, c) => ({ params: { planId: f.drill.id }, body: shelterBody(named(f, c, 'Weir Hall')) }) },
-  { route: 'POST /api/plans/:planId/shelters/upload', expect: writers(201), call: (f, c) => ({ params: { planId: f.drill.id }, file: sheltersFile(named(f, c, 'Weir Hall')) }) },
   { route: 'PATCH /api/plans/:planId/shelters/:shelterId', expect: writers(200), call: (f) => ({ params: { planId: f.drill.id, shelterId: f.drill.shelterId }, body: { capacityPersons: 100 + f.next() } }) },
   {
     route: 'PATCH /api/plans/:planId/shelters/:shelterId',

@@ -1,16 +1,17 @@
 // County GIS files through the API into the real database: a zipped Shapefile in a state-plane
 // CRS with the planner's mapping, its schema read for the mapping step, shelters and zones
-// from CSV; and hostile files of each new format refused readably with no row written.
+// from CSV (imported as jobs); and hostile files of each new format refused readably by their
+// import job with no row written.
 import { join } from 'node:path';
 import { strToU8, unzipSync, zipSync } from 'fflate';
-import type { Test } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { fileSchemaSchema } from '../../shared/api/road-import';
 import { tool, westOaklandWorkspace, zipFolder } from '../shared/gis/reference-tools';
-import { expectReadableRefusal } from './support/readable-refusal';
+import { expectReadableFailure } from './support/readable-refusal';
+import { imported, importedRoadLayer, importRefused } from './support/import-jobs';
 import { createTestContext, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
 
-// The first upload starts the import thread pool, which loads the readers (slow on a busy machine).
+// Each import's job starts a reading thread, which loads the readers (slow on a busy machine).
 vi.setConfig({ testTimeout: 120_000 });
 
 let ctx: TestContext;
@@ -19,7 +20,7 @@ let planId: string;
 let shpZip: Uint8Array;
 
 beforeAll(async () => {
-  ctx = await createTestContext();
+  ctx = await createTestContext({}, { withRunWorker: true });
   planner = await signInAs(ctx.app, 'planner');
   planId = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'County files' }).expect(201)).body.id;
   const w = westOaklandWorkspace();
@@ -32,15 +33,13 @@ afterAll(async () => {
   await ctx.drop();
 });
 
-function post(path: string, bytes: Uint8Array, fileName: string, fields: Record<string, unknown> = {}): Test {
-  const req = planner.agent.post(`/api/plans/${planId}/${path}`).set('x-csrf-token', planner.csrf).attach('file', Buffer.from(bytes), fileName);
-  for (const [k, v] of Object.entries(fields)) req.field(k, JSON.stringify(v));
-  return req;
+function post(path: string, bytes: Uint8Array, fileName: string) {
+  return planner.agent.post(`/api/plans/${planId}/${path}`).set('x-csrf-token', planner.csrf).attach('file', Buffer.from(bytes), fileName);
 }
 
 async function writable(): Promise<Record<string, unknown>> {
   const { rows } = await ctx.pool.query(`SELECT (SELECT count(*) FROM road_layers)::int AS layers, (SELECT count(*) FROM road_segments)::int AS segments,
-    (SELECT count(*) FROM zones)::int AS zones, (SELECT count(*) FROM shelters)::int AS shelters, (SELECT count(*) FROM audit_events)::int AS audit,
+    (SELECT count(*) FROM zones)::int AS zones, (SELECT count(*) FROM shelters)::int AS shelters, (SELECT count(*) FROM audit_events WHERE action NOT LIKE 'import.%')::int AS audit,
     (SELECT sum(data_version) FROM plans)::int AS versions`);
   return rows[0];
 }
@@ -65,7 +64,7 @@ describe('a county Shapefile', () => {
 
   it('imports with the mapping and keeps the source CRS on the layer', async () => {
     const options = { propertyMapping: { roadClass: 'highway', name: 'name', lanes: 'lanes', oneway: 'oneway' } };
-    const { layer } = (await post('road-layer', shpZip, 'centerlines.zip', { options }).expect(201)).body;
+    const layer = await importedRoadLayer(planner, planId, shpZip, 'centerlines.zip', { options });
     expect(layer.report.sourceFormat).toBe('shapefile');
     expect(layer.report.sourceCrs.name).toBe('NAD_1983_StatePlane_California_III_FIPS_0403_Feet');
     expect(layer.segmentCount).toBe(layer.report.segmentCount);
@@ -77,19 +76,24 @@ describe('a county Shapefile', () => {
 describe('shelters and zones from CSV with the planner’s columns', () => {
   it('shelters in state-plane feet with a capacity column', async () => {
     const csv = 'SITE_NAME,X_COORD,Y_COORD,CAP_PERS\nArmory Hall,6050000,2115000,240\nNorth School,6051500,2116200,180\n';
-    const res = await post('shelters/upload', strToU8(csv), 'shelters.csv', {
+    const plan = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'CSV shelters' }).expect(201)).body.id;
+    await imported(planner, plan, 'shelters', strToU8(csv), 'shelters.csv', {
       options: { source: { crs: 'EPSG:2227', xColumn: 'X_COORD', yColumn: 'Y_COORD' }, fields: { name: 'SITE_NAME', capacityPersons: 'CAP_PERS' } },
-    }).expect(201);
-    expect(res.body.shelters.map((s: { name: string; capacityPersons: number }) => [s.name, s.capacityPersons])).toEqual([
+    });
+    const shelters = (await planner.agent.get(`/api/plans/${plan}/shelters`).expect(200)).body.shelters;
+    expect(shelters.map((s: { name: string; capacityPersons: number }) => [s.name, s.capacityPersons])).toEqual([
       ['Armory Hall', 240],
       ['North School', 180],
     ]);
   });
   it('zones as points with a population and a participation in percent', async () => {
     const csv = 'ZONE,lon,lat,POP,PART_PCT\nWard A,-122.300,37.807,1200,80\n';
-    const res = await post('zones/upload', strToU8(csv), 'zones.csv', { options: { fields: { name: 'ZONE', population: 'POP', participationRate: 'PART_PCT' } } }).expect(201);
-    expect(res.body.zones[0]).toMatchObject({ name: 'Ward A', population: 1200, participationRate: 0.8 });
-    expect(res.body.zones[0].geometry.type).toBe('Polygon');
+    const plan = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'CSV zones' }).expect(201)).body.id;
+    await imported(planner, plan, 'zones', strToU8(csv), 'zones.csv', { options: { fields: { name: 'ZONE', population: 'POP', participationRate: 'PART_PCT' } } });
+    const zones = (await planner.agent.get(`/api/plans/${plan}/zones`).expect(200)).body.zones;
+    expect(zones).toHaveLength(1);
+    expect(zones[0]).toMatchObject({ name: 'Ward A', population: 1200, participationRate: 0.8 });
+    expect(zones[0].geometry.type).toBe('Polygon');
   });
 });
 
@@ -106,9 +110,9 @@ function zipBomb(declared: number): Uint8Array {
   return zip;
 }
 
-describe('hostile files of the new formats: refused readably, nothing written', () => {
+describe('hostile files of the new formats: refused readably by their import job, nothing written', () => {
   const entries = () => unzipSync(shpZip);
-  const cases: [string, string, () => Uint8Array, string][] = [
+  const cases: ['road-layer' | 'zones' | 'shelters', string, () => Uint8Array, string][] = [
     ['road-layer', 'a truncated zip', () => shpZip.subarray(0, Math.floor(shpZip.length / 2)), 'roads.zip'],
     ['road-layer', 'a .shp without a .dbf', () => { const e = entries(); delete e['centerlines.dbf']; return zipSync(e); }, 'roads.zip'],
     ['road-layer', 'a wrong .prj', () => { const e = entries(); e['centerlines.prj'] = strToU8('PROJCS["nothing"'); return zipSync(e); }, 'roads.zip'],
@@ -116,14 +120,14 @@ describe('hostile files of the new formats: refused readably, nothing written', 
     ['road-layer', 'a zip bomb (declaring 600 MB inside a few kilobytes)', () => zipBomb(600 * 1024 * 1024), 'roads.zip'],
     ['road-layer', 'KML with entities', () => strToU8('<?xml version="1.0"?><!DOCTYPE kml [<!ENTITY a "aaaa"><!ENTITY b "&a;&a;&a;">]><kml><Document><name>&b;</name></Document></kml>'), 'roads.kml'],
     ['road-layer', 'a PBF cut short', () => Uint8Array.from([0, 0, 0, 14, 0x0a, 9, ...strToU8('OSMHeader'), 0x18, 0x7f]), 'roads.osm.pbf'],
-    ['zones/upload', 'a truncated zip', () => shpZip.subarray(0, 1000), 'zones.zip'],
-    ['shelters/upload', 'a KMZ with entities', () => zipSync({ 'doc.kml': strToU8('<!DOCTYPE kml [<!ENTITY x SYSTEM "file:///etc/passwd">]><kml/>') }), 'shelters.kmz'],
+    ['zones', 'a truncated zip', () => shpZip.subarray(0, 1000), 'zones.zip'],
+    ['shelters', 'a KMZ with entities', () => zipSync({ 'doc.kml': strToU8('<!DOCTYPE kml [<!ENTITY x SYSTEM "file:///etc/passwd">]><kml/>') }), 'shelters.kmz'],
   ];
-  it.each(cases)('%s: %s', async (path, _what, bytes, fileName) => {
+  it.each(cases)('%s: %s', async (kind, _what, bytes, fileName) => {
     const before = await writable();
-    const res = await post(path, bytes(), fileName);
-    const error = expectReadableRefusal(res, `${path} ${fileName}`);
-    expect(error.importFailure?.message.startsWith(fileName)).toBe(true);
+    const failure = await importRefused(planner, planId, kind, bytes(), fileName);
+    expectReadableFailure(failure, `${kind} ${fileName}`);
+    expect(failure.message.startsWith(fileName)).toBe(true);
     expect(await writable()).toEqual(before);
   });
 });

@@ -84,7 +84,6 @@ const rows: Record<string, Row> = {
   },
   'POST /api/plans': { who: 'planner', path: () => '/api/plans', body: { json: () => ({ name: 'Hostile plan', description: 'made by a test' }), refuses: refusedBy(planCreateSchema) } },
   'PATCH /api/plans/:id': { who: 'planner', path: (f) => `/api/plans/${f.planId}`, body: { json: () => ({ name: 'Renamed', description: 'edited' }), refuses: refusedBy(planUpdateSchema) } },
-  'POST /api/plans/:planId/road-layer': { who: 'planner', path: (f) => `/api/plans/${f.planId}/road-layer`, body: 'upload' },
   'PATCH /api/plans/:planId/segments/:segmentId': {
     who: 'planner',
     path: (f) => `/api/plans/${f.planId}/segments/${f.segmentId}`,
@@ -110,7 +109,6 @@ const rows: Record<string, Row> = {
       refuses: refusedBy(zoneCreateSchema),
     },
   },
-  'POST /api/plans/:planId/zones/upload': { who: 'planner', path: (f) => `/api/plans/${f.planId}/zones/upload`, body: 'upload' },
   'PATCH /api/plans/:planId/zones/:zoneId': {
     who: 'planner',
     path: (f) => `/api/plans/${f.planId}/zones/${f.zoneId}`,
@@ -121,7 +119,6 @@ const rows: Record<string, Row> = {
     path: (f) => `/api/plans/${f.planId}/shelters`,
     body: { json: () => ({ name: 'Hall', capacityPersons: 300, lon: -38.5, lat: 44.2 }), refuses: refusedBy(shelterCreateSchema) },
   },
-  'POST /api/plans/:planId/shelters/upload': { who: 'planner', path: (f) => `/api/plans/${f.planId}/shelters/upload`, body: 'upload' },
   'POST /api/plans/:planId/imports/:kind': { who: 'planner', path: (f) => `/api/plans/${f.planId}/imports/road-layer`, body: 'upload' },
   // No import exists under this id: whatever the body, the answer is a readable 404.
   'POST /api/plans/:planId/imports/:importId/cancel': {

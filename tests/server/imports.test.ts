@@ -80,8 +80,9 @@ describe('a road layer import', () => {
   it('is queued at once, reports its phase and progress from the worker, and saves the layer', async () => {
     const res = await upload('road-layer', JSON.stringify(roads), 'roads.geojson').expect(202);
     expect(res.body.status).toBe('queued');
-    // The bytes wait in PostgreSQL for any worker.
-    expect(await storedBytes(res.body.id)).toBeGreaterThan(0);
+    // The bytes wait in PostgreSQL for any worker (stored behind the answer: the trigger in
+    // beforeAll logs each piece, since the worker drops them once it has read them).
+    await until('its pieces to be stored', async () => ((await ctx.pool.query('SELECT 1 FROM chunk_log WHERE import_id = $1', [res.body.id])).rowCount! > 0 ? true : undefined));
     const done = await finished(res.body.id);
     expect(done.status, JSON.stringify(done.failure)).toBe('succeeded');
     expect(done.progress).toBe(1);
@@ -144,6 +145,19 @@ describe('a road layer import', () => {
     expect(done.failure!.code).toBe('unreadableFile');
     expect(done.failure!.message.length).toBeGreaterThan(10);
     expect(await countRows(ctx, 'road_layers')).toBe(before);
+  }, 180_000);
+});
+
+describe('an empty file', () => {
+  // It has no pieces to store: the job still reads it and fails with the reader's reason (it used
+  // to find no bytes and leave the import queued for ever).
+  it('fails in its job with the reason, and writes nothing', async () => {
+    const before = await countRows(ctx, 'zones');
+    const { id } = (await upload('zones', Buffer.alloc(0), 'empty.geojson').expect(202)).body;
+    const done = await finished(id);
+    expect(done.status).toBe('failed');
+    expect(done.failure!.message).toMatch(/empty/i);
+    expect(await countRows(ctx, 'zones')).toBe(before);
   }, 180_000);
 });
 
@@ -236,7 +250,7 @@ describe('the upload request', () => {
   }, 180_000);
 
   it('refused on the way (too large, a field it does not take, bad options after the file): a clear 4xx and no import, piece or audit row', async () => {
-    const small = await createTestContext({ UPLOAD_MAX_MEGABYTES: '1' });
+    const small = await createTestContext({ UPLOAD_MAX_MEGABYTES: '1', UPLOAD_READ_TIMEOUT_SECONDS: '1' });
     try {
       const member = await signInAs(small.app, 'planner');
       const plan = (await member.agent.post('/api/plans').set('x-csrf-token', member.csrf).send({ name: 'Refusals' }).expect(201)).body.id;
@@ -252,6 +266,11 @@ describe('the upload request', () => {
       expect(twice.body.error.message).toContain('twice');
       const late = await post().attach('file', Buffer.from(JSON.stringify(roads)), 'roads.geojson').field('options', '{"snapToleranceMeters": -1}').expect(400);
       expect(JSON.stringify(late.body.error)).toContain('snapToleranceMeters');
+      // Options refused before the file: answered before the form has been read to its end. The
+      // body's time limit must not answer again once it runs out (it used to throw, uncaught).
+      const early = await post().field('options', '{"snapToleranceMeters": -1}').attach('file', Buffer.from(JSON.stringify(roads)), 'roads.geojson').expect(400);
+      expect(JSON.stringify(early.body.error)).toContain('snapToleranceMeters');
+      await new Promise((r) => setTimeout(r, 1_500));
       expect(await rows()).toEqual(before);
       expect(small.errors).toEqual([]);
     } finally {

@@ -1,9 +1,11 @@
-// Each kind of file a planner brings, uploaded through the API into the real database: the
+// Each kind of file a planner brings, imported through the API (the import route and its job)
+// into the real database: the
 // demo town, a real OpenStreetMap extract, GIS data without shared vertices, and a broken file.
 import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
+import { importedRoadLayer, importRefused } from './support/import-jobs';
 
 const root = path.resolve(import.meta.dirname, '../..');
 const file = (p: string) => fs.readFileSync(path.join(root, p));
@@ -15,10 +17,7 @@ async function newPlan(name: string): Promise<string> {
   return (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name }).expect(201)).body.id;
 }
 
-function upload(planId: string, bytes: Buffer, fileName: string, options?: object) {
-  const req = planner.agent.post(`/api/plans/${planId}/road-layer`).set('x-csrf-token', planner.csrf).attach('file', bytes, fileName);
-  return options ? req.field('options', JSON.stringify(options)) : req;
-}
+const upload = (planId: string, bytes: Buffer, fileName: string, options?: object) => importedRoadLayer(planner, planId, bytes, fileName, options ? { options } : {});
 
 async function stored(layerId: number) {
   const { rows } = await ctx.pool.query(
@@ -34,7 +33,7 @@ async function stored(layerId: number) {
 }
 
 beforeAll(async () => {
-  ctx = await createTestContext();
+  ctx = await createTestContext({}, { withRunWorker: true });
   planner = await signInAs(ctx.app, 'planner');
 });
 afterAll(async () => {
@@ -42,10 +41,10 @@ afterAll(async () => {
   await ctx.drop();
 });
 
-describe('road files through the upload endpoint', () => {
+describe('road files through the import route and its job', () => {
   it('the demo town: every segment and node stored, arcs as reported', async () => {
     const planId = await newPlan('Demo roads');
-    const { layer } = (await upload(planId, file('server/seed/demo-town/roads.geojson'), 'roads.geojson').expect(201)).body;
+    const layer = await upload(planId, file('server/seed/demo-town/roads.geojson'), 'roads.geojson');
     const db = await stored(layer.id);
     expect(db.segments).toBe(layer.report.segmentCount);
     expect(db.nodes).toBe(layer.report.nodeCount);
@@ -59,7 +58,7 @@ describe('road files through the upload endpoint', () => {
 
   it('a real OpenStreetMap extract (West Oakland, © OpenStreetMap contributors, ODbL; from Debian python-osmnx-doc)', async () => {
     const planId = await newPlan('West Oakland');
-    const { layer } = (await upload(planId, file('tests/fixtures/osm/West-Oakland.osm.bz2'), 'West-Oakland.osm.bz2').expect(201)).body;
+    const layer = await upload(planId, file('tests/fixtures/osm/West-Oakland.osm.bz2'), 'West-Oakland.osm.bz2');
     expect(layer.report.sourceFormat).toBe('osmXml');
     // 23 drivable ways (residential, service, secondary, unclassified), as counted from the
     // file in tests/shared/geo/west-oakland.test.ts.
@@ -74,7 +73,7 @@ describe('road files through the upload endpoint', () => {
     const planId = await newPlan('GIS');
     const mapping = JSON.parse(file('tests/fixtures/geo/gis-no-shared-vertices.mapping.json').toString());
     const options = 'propertyMapping' in mapping ? mapping : { propertyMapping: mapping };
-    const { layer } = (await upload(planId, file('tests/fixtures/geo/gis-no-shared-vertices.geojson'), 'streets.geojson', options).expect(201)).body;
+    const layer = await upload(planId, file('tests/fixtures/geo/gis-no-shared-vertices.geojson'), 'streets.geojson', options);
     expect(layer.report.splitAtCrossings).toBe(true);
     expect(layer.report.crossingsJoined).toBeGreaterThan(0);
     expect(layer.report.crossingsOnDifferentLayers).toBeGreaterThan(0);
@@ -83,20 +82,21 @@ describe('road files through the upload endpoint', () => {
 
   it('a deliberately broken file: every bad feature named, nothing half-saved', async () => {
     const planId = await newPlan('Broken');
-    const tables = ['road_layers', 'road_nodes', 'road_segments', 'audit_events'];
-    const before = await Promise.all(tables.map((t) => countRows(ctx, t)));
-    const res = await upload(planId, file('tests/fixtures/geo/broken-roads.geojson'), 'broken.geojson').expect(400);
-    expect(res.body.error.importFailure.code).toBe('badFeatures');
-    expect(res.body.error.importFailure.badFeatures.length).toBeGreaterThan(1);
-    for (const bad of res.body.error.importFailure.badFeatures) expect(bad.problem.length).toBeGreaterThan(5);
-    expect(await Promise.all(tables.map((t) => countRows(ctx, t)))).toEqual(before);
+    const tables = ['road_layers', 'road_nodes', 'road_segments'];
+    const counts = async () => [...(await Promise.all(tables.map((t) => countRows(ctx, t)))), (await ctx.pool.query("SELECT count(*)::int AS n FROM audit_events WHERE action NOT LIKE 'import.%'")).rows[0].n];
+    const before = await counts();
+    const failure = await importRefused(planner, planId, 'road-layer', file('tests/fixtures/geo/broken-roads.geojson'), 'broken.geojson');
+    expect(failure.code).toBe('badFeatures');
+    expect(failure.badFeatures.length).toBeGreaterThan(1);
+    for (const bad of failure.badFeatures) expect(bad.problem.length).toBeGreaterThan(5);
+    expect(await counts()).toEqual(before);
     expect((await planner.agent.get(`/api/plans/${planId}/road-layer`).expect(200)).body.layer).toBeNull();
   });
 
   it('a second upload replaces the active layer and keeps the first for old runs', async () => {
     const planId = await newPlan('Twice');
-    const first = (await upload(planId, file('tests/fixtures/osm/West-Oakland.osm.bz2'), 'a.osm.bz2').expect(201)).body.layer;
-    const second = (await upload(planId, file('server/seed/demo-town/roads.geojson'), 'b.geojson').expect(201)).body.layer;
+    const first = await upload(planId, file('tests/fixtures/osm/West-Oakland.osm.bz2'), 'a.osm.bz2');
+    const second = await upload(planId, file('server/seed/demo-town/roads.geojson'), 'b.geojson');
     expect((await planner.agent.get(`/api/plans/${planId}/road-layer`)).body.layer.id).toBe(second.id);
     expect((await stored(first.id)).segments).toBe(first.segmentCount);
   });

@@ -1,8 +1,9 @@
-// Road-layer upload, storage, map and table queries and edits, against the real PostgreSQL
+// Road-layer import (through the import job), storage, map and table queries and edits, against the real PostgreSQL
 // with PostGIS. Small GeoJSON files are made here; real-world files are checked in
 // road-layer-files.test.ts.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signInAs, countRows, type SignedInAgent, type TestContext } from './support/test-app';
+import { importedRoadLayer, importRefused, postImport } from './support/import-jobs';
 
 let ctx: TestContext;
 let planner: SignedInAgent;
@@ -25,18 +26,19 @@ const crossing = {
   ],
 };
 
-function upload(agent: SignedInAgent, body: unknown, fileName = 'roads.geojson') {
-  const bytes = Buffer.from(typeof body === 'string' ? body : JSON.stringify(body));
-  return agent.agent.post(`/api/plans/${planId}/road-layer`).set('x-csrf-token', agent.csrf).attach('file', bytes, fileName);
-}
+const bytesOf = (body: unknown) => Buffer.from(typeof body === 'string' ? body : JSON.stringify(body));
+const upload = (agent: SignedInAgent, body: unknown, fileName = 'roads.geojson') => postImport(agent, planId, 'road-layer', bytesOf(body), fileName);
+const layerOf = (body: unknown, fileName = 'roads.geojson') => importedRoadLayer(planner, planId, bytesOf(body), fileName);
+const refusal = (body: unknown, fileName = 'roads.geojson') => importRefused(planner, planId, 'road-layer', bytesOf(body), fileName);
 
-const tables = ['road_layers', 'road_nodes', 'road_segments', 'audit_events'];
+const tables = ['road_layers', 'road_nodes', 'road_segments'];
 async function counts() {
-  return Promise.all(tables.map((t) => countRows(ctx, t)));
+  const audit = await ctx.pool.query("SELECT count(*)::int AS n FROM audit_events WHERE action NOT LIKE 'import.%'");
+  return [...(await Promise.all(tables.map((t) => countRows(ctx, t)))), audit.rows[0].n];
 }
 
 beforeAll(async () => {
-  ctx = await createTestContext();
+  ctx = await createTestContext({}, { withRunWorker: true });
   planner = await signInAs(ctx.app, 'planner');
   viewer = await signInAs(ctx.app, 'viewer');
   planId = (await planner.agent.post('/api/plans').set('x-csrf-token', planner.csrf).send({ name: 'Roads' }).expect(201)).body.id;
@@ -48,8 +50,7 @@ afterAll(async () => {
 
 describe('uploading a road layer', () => {
   it('splits GIS roads where they cross on one layer, not under a bridge, and stores the result', async () => {
-    const res = await upload(planner, crossing).expect(201);
-    const { layer } = res.body;
+    const layer = await layerOf(crossing);
     // East Road is cut at North Lane (joined) but passes under High Bridge (different layer):
     // East Road → 2 segments, North Lane → 2, High Bridge → 1.
     expect(layer.segmentCount).toBe(5);
@@ -71,11 +72,11 @@ describe('uploading a road layer', () => {
     const before = await summaryOf();
     expect(await summaryOf()).toEqual(before);
     const replacement = { type: 'FeatureCollection', features: crossing.features.slice(0, 2) };
-    const { layer } = (await upload(planner, replacement, 'two-roads.geojson').expect(201)).body;
+    const layer = await layerOf(replacement, 'two-roads.geojson');
     expect(layer.id).not.toBe(before.id);
     expect(await summaryOf()).toMatchObject({ id: layer.id, segmentCount: 4 });
     // Back to the three roads the tests below expect.
-    expect((await upload(planner, crossing).expect(201)).body.layer.segmentCount).toBe(5);
+    expect((await layerOf(crossing)).segmentCount).toBe(5);
   });
 
   it('refuses a broken file, names each bad feature and saves nothing', async () => {
@@ -88,35 +89,37 @@ describe('uploading a road layer', () => {
         road([[10, 50], [200, 50]], { highway: 'residential' }),
       ],
     };
-    const res = await upload(planner, broken).expect(400);
-    expect(res.body.error.importFailure.code).toBe('badFeatures');
-    expect(res.body.error.importFailure.badFeatures.map((f: { index: number }) => f.index)).toEqual([1, 2]);
+    const failure = await refusal(broken);
+    expect(failure.code).toBe('badFeatures');
+    expect(failure.badFeatures.map((f) => f.index)).toEqual([1, 2]);
     expect(await counts()).toEqual(before);
   });
 
   it('refuses a file that is not JSON with a plain message', async () => {
     const before = await counts();
-    const res = await upload(planner, '{"type": "FeatureCollection", "features": [', 'roads.geojson').expect(400);
-    expect(res.body.error.importFailure.code).toBe('unreadableFile');
-    expect(res.body.error.message.length).toBeGreaterThan(10);
+    const failure = await refusal('{"type": "FeatureCollection", "features": [');
+    expect(failure.code).toBe('unreadableFile');
+    expect(failure.message.length).toBeGreaterThan(10);
     expect(await counts()).toEqual(before);
   });
 
   it('refuses a coordinate reference system it does not know (known ones are reprojected: tests/shared/gis)', async () => {
-    const res = await upload(planner, { ...crossing, crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:EPSG::999999' } } }).expect(400);
-    expect(res.body.error.importFailure.code).toBe('wrongCrs');
-    expect(res.body.error.importFailure.message).toMatch(/EPSG:999999 is not a coordinate system this server knows/);
+    const failure = await refusal({ ...crossing, crs: { type: 'name', properties: { name: 'urn:ogc:def:crs:EPSG::999999' } } });
+    expect(failure.code).toBe('wrongCrs');
+    expect(failure.message).toMatch(/EPSG:999999 is not a coordinate system this server knows/);
   });
 
   it('asks for the file when none is attached', async () => {
-    const res = await planner.agent.post(`/api/plans/${planId}/road-layer`).set('x-csrf-token', planner.csrf).field('name', 'x').expect(400);
+    const res = await planner.agent.post(`/api/plans/${planId}/imports/road-layer`).set('x-csrf-token', planner.csrf).field('name', 'x').expect(400);
     expect(res.body.error.fields[0].path).toBe('file');
   });
 
   it('does not let a viewer upload', async () => {
     const before = await counts();
+    const imports = await countRows(ctx, 'imports');
     await upload(viewer, crossing).expect(403);
     expect(await counts()).toEqual(before);
+    expect(await countRows(ctx, 'imports')).toBe(imports);
   });
 });
 

@@ -5,6 +5,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, countRows, signInAs, type SignedInAgent, type TestContext } from './support/test-app';
+import { importEnded } from './support/import-jobs';
 
 let ctx: TestContext;
 let planner: SignedInAgent;
@@ -18,7 +19,7 @@ const zones = JSON.stringify({
 });
 
 beforeAll(async () => {
-  ctx = await createTestContext({ UPLOADS_AT_ONCE: '1' });
+  ctx = await createTestContext({ UPLOADS_AT_ONCE: '1' }, { withRunWorker: true });
   planner = await signInAs(ctx.app, 'planner');
   planId = (await planner.agent.get('/api/plans').expect(200)).body.plans[0].id;
   server = ctx.app.listen(0, '127.0.0.1');
@@ -43,13 +44,14 @@ describe('upload slots', () => {
       host: '127.0.0.1',
       port,
       method: 'POST',
-      path: `/api/plans/${planId}/zones/upload`,
+      path: `/api/plans/${planId}/imports/zones`,
       headers: { cookie, 'x-csrf-token': planner.csrf, 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': Buffer.byteLength(body) },
     });
-    const slowAnswer = new Promise<number>((resolve, reject) => {
+    const slowAnswer = new Promise<{ status: number; body: string }>((resolve, reject) => {
       slow.on('response', (res) => {
-        res.resume();
-        resolve(res.statusCode!);
+        let body = '';
+        res.on('data', (d: Buffer) => (body += d.toString()));
+        res.on('end', () => resolve({ status: res.statusCode!, body }));
       });
       slow.on('error', reject);
     });
@@ -57,16 +59,21 @@ describe('upload slots', () => {
     await new Promise((r) => setTimeout(r, 300));
 
     const zonesBefore = await countRows(ctx, 'zones');
-    const refused = await planner.agent.post(`/api/plans/${planId}/zones/upload`).set('x-csrf-token', planner.csrf).attach('file', Buffer.from(zones), 'zones.geojson');
+    const importsBefore = await countRows(ctx, 'imports');
+    const refused = await planner.agent.post(`/api/plans/${planId}/imports/zones`).set('x-csrf-token', planner.csrf).attach('file', Buffer.from(zones), 'zones.geojson');
     expect(refused.status).toBe(503);
     expect(refused.headers['retry-after']).toBe('30');
     expect(refused.body.error).toEqual({ code: 'busy', message: 'The server is reading 1 other uploads; try again in a minute.' });
     expect(await countRows(ctx, 'zones')).toBe(zonesBefore);
+    // The refused upload left no import behind (the slow one's row is already there).
+    expect(await countRows(ctx, 'imports')).toBe(importsBefore);
 
     slow.end(zones + tail);
-    expect(await slowAnswer).toBe(201);
-    const next = await planner.agent.post(`/api/plans/${planId}/zones/upload`).set('x-csrf-token', planner.csrf).attach('file', Buffer.from(zones), 'zones.geojson');
-    expect(next.status).toBe(201);
+    const first = await slowAnswer;
+    expect(first.status).toBe(202);
+    const next = await planner.agent.post(`/api/plans/${planId}/imports/zones`).set('x-csrf-token', planner.csrf).attach('file', Buffer.from(zones), 'zones.geojson');
+    expect(next.status).toBe(202);
+    for (const id of [JSON.parse(first.body).id as string, next.body.id as string]) expect((await importEnded(planner, planId, id)).status).toBe('succeeded');
     expect(await countRows(ctx, 'zones')).toBe(zonesBefore + 2);
   });
 

@@ -2,6 +2,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestContext, signIn, signInAs, countRows, otherAccounts, type SignedInAgent, type TestContext } from './support/test-app';
 import { defaultCapacityTable } from '../../shared/model/capacity-defaults';
+import { imported, importRefused } from './support/import-jobs';
 
 let ctx: TestContext;
 let planner: SignedInAgent;
@@ -15,7 +16,7 @@ const square = (lon: number, lat: number, d: number) => ({
 });
 
 beforeAll(async () => {
-  ctx = await createTestContext();
+  ctx = await createTestContext({}, { withRunWorker: true });
   planner = await signInAs(ctx.app, 'planner');
   viewer = await signInAs(ctx.app, 'viewer');
   admin = await signInAs(ctx.app, 'admin');
@@ -73,25 +74,19 @@ describe('zones', () => {
     expect(await countRows(ctx, 'zones')).toBe(before);
   });
 
-  it('uploads zones from GeoJSON, all or nothing', async () => {
+  it('imports zones from GeoJSON, all or nothing', async () => {
     const before = await countRows(ctx, 'zones');
     const bad = { type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'A', population: 10 }, geometry: square(1, 1, 0.01) }, { type: 'Feature', properties: { name: 'B' }, geometry: square(2, 2, 0.01) }] };
-    const refused = await planner.agent
-      .post(`/api/plans/${demoPlanId}/zones/upload`)
-      .set('x-csrf-token', planner.csrf)
-      .attach('file', Buffer.from(JSON.stringify(bad)), 'zones.geojson')
-      .expect(400);
-    expect(refused.body.error.importFailure.badFeatures.map((f: { index: number }) => f.index)).toEqual([1]);
+    const refused = await importRefused(planner, demoPlanId, 'zones', JSON.stringify(bad), 'zones.geojson');
+    expect(refused.badFeatures.map((f) => f.index)).toEqual([1]);
     expect(await countRows(ctx, 'zones')).toBe(before);
     const good = { type: 'FeatureCollection', features: [bad.features[0]] };
-    const ok = await planner.agent
-      .post(`/api/plans/${demoPlanId}/zones/upload`)
-      .set('x-csrf-token', planner.csrf)
-      .attach('file', Buffer.from(JSON.stringify(good)), 'zones.geojson')
-      .expect(201);
-    expect(ok.body.zones).toHaveLength(1);
-    expect(ok.body.defaulted[0]).toContain('participationRate');
-    await planner.agent.delete(`/api/plans/${demoPlanId}/zones/${ok.body.zones[0].id}`).set('x-csrf-token', planner.csrf).expect(204);
+    const ok = await imported(planner, demoPlanId, 'zones', JSON.stringify(good), 'zones.geojson');
+    expect(ok.outcome).toMatchObject({ created: 1 });
+    expect((ok.outcome!['defaulted'] as string[][])[0]).toContain('participationRate');
+    expect(await countRows(ctx, 'zones')).toBe(before + 1);
+    const zone = (await ctx.pool.query("SELECT id FROM zones WHERE plan_id = $1 AND name = 'A'", [demoPlanId])).rows[0];
+    await planner.agent.delete(`/api/plans/${demoPlanId}/zones/${zone.id}`).set('x-csrf-token', planner.csrf).expect(204);
   });
 
   it('is read-only for viewers', async () => {

@@ -1,9 +1,10 @@
 // Briefing PDFs are laid out in a worker thread with a time and a memory budget, so a county's
 // briefing (tens of thousands of map lines) never holds up the process's requests, and a render
-// that runs away is stopped with a reason instead of taking the process down. Everything the
-// render reads comes in its input or from the installed packages (pdfmake's fonts): any machine
-// running the code can render.
-import { Piscina } from 'piscina';
+// that runs away is stopped with a reason instead of taking the process down. The threads are
+// warm threads of a budgeted pool (server/budgeted-pool.ts). Everything the render reads comes in
+// its input or from the installed packages (pdfmake's fonts): any machine running the code can
+// render.
+import { budgetedPool, PoolTaskFailed, type BudgetedPool } from '../../budgeted-pool';
 import type { BriefingInput } from './briefing-input';
 
 export type RenderBudget = { seconds: number; megabytes: number };
@@ -11,19 +12,20 @@ export const defaultRenderBudget: RenderBudget = { seconds: 120, megabytes: 1024
 
 export class RenderFailure extends Error {}
 
-// One small pool per memory budget (a pool's threads share their resource limits). One thread
-// is started with the pool and kept: loading the renderer (pdfmake, fonts, the page code) takes
-// seconds, which a planner should not wait for at each briefing.
-const pools = new Map<number, Piscina>();
-function poolFor(megabytes: number): Piscina {
+// One small pool per memory budget (a thread's heap limit is set when it starts). One thread is
+// kept warm: loading the renderer (pdfmake, fonts, the page code) takes seconds, which a planner
+// should not wait for at each briefing. Renders beyond two at once wait their turn.
+const pools = new Map<number, BudgetedPool<BriefingInput, Uint8Array>>();
+function poolFor(megabytes: number): BudgetedPool<BriefingInput, Uint8Array> {
   let pool = pools.get(megabytes);
   if (!pool) {
-    pool = new Piscina({
-      filename: new URL('./render-worker-entry.mjs', import.meta.url).href,
-      minThreads: 1,
-      maxThreads: 2,
-      idleTimeout: 60_000,
-      resourceLimits: { maxOldGenerationSizeMb: megabytes, maxYoungGenerationSizeMb: Math.min(64, Math.max(8, megabytes / 8)) },
+    pool = budgetedPool<BriefingInput, Uint8Array>({
+      task: new URL('./render-worker.ts', import.meta.url),
+      threads: 2,
+      queue: 1_000,
+      keepWarm: 1,
+      memoryMegabytes: megabytes,
+      youngMegabytes: Math.min(64, Math.max(8, megabytes / 8)),
     });
     pools.set(megabytes, pool);
   }
@@ -32,26 +34,25 @@ function poolFor(megabytes: number): Piscina {
 
 /** Starts the renderer's thread for this budget now, so the first briefing does not wait for it. */
 export function warmRenderer(budget: RenderBudget = defaultRenderBudget): void {
-  poolFor(budget.megabytes);
+  poolFor(budget.megabytes).warm();
 }
 
 /** The briefing's PDF, rendered off this thread; RenderFailure (with the reason) past a budget. */
 export async function renderBriefingPdfInWorker(input: BriefingInput, budget: RenderBudget = defaultRenderBudget): Promise<Buffer> {
-  const signal = AbortSignal.timeout(budget.seconds * 1000);
   try {
-    const bytes: Uint8Array = await poolFor(budget.megabytes).run(input, { signal });
+    const bytes = await poolFor(budget.megabytes).run(input, budget.seconds * 1000);
     return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   } catch (e) {
-    if (signal.aborted) throw new RenderFailure(`The briefing took longer than its budget of ${budget.seconds} s to lay out and was stopped.`);
-    if ((e as { code?: string }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
-      throw new RenderFailure(`The briefing needed more than its memory budget of ${budget.megabytes} MB to lay out and was stopped.`);
-    }
-    throw e;
+    if (!(e instanceof PoolTaskFailed)) throw e;
+    if (e.stop === 'time') throw new RenderFailure(`The briefing took longer than its budget of ${budget.seconds} s to lay out and was stopped.`);
+    if (e.stop === 'memory') throw new RenderFailure(`The briefing needed more than its memory budget of ${budget.megabytes} MB to lay out and was stopped.`);
+    throw new Error(`Laying out the briefing failed: ${e.message}`);
   }
 }
 
-/** Ends the idle threads (tests, shutdown). */
+/** Ends the threads (tests, shutdown). */
 export async function closeRenderPools(): Promise<void> {
-  await Promise.all([...pools.values()].map((p) => p.destroy()));
+  const all = [...pools.values()];
   pools.clear();
+  await Promise.all(all.map((p) => p.close()));
 }

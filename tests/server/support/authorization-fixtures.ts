@@ -11,6 +11,7 @@ import { demoOrganization } from '../../../server/seed/demo-accounts';
 import { defaultRunParameters, type RunParameters } from '../../../shared/api/runs';
 import type { Caller } from './callers';
 import { demoPlanId } from './demo-run';
+import { importedRoadLayer } from './import-jobs';
 import type { SignedInAgent, TestContext } from './test-app';
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
@@ -211,7 +212,7 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
   };
   const drillId = await newPlan('Veltmoor drill plan');
   remember('Veltmoor drill copy');
-  await api(planner, 'post', `/api/plans/${drillId}/road-layer`, undefined, { bytes: smallRoadFile(['Tannery Lane', 'Weir Street', 'Lock Bridge']), name: 'veltmoor-drill-roads.geojson' });
+  await importedRoadLayer(planner, drillId, smallRoadFile(['Tannery Lane', 'Weir Street', 'Lock Bridge']), 'veltmoor-drill-roads.geojson');
   remember('Tannery Lane', 'Weir Street', 'Lock Bridge', 'veltmoor-drill-roads.geojson');
   const drillSegments = (await api(planner, 'get', `/api/plans/${drillId}/segments`)).items.map((s: { id: number }) => s.id) as number[];
   const zone = async () => {
@@ -311,6 +312,6 @@ export async function createFixtures(ctx: TestContext, as: (c: Caller) => Signed
 /** Far County's own plan with a small road layer: the other organization's callers reach for demo records through it. */
 export async function createFarPlan(farPlanner: SignedInAgent): Promise<string> {
   const p = await api(farPlanner, 'post', '/api/plans', { name: 'Far County levee plan' });
-  await api(farPlanner, 'post', `/api/plans/${p.id}/road-layer`, undefined, { bytes: smallRoadFile(['Levee Road', 'Dyke Lane', 'Sluice Bridge'], 11, 51), name: 'far-roads.geojson' });
+  await importedRoadLayer(farPlanner, p.id, smallRoadFile(['Levee Road', 'Dyke Lane', 'Sluice Bridge'], 11, 51), 'far-roads.geojson');
   return p.id as string;
 }

@@ -32,3 +32,10 @@ export function expectReadableRefusal(res: Response, context: string) {
   }
   return error;
 }
+
+/** An import's failure (what its job ended with) is as readable as a refusal's envelope. */
+export function expectReadableFailure(failure: { message: string; badFeatures: { index: number; problem: string }[] } | null | undefined, context: string): void {
+  expect(failure, `${context}: no failure`).toBeTruthy();
+  expectReadable(failure!.message, `${context}: import failure`);
+  for (const bad of failure!.badFeatures) expectReadable(bad.problem, `${context}: bad feature ${bad.index}`);
+}
