@@ -94,7 +94,7 @@ function benchInstance(instance: BenchInstance, boost: string | null): Row[] {
     process.stderr.write(` ${r.solveMs} ms\n`);
     rows.push({
       instance: instance.name,
-      solver: algorithm === 'auto' ? `ours: auto (finished by ${String(r.algorithm)})` : `ours: ${algorithm}`,
+      solver: algorithm === 'auto' ? `ours: auto (shape ${String(r.shape)}, finished by ${String(r.algorithm)})` : `ours: ${algorithm}`,
       nodes: r.nodes as number,
       arcs: r.arcs as number,
       value: r.value as number | null,
@@ -194,7 +194,7 @@ for (const instance of INSTANCES) {
 // Each of our solvers against the faster Boost solver, per instance above: the geometric mean of
 // the CPU-time ratios, warm and first run.
 const geometricMeans: string[] = [];
-const solverKey = (label: string): string => label.replace(/ \(finished by .*\)$/, '');
+const solverKey = (label: string): string => label.replace(/ \(shape .*\)$/, '');
 const geometricMean = (xs: number[]): string => Math.exp(xs.reduce((sum, x) => sum + Math.log(x), 0) / xs.length).toFixed(2);
 for (const solver of [...new Set(rows.filter((r) => r.solver.startsWith('ours')).map((r) => solverKey(r.solver)))]) {
   const pairs = INSTANCES.flatMap((instance) => {

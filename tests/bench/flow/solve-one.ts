@@ -88,6 +88,7 @@ if (values.evacuation) {
     const runs: { wall: number; cpu: number }[] = [];
     let value = 0;
     let used = '';
+    let shape: string | undefined;
     let verified = true;
     let aborted = false;
     // As in Boost's binary, the residual array is allocated before the clock starts (Boost's
@@ -105,6 +106,7 @@ if (values.evacuation) {
         runs.push({ wall: performance.now() - started, cpu: cpuMs() - startedCpu });
         value = netOutflow(network, state, source);
         used = run.algorithm;
+        shape = run.autoChoice?.shape;
         if (k === 0) {
           verified = verify(network, { source, sink, value, flow: arcFlows(network, state), minCut: minimumCut(network, state.residual, source) }).ok;
         }
@@ -124,6 +126,7 @@ if (values.evacuation) {
     print({
       instance: instance.name,
       algorithm: used || algorithm,
+      ...(shape ? { shape } : {}),
       nodes: network.nodeCount,
       arcs: network.arcCount,
       value: aborted ? null : value,
