@@ -1,10 +1,9 @@
 // Times each search on the demo town and on the generated county (tests/bench/county, 179,108
 // segments). Figures go into README.md beside this file; never run in tests.
 //   npx tsx tests/bench/optimization/run.ts [demo|county|all] [--layout explicit|implicit|auto] [--county-hours H] [--clearance-tests N]
-// The searches over time run on the layout given (default auto: as the product chooses, the
-// written-out network where it fits the default run budget, else the implicit one). On the county
-// they run on the implicit network at a one-minute step; run the county once, never in a loop
-// (it takes several GB and many minutes).
+// The searches over time run on the layout given (default auto: as the product chooses under its
+// default run budget, shared/model/search-budget.ts). On the county they run on the implicit
+// network at a one-minute step; run the county once, never in a loop (several GB, many minutes).
 import { antiparallelPairs, bestContraflow, bestLaneImprovements, bestReleaseOrder, rankClosures, zoneRoutes, type ExpandedLayout } from '../../../shared/plan-optimization';
 import type { EvacuationProblem } from '../../../shared/flow';
 import { chooseSearchLayout } from '../../../shared/model/search-budget';

@@ -31,13 +31,17 @@ describe('search layout and budget', () => {
     expect(expandedSize(n.nodeCount, n.roads, 60, n.entries).arcs).toBe((360 + 100 + 5) * 61);
   });
 
-  it('takes the written-out network where it fits, the implicit one where only that fits, and refuses past both', () => {
+  it('closures: the written-out network where it fits, else the implicit one; the other searches the implicit one; refused past both', () => {
     const arcs = 1e9;
-    expect(chooseSearchLayout('release-order', problem, { maxExpandedArcs: arcs, maxBytes: bytes('release-order', 'explicit') })).toEqual({ layout: 'explicit', refusal: null });
-    expect(chooseSearchLayout('release-order', problem, { maxExpandedArcs: arcs, maxBytes: bytes('release-order', 'explicit') - 1 })).toEqual({ layout: 'implicit', refusal: null });
+    expect(chooseSearchLayout('closures', problem, { maxExpandedArcs: arcs, maxBytes: bytes('closures', 'explicit') })).toEqual({ layout: 'explicit', refusal: null });
+    expect(chooseSearchLayout('closures', problem, { maxExpandedArcs: arcs, maxBytes: bytes('closures', 'explicit') - 1 })).toEqual({ layout: 'implicit', refusal: null });
+    for (const search of ['release-order', 'zone-routes', 'contraflow'] as const) {
+      expect(chooseSearchLayout(search, problem, { maxExpandedArcs: arcs, maxBytes: 2 ** 40 })).toEqual({ layout: 'implicit', refusal: null });
+    }
     // Closures keep more beside the network on either layout.
     expect(bytes('closures', 'explicit')).toBeGreaterThan(bytes('release-order', 'explicit'));
-    expect(chooseSearchLayout('closures', problem, { maxExpandedArcs: arcs, maxBytes: bytes('release-order', 'explicit') }).layout).toBe('implicit');
+    expect(bytes('closures', 'implicit')).toBeGreaterThan(bytes('release-order', 'implicit'));
+    expect(chooseSearchLayout('release-order', problem, { maxExpandedArcs: arcs, maxBytes: bytes('release-order', 'implicit') - 1 }).layout).toBeNull();
     const refused = chooseSearchLayout('closures', problem, { maxExpandedArcs: arcs, maxBytes: bytes('closures', 'implicit') - 1 });
     expect(refused.layout).toBeNull();
     expect(refused.refusal).toMatch(/At a time step of 90 seconds it fits/);
