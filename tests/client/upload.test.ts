@@ -61,10 +61,10 @@ describe('uploadFile', () => {
     vi.stubGlobal('XMLHttpRequest', FakeXhr);
     setCsrfToken('token-7');
     const shares: number[] = [];
-    const promise = uploadFile('/plans/p/road-layer', file(), z.object({ ok: z.boolean() }), { fields: { name: 'Roads' }, onProgress: (p) => shares.push(p.share) });
+    const promise = uploadFile('/plans/p/imports/road-layer', file(), z.object({ ok: z.boolean() }), { fields: { name: 'Roads' }, onProgress: (p) => shares.push(p.share) });
     const xhr = FakeXhr.last;
     expect(xhr.method).toBe('POST');
-    expect(xhr.url).toBe('/api/plans/p/road-layer');
+    expect(xhr.url).toBe('/api/plans/p/imports/road-layer');
     expect(xhr.headers['x-csrf-token']).toBe('token-7');
     expect(xhr.withCredentials).toBe(true);
     expect((xhr.body!.get('file') as File).name).toBe('roads.geojson');
@@ -78,7 +78,7 @@ describe('uploadFile', () => {
 
   it('turns a refused import into an ApiError carrying the bad features', async () => {
     vi.stubGlobal('XMLHttpRequest', FakeXhr);
-    const promise = uploadFile('/plans/p/road-layer', file(), z.object({}));
+    const promise = uploadFile('/plans/p/imports/road-layer', file(), z.object({}));
     const importFailure = { code: 'badFeatures', message: '2 features are malformed.', badFeatures: [{ index: 3, id: null, problem: 'no coordinates' }] };
     FakeXhr.last.answer(400, { error: { code: 'invalid_request', message: '2 features are malformed.', importFailure } });
     const error = (await promise.catch((e: unknown) => e)) as ApiError;
