@@ -21,10 +21,16 @@ export type OverTimeSearch = 'contraflow' | 'closures' | 'release-order' | 'zone
 const WRITTEN_OUT: ExpandedBytes = { perArc: 57, perNode: 40 };
 /** Closures also keep the base flow while each road works on a copy, and one more while the horizon grows: 16 bytes per arc; the sink tree's per-node arrays: 20. */
 const WRITTEN_OUT_CLOSURES: ExpandedBytes = { perArc: 73, perNode: 60 };
-/** Implicit: a run's (implicit residuals, the curve's undo bits, the solver), and the path walk's next arc per node. */
-const IMPLICIT: ExpandedBytes = { perArc: BYTES_PER_EXPANDED_ARC, perNode: BYTES_PER_EXPANDED_NODE + 4 };
-/** Closures on the implicit layout keep the kept paths and each road's change journal (16 bytes per change) beside the base flow: 2 bytes per arc allowed. */
-const IMPLICIT_CLOSURES: ExpandedBytes = { perArc: BYTES_PER_EXPANDED_ARC + 2, perNode: BYTES_PER_EXPANDED_NODE + 4 };
+/**
+ * Implicit: a run's per node, and the path walk's next arc; per arc a run's 10 bytes and 6 more,
+ * because a search builds one network after another and the last one's memory is not always
+ * returned before the next is built: on the generated county at 60 s over 6 h (183.5 million
+ * arcs, 32.5 million node copies) the quickest departure order peaked at 3,427 MiB, where one
+ * network is 2.3 GB (tests/bench/optimization/README.md); 16 and 26 bound that by 5 % (3,606 MiB).
+ */
+const IMPLICIT: ExpandedBytes = { perArc: BYTES_PER_EXPANDED_ARC + 6, perNode: BYTES_PER_EXPANDED_NODE + 4 };
+/** Closures on the implicit layout keep the kept paths and each road's change journal (16 bytes per change) beside the base flow: 2 bytes per arc more. */
+const IMPLICIT_CLOSURES: ExpandedBytes = { perArc: IMPLICIT.perArc + 2, perNode: IMPLICIT.perNode };
 
 export function searchBytes(search: OverTimeSearch, layout: SearchLayout): ExpandedBytes {
   if (layout === 'explicit') return search === 'closures' ? WRITTEN_OUT_CLOSURES : WRITTEN_OUT;
