@@ -251,6 +251,8 @@ export function useRoadSegmentsLayer(handle: ShallowRef<WorkspaceMap | null>, op
     /** Adds geometry learnt elsewhere (a run's choke points) for roads not known yet. */
     remember,
     ensureGeometry,
+    /** Whether a click at this point picks a road (the tiles drawn have one within the pick radius). */
+    hasRoadAt: (latlng: L.LatLng) => roadAt(latlng) !== null,
     /** What the tiles said of a road picked on the map. */
     propertiesOf: (segmentId: number) => properties.get(segmentId),
   };

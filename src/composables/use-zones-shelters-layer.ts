@@ -19,6 +19,8 @@ export type ZonesSheltersLayerOptions = {
   selectedZoneId: Ref<number | null>;
   selectedShelterId: Ref<number | null>;
   onSelectZone: (zoneId: number) => void;
+  /** True where a click belongs to something drawn over the zones (a road): the zone lets it be. */
+  clickTakenAt?: (latlng: L.LatLng) => boolean;
   onSelectShelter: (shelterId: number) => void;
 };
 
@@ -64,7 +66,12 @@ export function useZonesSheltersLayer(handle: ShallowRef<WorkspaceMap | null>, o
         pane: h.zoneRenderer.options.pane,
       } as L.GeoJSONOptions);
       bindTextTooltip(layer, zone.name, { permanent: true, direction: 'center', className: 'cutline-zone-label', opacity: 0.9 });
-      layer.on('click', () => options.onSelectZone(zone.id));
+      layer.on('click', (e: L.LeafletMouseEvent) => {
+        // A road inside a zone is picked by the map's click (the roads' own handler); selecting
+        // the zone as well would open its editor over the road's.
+        if (options.clickTakenAt?.(e.latlng)) return;
+        options.onSelectZone(zone.id);
+      });
       zoneGroup.addLayer(layer);
     }
   }

@@ -9,6 +9,7 @@ import type { APIRequestContext, BrowserContext, Page } from 'playwright-core';
 import { importSchema } from '../../shared/api/imports';
 import { planSchema } from '../../shared/api/plans';
 import { runWithResultSchema } from '../../shared/api/runs';
+import { booleanPointInPolygon, pointToLineDistance, polygonToLine } from '@turf/turf';
 import { countyRoads, countyShelters, countyZones, type CountySpec } from '../bench/county/county';
 import { signInThroughForm } from './support/sign-in-form';
 import { launchChromium, screenshotDir } from './support/chromium';
@@ -59,6 +60,29 @@ async function countyPlan(request: APIRequestContext): Promise<string> {
     await new Promise((r) => setTimeout(r, 500));
   }
   return planId;
+}
+
+/**
+ * The midpoint of a secondary street's block (drawn at every zoom the whole county shows) at least
+ * 300 m inside a zone, and the centre of the road layer's extent (where the map centres it).
+ */
+function insideZoneArterialMidpoint(): { lon: number; lat: number; centre: [number, number] } {
+  const roads = countyRoads(spec).features.filter((f) => f.properties?.waterway === undefined);
+  const xs = roads.flatMap((f) => f.geometry.coordinates.map((c) => c[0]!));
+  const ys = roads.flatMap((f) => f.geometry.coordinates.map((c) => c[1]!));
+  const centre: [number, number] = [(Math.min(...xs) + Math.max(...xs)) / 2, (Math.min(...ys) + Math.max(...ys)) / 2];
+  const zones = countyZones(spec).features;
+  for (const road of roads) {
+    if (road.properties?.highway !== 'secondary' || road.properties?.bridge) continue;
+    const c = road.geometry.coordinates;
+    const [a, b] = [c[0]!, c[1]!];
+    const mid = [(a[0]! + b[0]!) / 2, (a[1]! + b[1]!) / 2];
+    const zone = zones.find((z) => booleanPointInPolygon(mid, z));
+    if (zone && pointToLineDistance(mid, polygonToLine(zone) as Parameters<typeof pointToLineDistance>[1], { units: 'meters' }) >= 300) {
+      return { lon: mid[0]!, lat: mid[1]!, centre };
+    }
+  }
+  throw new Error('no secondary street deep inside a zone');
 }
 
 async function tilesDrawn(page: Page) {
@@ -127,6 +151,25 @@ it('shows the county at two zooms from vector tiles, and a clicked road opens it
   expect(await figures.innerText()).toMatch(/veh\/h/);
   await page.waitForTimeout(300);
   await page.screenshot({ path: path.join(screenshotDir, 'county-road-figures-1366x768.png') });
+
+  // A road inside a zone: the click picks the road alone, not also the zone drawn under it (whose
+  // editor would then cover the road's). The whole county again, and the middle of an arterial
+  // street deep inside a zone, placed on screen from the map's centre and its scale bar.
+  await page.goto(`${server.url}/plans/${planId}`);
+  await tilesDrawn(page);
+  await page.waitForTimeout(600);
+  const inside = insideZoneArterialMidpoint();
+  const whole = (await page.locator('.leaflet-container').boundingBox())!;
+  const wholePerPixel = await metresPerPixel(page);
+  const R = 6_371_000; // Leaflet's Earth radius (L.CRS.Earth.R), as its scale bar measures
+  const rad = Math.PI / 180;
+  const [east, north] = [(inside.lon - inside.centre[0]) * rad * R * Math.cos(inside.centre[1] * rad), (inside.lat - inside.centre[1]) * rad * R];
+  await page.mouse.click(whole.x + whole.width / 2 + east / wholePerPixel, whole.y + whole.height / 2 - north / wholePerPixel);
+  await page.locator('[data-test="segment-editor"]').waitFor();
+  await page.waitForTimeout(800);
+  expect(await page.locator('[data-test="zone-form"]').isVisible()).toBe(false);
+  expect(await page.locator('[data-test="segment-editor"]').isVisible()).toBe(true);
+  await page.screenshot({ path: path.join(screenshotDir, 'county-road-in-zone-1366x768.png') });
 
   expect(errors).toEqual([]);
 });
